@@ -1,0 +1,42 @@
+import type { Metric } from '../store/RowTable.js';
+
+/** A double-descent peak along x in one map row. */
+export interface Peak {
+  /** Refined location (parabola in transformed x), data units. */
+  x: number;
+  /** Bootstrap (or curve-noise) interval of the location, data units. */
+  low: number;
+  high: number;
+  /** Mean metric at the peak cell. */
+  error: number;
+  /** Height over the higher of the two flanking minima, in metric units. */
+  prominence: number;
+  /** Prominence divided by the pooled standard error. */
+  prominenceSe: number;
+  /** The measured x of the cell holding the maximum. */
+  cellX: number;
+}
+
+export interface RidgeRow {
+  y: number;
+  peak: Peak | null;
+  /** Further significant peaks in the row, less prominent than `peak`. */
+  others: Peak[];
+  /** Smallest x with mean train error <= epsilon; null when not reached. */
+  threshold: number | null;
+  /** peak.x / threshold, null when either is missing. */
+  ratio: number | null;
+  /** Where the noise scale came from: seeds (≥ 2 per cell) or the curve itself (single seed). */
+  noiseFrom: 'seeds' | 'curve';
+}
+
+export interface RidgeResult {
+  map: string;
+  x: string;
+  y: string;
+  metric: Metric;
+  fixed: Record<string, number | string>;
+  minProminence: number;
+  epsilon: number;
+  rows: RidgeRow[];
+}

@@ -1,0 +1,80 @@
+import yargs from 'yargs';
+import type { Argv } from 'yargs';
+import { UserError } from '../UserError.js';
+import { general } from '../messages.js';
+import type { CommandSpec } from './CommandSpec.js';
+
+/**
+ * Command registry. Each entry loads its module only when that command runs (or its --help is
+ * asked for), so `datlas --help` never pays for heavy imports. Keep one line per command.
+ */
+const COMMANDS: Record<string, { describe: string; load: () => Promise<{ command: CommandSpec<any> }> }> = {
+  // registry:start (one line per command, keep alphabetical)
+  // registry:end
+};
+
+function globalOptions(y: Argv): Argv {
+  return y
+    .option('json', { type: 'boolean', default: false, describe: 'machine-readable JSON on stdout' })
+    .option('quiet', { type: 'boolean', default: false, describe: 'no progress or notes on stderr' })
+    .option('debug', { type: 'boolean', default: false, describe: 'show stack traces of internal errors' });
+}
+
+function base(args: string[]): Argv {
+  return globalOptions(yargs(args))
+    .scriptName('datlas')
+    .usage('$0 <command> [options]\n\nMaps of test error over capacity sweeps: double-descent peaks, missing runs, next runs.')
+    .strict()
+    .help()
+    .alias('h', 'help')
+    .version(false)
+    .wrap(Math.min(100, process.stdout.columns || 100));
+}
+
+/** Runs the CLI and returns the exit code. Never throws. */
+export async function main(args: string[]): Promise<number> {
+  const debug = args.includes('--debug');
+  const name = args.find((a) => !a.startsWith('-'));
+  let failure: { message: string; code: number } | null = null;
+  let code = 0;
+  try {
+    let y = base(args).fail((msg, err) => {
+      if (err) throw err;
+      failure = { message: msg, code: 2 };
+    });
+    if (name && COMMANDS[name]) {
+      const { command } = await COMMANDS[name].load();
+      y = y.command(
+        command.usage,
+        command.describe,
+        (b) => command.builder(b).example(`$0 ${command.example[0]}`, command.example[1]),
+        async (argv) => {
+          code = await command.run(argv as never);
+        },
+      );
+    } else {
+      for (const [cmd, { describe }] of Object.entries(COMMANDS)) y = y.command(cmd, describe);
+      y = y.demandCommand(1, 'name a command');
+      if (name) {
+        process.stderr.write(`datlas: ${general.unknownCommand(name)}\n`);
+        return 2;
+      }
+    }
+    await y.parseAsync();
+    if (failure) {
+      const f = failure as { message: string; code: number };
+      process.stderr.write(`datlas: ${f.message}\n`);
+      return f.code;
+    }
+    return code;
+  } catch (err) {
+    if (err instanceof UserError) {
+      process.stderr.write(`datlas: ${err.message}\n`);
+      return err.exitCode;
+    }
+    const e = err as Error;
+    process.stderr.write(`datlas: ${general.internal(e?.message ?? String(err))}\n`);
+    if (debug && e?.stack) process.stderr.write(`${e.stack}\n`);
+    return 1;
+  }
+}

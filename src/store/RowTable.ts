@@ -1,0 +1,92 @@
+/**
+ * The canonical in-memory table of a sweep: one row = one run at one logged epoch.
+ * Columnar (typed arrays) so a million rows cost a few tens of MB and no per-row objects.
+ * Missing numeric values are NaN; `condition` is "" when the sweep has none.
+ */
+export const RUN_STATUS = ['ok', 'diverged'] as const;
+export type RunStatus = (typeof RUN_STATUS)[number];
+
+/** Numeric canonical columns, in store order. */
+export const NUMERIC_COLUMNS = [
+  'seed',
+  'width',
+  'epochs',
+  'train_size',
+  'label_noise',
+  'test_error',
+  'train_error',
+  'test_loss',
+  'train_loss',
+  'wall_seconds',
+] as const;
+export type NumericColumn = (typeof NUMERIC_COLUMNS)[number];
+
+/** String canonical columns, in store order. */
+export const STRING_COLUMNS = ['run', 'condition', 'source'] as const;
+export type StringColumn = (typeof STRING_COLUMNS)[number];
+
+/** The four sweep axes a map can be drawn over (condition keys come on top). */
+export const AXES = ['width', 'epochs', 'train_size', 'label_noise'] as const;
+export type Axis = (typeof AXES)[number];
+
+/** The metrics a map, ridge or hurts analysis can be computed on. */
+export const METRICS = ['test_error', 'test_loss', 'train_error', 'train_loss'] as const;
+export type Metric = (typeof METRICS)[number];
+
+export interface RowTable {
+  readonly length: number;
+  readonly run: string[];
+  readonly condition: string[];
+  /** File path as given on the command line (or "-" for stdin). */
+  readonly source: string[];
+  /** 1-based line (text formats) or record number (JSON array, Arrow). */
+  readonly source_line: Int32Array;
+  readonly status: RunStatus[];
+  readonly seed: Float64Array;
+  readonly width: Float64Array;
+  readonly epochs: Float64Array;
+  readonly train_size: Float64Array;
+  readonly label_noise: Float64Array;
+  readonly test_error: Float64Array;
+  readonly train_error: Float64Array;
+  readonly test_loss: Float64Array;
+  readonly train_loss: Float64Array;
+  readonly wall_seconds: Float64Array;
+  /**
+   * Extra numeric per-row columns the logs carried that are neither axes nor metrics
+   * (e.g. the linear simulator's `sigma2`, `signal_in`, `signal_out`). Kept, never used to split cells.
+   */
+  readonly extra: Record<string, Float64Array>;
+}
+
+/** An empty table with `length` rows: numbers NaN, strings "", status "ok". */
+export function emptyTable(length: number, extraNames: readonly string[] = []): RowTable {
+  const num = () => new Float64Array(length).fill(NaN);
+  const extra: Record<string, Float64Array> = {};
+  for (const name of extraNames) extra[name] = num();
+  return {
+    length,
+    run: new Array<string>(length).fill(''),
+    condition: new Array<string>(length).fill(''),
+    source: new Array<string>(length).fill(''),
+    source_line: new Int32Array(length),
+    status: new Array<RunStatus>(length).fill('ok'),
+    seed: num(),
+    width: num(),
+    epochs: num(),
+    train_size: num(),
+    label_noise: new Float64Array(length),
+    test_error: num(),
+    train_error: num(),
+    test_loss: num(),
+    train_loss: num(),
+    wall_seconds: num(),
+    extra,
+  };
+}
+
+/** Which metric a sweep supports by default: test_error when any row has it, else test_loss. */
+export function defaultMetric(table: RowTable): Metric {
+  for (let i = 0; i < table.length; i++) if (Number.isFinite(table.test_error[i])) return 'test_error';
+  return 'test_loss';
+}
