@@ -1,0 +1,58 @@
+import type { TopLevelSpec } from 'vega-lite';
+
+export type ImageFormat = 'png' | 'svg' | 'pdf';
+export const IMAGE_FORMATS: readonly ImageFormat[] = ['png', 'svg', 'pdf'];
+
+export interface RenderOptions {
+  format: ImageFormat;
+  /** Pixel ratio for PNG (default 2: crisp on slides and retina screens). */
+  scale?: number;
+}
+
+export interface CompiledSpec {
+  /** The vega spec vega-lite produced. */
+  vega: unknown;
+  /** Warnings vega-lite logged while compiling (a clean spec has none). */
+  warnings: string[];
+}
+
+/** Compiles a vega-lite spec, collecting warnings instead of printing them. */
+export async function compileSpec(spec: TopLevelSpec): Promise<CompiledSpec> {
+  const vl = await import('vega-lite');
+  const warnings: string[] = [];
+  const logger = {
+    level(): number { return 0; },
+    warn: (...a: unknown[]) => { warnings.push(a.map(String).join(' ')); return logger; },
+    info: () => logger,
+    debug: () => logger,
+    error: (...a: unknown[]) => { warnings.push(`error: ${a.map(String).join(' ')}`); return logger; },
+  };
+  // vega-lite's LoggerInterface is structural; our collector implements the members it calls.
+  const compiled = vl.compile(spec, { logger: logger as never });
+  return { vega: compiled.spec, warnings };
+}
+
+/**
+ * Renders a vega-lite spec headless: SVG as text, PNG and PDF through node-canvas.
+ * PDF text is drawn as glyphs so it stays selectable.
+ */
+export async function renderSpec(spec: TopLevelSpec, opts: RenderOptions): Promise<Buffer | string> {
+  const { format, scale = 2 } = opts;
+  const vega = await import('vega');
+  const { vega: vgSpec } = await compileSpec(spec);
+  const view = new vega.View(vega.parse(vgSpec as never), { renderer: 'none' });
+  try {
+    if (format === 'svg') return await view.toSVG();
+    if (format === 'png') {
+      const canvas = (await view.toCanvas(scale)) as unknown as { toBuffer(mime: string): Buffer };
+      return canvas.toBuffer('image/png');
+    }
+    const canvas = (await view.toCanvas(1, {
+      type: 'pdf',
+      context: { textDrawingMode: 'glyph' },
+    } as never)) as unknown as { toBuffer(mime: string): Buffer };
+    return canvas.toBuffer('application/pdf');
+  } finally {
+    view.finalize();
+  }
+}
