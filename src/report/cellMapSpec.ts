@@ -1,0 +1,161 @@
+import type { TopLevelSpec } from 'vega-lite';
+import type { RidgeResult } from '../analysis/Ridge.js';
+import type { MapAxis, SweepMap } from '../grid/SweepMap.js';
+import { formatFixed } from './formatNumber.js';
+
+/** One measured cell as the page's hover read-out needs it. */
+export interface CellRecord {
+  /** Index in the variant's cell list (the chart's rects carry it as `cell`). */
+  cell: number;
+  x: number;
+  y: number;
+  x0: number;
+  x1: number;
+  y0: number;
+  y1: number;
+  mean: number;
+  low: number | null;
+  high: number | null;
+  n: number;
+  sd: number | null;
+  train: number | null;
+  seeds: number[];
+  runs: string[];
+  diverged: number;
+}
+
+/** Cell edges of value i on an axis (the map's own edges: geometric midpoints on log axes). */
+function edgesOf(axis: MapAxis, value: number): [number, number] {
+  const i = axis.values.indexOf(value);
+  if (i < 0) {
+    // A value not on the axis (should not happen); give it a zero-width cell rather than a wrong one.
+    return [value, value];
+  }
+  return [axis.edges[i], axis.edges[i + 1]];
+}
+
+const finiteOrNull = (v: number | null | undefined): number | null => (v === null || v === undefined || !Number.isFinite(v) ? null : v);
+
+/** The measured cells of a map as plain records (for the hover panel and the chart's data). */
+export function cellRecords(map: SweepMap): CellRecord[] {
+  return map.cells.map((c, i) => {
+    const [x0, x1] = edgesOf(map.x, c.x);
+    const [y0, y1] = edgesOf(map.y, c.y);
+    return {
+      cell: i,
+      x: c.x,
+      y: c.y,
+      x0,
+      x1,
+      y0,
+      y1,
+      mean: c.cell.stats.mean,
+      low: finiteOrNull(c.cell.stats.low),
+      high: finiteOrNull(c.cell.stats.high),
+      n: c.cell.stats.n,
+      sd: finiteOrNull(c.cell.stats.sd),
+      train: finiteOrNull(c.cell.train?.mean),
+      seeds: c.cell.seeds,
+      runs: c.cell.runs,
+      diverged: c.cell.diverged,
+    };
+  });
+}
+
+/** vega-lite scale for a map axis: log base 2 when the map says so and every edge is positive. */
+function scaleOf(axis: MapAxis): Record<string, unknown> {
+  const lo = axis.edges[0];
+  const hi = axis.edges[axis.edges.length - 1];
+  const log = axis.scale === 'log2' && lo > 0;
+  return log ? { type: 'log', base: 2, domain: [lo, hi], nice: false } : { type: 'linear', domain: [lo, hi], nice: false, zero: false };
+}
+
+/** Ticks at the measured values when there are few of them (readers look values up by cell). */
+function axisOf(axis: MapAxis): Record<string, unknown> {
+  const ticks = axis.values.length <= 12 ? { values: axis.values } : {};
+  const counts = axis.values.every((v) => Number.isInteger(v) && v >= 1);
+  return { grid: false, ...ticks, format: counts ? '~s' : '~g', labelOverlap: 'greedy' };
+}
+
+export interface CellMapSpecOptions {
+  width?: number;
+  height?: number;
+  /** Chart title; defaults to the kind and fixed values. */
+  title?: string;
+}
+
+/**
+ * The measured cells of a map as a heatmap (one rect per cell between its edges, viridis), with
+ * missing grid points crossed, the ridge (peak and its interval per row, white) and the
+ * interpolation threshold (dashed). Only measured values are drawn: nothing here is interpolated.
+ * Rects carry `cell`, the index into cellRecords(map), so a page can show the cell's numbers.
+ */
+export function cellMapSpec(map: SweepMap, ridge: RidgeResult | null, opts: CellMapSpecOptions = {}): TopLevelSpec {
+  const { width = 560, height = 360 } = opts;
+  const title = opts.title ?? `${map.kind}-wise map of ${map.metric}${Object.keys(map.fixed).length ? ` at ${formatFixed(map.fixed)}` : ''}`;
+  const xScale = scaleOf(map.x);
+  const yScale = scaleOf(map.y);
+  const cells = cellRecords(map).map((c) => ({ cell: c.cell, x0: c.x0, x1: c.x1, y0: c.y0, y1: c.y1, mean: c.mean }));
+  const missing = map.missing.map((m) => ({ x: m.x, y: m.y }));
+  const peaks: { y: number; x: number; low: number; high: number }[] = [];
+  const thresholds: { y: number; t: number }[] = [];
+  for (const row of ridge?.rows ?? []) {
+    if (row.peak) peaks.push({ y: row.y, x: row.peak.x, low: row.peak.low, high: row.peak.high });
+    if (row.threshold !== null) thresholds.push({ y: row.y, t: row.threshold });
+  }
+  const xEnc = { field: 'x', type: 'quantitative', scale: xScale, title: map.x.name };
+  const yEnc = { field: 'y', type: 'quantitative', scale: yScale, title: map.y.name };
+  const layers: unknown[] = [
+    {
+      data: { values: cells },
+      mark: { type: 'rect', strokeWidth: 0.5 },
+      encoding: {
+        x: { field: 'x0', type: 'quantitative', scale: xScale, title: map.x.name, axis: axisOf(map.x) },
+        x2: { field: 'x1' },
+        y: { field: 'y0', type: 'quantitative', scale: yScale, title: map.y.name, axis: axisOf(map.y) },
+        y2: { field: 'y1' },
+        color: { field: 'mean', type: 'quantitative', title: map.metric, scale: { scheme: 'viridis' } },
+        stroke: { value: '#ffffff' },
+      },
+    },
+  ];
+  if (missing.length) {
+    layers.push({
+      data: { values: missing },
+      mark: { type: 'point', shape: 'cross', angle: 45, color: '#9a9a9a', size: 60, filled: true },
+      encoding: { x: xEnc, y: yEnc },
+    });
+  }
+  if (thresholds.length) {
+    layers.push({
+      data: { values: thresholds },
+      mark: { type: 'line', color: '#ff7f50', strokeDash: [5, 3], strokeWidth: 1.5, point: { color: '#ff7f50', size: 20 } },
+      encoding: { x: { field: 't', type: 'quantitative', scale: xScale, title: map.x.name }, y: { ...yEnc, sort: null }, order: { field: 'y' } },
+    });
+  }
+  if (peaks.length) {
+    layers.push(
+      {
+        data: { values: peaks },
+        mark: { type: 'rule', color: '#ffffff', strokeWidth: 2 },
+        encoding: { x: { field: 'low', type: 'quantitative', scale: xScale, title: map.x.name }, x2: { field: 'high' }, y: yEnc },
+      },
+      {
+        data: { values: peaks },
+        mark: { type: 'point', shape: 'diamond', filled: true, color: '#ffffff', stroke: '#000000', strokeWidth: 0.7, size: 70 },
+        encoding: { x: xEnc, y: yEnc },
+      },
+    );
+  }
+  return {
+    $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
+    title: { text: title, anchor: 'start', fontSize: 13 },
+    width,
+    height,
+    background: '#ffffff',
+    layer: layers,
+    resolve: { scale: { color: 'independent' } },
+    config: { font: 'DejaVu Sans, sans-serif', view: { stroke: null } },
+    // Layers are built as plain objects; vega-lite's deep union types do not narrow piecewise.
+  } as unknown as TopLevelSpec;
+}

@@ -1,0 +1,295 @@
+/**
+ * A multi-page 16:9 PDF deck drawn with node-canvas's PDF context. Text is drawn as glyphs
+ * (textDrawingMode 'glyph') so every word on a page can be selected and searched; charts are
+ * embedded as PNG images.
+ */
+
+export type DeckBlock =
+  | { kind: 'heading'; text: string }
+  | { kind: 'text'; text: string; size?: number; color?: string }
+  | { kind: 'bullets'; items: string[]; size?: number }
+  /** A warning box: what a figure on this page could make a reader believe wrongly. */
+  | { kind: 'note'; text: string }
+  | { kind: 'image'; png: Buffer }
+  | { kind: 'table'; columns: string[]; rows: string[][]; size?: number; align?: ('left' | 'right')[] };
+
+export interface DeckPage {
+  title: string;
+  subtitle?: string;
+  /** Side-by-side columns of blocks, left to right. */
+  columns: DeckBlock[][];
+  /** Relative column widths (default equal). */
+  widths?: number[];
+}
+
+export interface DeckOptions {
+  pages: DeckPage[];
+  /** Small text at the bottom of every page (e.g. the store hash). */
+  footer?: string;
+  /** Page size in PDF points; default 960 × 540 (16:9). */
+  width?: number;
+  height?: number;
+}
+
+const FONT = 'DejaVu Sans';
+const MARGIN = 36;
+const GAP = 10;
+const INK = '#1d2430';
+const MUTED = '#5b6472';
+const WARN_BG = '#fff4e0';
+const WARN_EDGE = '#e0a030';
+
+// node-canvas types are structural here: the PDF context is a CanvasRenderingContext2D plus
+// textDrawingMode, which the lib.dom-free build does not declare.
+interface Ctx {
+  font: string;
+  fillStyle: string;
+  strokeStyle: string;
+  lineWidth: number;
+  textBaseline: string;
+  textAlign: string;
+  textDrawingMode: string;
+  measureText(t: string): { width: number };
+  fillText(t: string, x: number, y: number): void;
+  fillRect(x: number, y: number, w: number, h: number): void;
+  strokeRect(x: number, y: number, w: number, h: number): void;
+  beginPath(): void;
+  moveTo(x: number, y: number): void;
+  lineTo(x: number, y: number): void;
+  stroke(): void;
+  drawImage(img: unknown, x: number, y: number, w: number, h: number): void;
+  addPage(w?: number, h?: number): void;
+}
+
+/** Splits text into lines no wider than `width` at the current font (long words are split). */
+function wrap(ctx: Ctx, text: string, width: number): string[] {
+  const lines: string[] = [];
+  for (const para of text.split('\n')) {
+    let line = '';
+    for (const word of para.split(/\s+/).filter(Boolean)) {
+      const next = line ? `${line} ${word}` : word;
+      if (ctx.measureText(next).width <= width || !line) {
+        line = next;
+        while (ctx.measureText(line).width > width && line.length > 1) {
+          // A single word wider than the column: break it.
+          let cut = line.length - 1;
+          while (cut > 1 && ctx.measureText(line.slice(0, cut)).width > width) cut--;
+          lines.push(line.slice(0, cut));
+          line = line.slice(cut);
+        }
+      } else {
+        lines.push(line);
+        line = word;
+      }
+    }
+    lines.push(line);
+  }
+  return lines;
+}
+
+/** Shortens text with an ellipsis to fit `width`. */
+function fit(ctx: Ctx, text: string, width: number): string {
+  if (ctx.measureText(text).width <= width) return text;
+  let s = text;
+  while (s.length > 1 && ctx.measureText(`${s}…`).width > width) s = s.slice(0, -1);
+  return `${s}…`;
+}
+
+interface Image {
+  width: number;
+  height: number;
+}
+
+/** Height a block needs at column width `w` (images: 0, they take what is left). */
+function measure(ctx: Ctx, b: DeckBlock, w: number): number {
+  switch (b.kind) {
+    case 'heading':
+      ctx.font = `bold 15px "${FONT}"`;
+      return wrap(ctx, b.text, w).length * 19 + 4;
+    case 'text': {
+      const size = b.size ?? 12;
+      ctx.font = `${size}px "${FONT}"`;
+      return wrap(ctx, b.text, w).length * size * 1.35 + 4;
+    }
+    case 'bullets': {
+      const size = b.size ?? 12;
+      ctx.font = `${size}px "${FONT}"`;
+      return b.items.reduce((h, it) => h + wrap(ctx, it, w - 16).length * size * 1.35 + 5, 0);
+    }
+    case 'note':
+      ctx.font = `11px "${FONT}"`;
+      return wrap(ctx, `⚠ ${b.text}`, w - 16).length * 14.5 + 12;
+    case 'table': {
+      const size = b.size ?? 10.5;
+      return (b.rows.length + 1) * (size * 1.6) + 4;
+    }
+    case 'image':
+      return 0;
+  }
+}
+
+/** Draws a block at (x, y) in width w; returns its height. */
+function draw(ctx: Ctx, b: DeckBlock, x: number, y: number, w: number, maxH: number, images: Map<Buffer, Image>): number {
+  ctx.textBaseline = 'top';
+  ctx.textAlign = 'left';
+  switch (b.kind) {
+    case 'heading': {
+      ctx.font = `bold 15px "${FONT}"`;
+      ctx.fillStyle = INK;
+      const lines = wrap(ctx, b.text, w);
+      lines.forEach((l, i) => ctx.fillText(l, x, y + i * 19));
+      return lines.length * 19 + 4;
+    }
+    case 'text': {
+      const size = b.size ?? 12;
+      ctx.font = `${size}px "${FONT}"`;
+      ctx.fillStyle = b.color ?? INK;
+      const lines = wrap(ctx, b.text, w);
+      lines.forEach((l, i) => ctx.fillText(l, x, y + i * size * 1.35));
+      return lines.length * size * 1.35 + 4;
+    }
+    case 'bullets': {
+      const size = b.size ?? 12;
+      ctx.font = `${size}px "${FONT}"`;
+      ctx.fillStyle = INK;
+      let h = 0;
+      for (const item of b.items) {
+        ctx.fillText('•', x + 2, y + h);
+        const lines = wrap(ctx, item, w - 16);
+        lines.forEach((l, i) => ctx.fillText(l, x + 16, y + h + i * size * 1.35));
+        h += lines.length * size * 1.35 + 5;
+      }
+      return h;
+    }
+    case 'note': {
+      ctx.font = `11px "${FONT}"`;
+      const lines = wrap(ctx, `⚠ ${b.text}`, w - 16);
+      const h = lines.length * 14.5 + 8;
+      ctx.fillStyle = WARN_BG;
+      ctx.fillRect(x, y, w, h);
+      ctx.fillStyle = WARN_EDGE;
+      ctx.fillRect(x, y, 3, h);
+      ctx.fillStyle = INK;
+      lines.forEach((l, i) => ctx.fillText(l, x + 10, y + 4 + i * 14.5));
+      return h + 4;
+    }
+    case 'image': {
+      const img = images.get(b.png);
+      if (!img || maxH <= 10) return 0;
+      const s = Math.min(w / img.width, maxH / img.height);
+      ctx.drawImage(img, x, y, img.width * s, img.height * s);
+      return img.height * s + 6;
+    }
+    case 'table': {
+      const size = b.size ?? 10.5;
+      const rowH = size * 1.6;
+      const ncol = b.columns.length;
+      ctx.font = `${size}px "${FONT}"`;
+      // Column widths proportional to the widest cell (header included), capped to the page.
+      const natural = b.columns.map((c, j) => {
+        ctx.font = `bold ${size}px "${FONT}"`;
+        let m = ctx.measureText(c).width;
+        ctx.font = `${size}px "${FONT}"`;
+        for (const r of b.rows) m = Math.max(m, ctx.measureText(r[j] ?? '').width);
+        return m + 12;
+      });
+      const total = natural.reduce((a, v) => a + v, 0);
+      const scale = total > w ? w / total : 1;
+      const cw = natural.map((v) => v * scale);
+      const fitRows = Math.max(0, Math.floor((maxH - rowH) / rowH));
+      const rows = b.rows.length > fitRows ? [...b.rows.slice(0, Math.max(0, fitRows - 1)), [`… ${b.rows.length - Math.max(0, fitRows - 1)} more rows in the HTML page and JSON`]] : b.rows;
+      const drawRow = (cells: string[], yy: number, bold: boolean) => {
+        ctx.font = `${bold ? 'bold ' : ''}${size}px "${FONT}"`;
+        let xx = x;
+        for (let j = 0; j < ncol; j++) {
+          const text = cells[j] ?? '';
+          if (cells.length === 1 && j > 0) break;
+          const width = cells.length === 1 ? w : cw[j];
+          const right = (b.align?.[j] ?? 'left') === 'right' && cells.length > 1;
+          const t = fit(ctx, text, width - 10);
+          ctx.textAlign = right ? 'right' : 'left';
+          ctx.fillText(t, right ? xx + width - 6 : xx + 4, yy + (rowH - size) / 2);
+          xx += width;
+        }
+        ctx.textAlign = 'left';
+      };
+      ctx.fillStyle = '#eef1f5';
+      ctx.fillRect(x, y, w, rowH);
+      ctx.fillStyle = INK;
+      drawRow(b.columns, y, true);
+      rows.forEach((r, i) => {
+        if (i % 2 === 1) {
+          ctx.fillStyle = '#f7f8fa';
+          ctx.fillRect(x, y + (i + 1) * rowH, w, rowH);
+        }
+        ctx.fillStyle = INK;
+        drawRow(r, y + (i + 1) * rowH, false);
+      });
+      ctx.strokeStyle = '#c9ced6';
+      ctx.lineWidth = 0.6;
+      ctx.beginPath();
+      ctx.moveTo(x, y + rowH);
+      ctx.lineTo(x + w, y + rowH);
+      ctx.stroke();
+      return (rows.length + 1) * rowH + 4;
+    }
+  }
+}
+
+/** Lays out and draws the pages; returns the PDF bytes. */
+export async function composeDeck(opts: DeckOptions): Promise<Buffer> {
+  const { pages, footer = '', width = 960, height = 540 } = opts;
+  const { createCanvas, loadImage } = await import('canvas');
+  const canvas = createCanvas(width, height, 'pdf');
+  const ctx = canvas.getContext('2d') as unknown as Ctx;
+  ctx.textDrawingMode = 'glyph';
+
+  const images = new Map<Buffer, Image>();
+  for (const p of pages) for (const col of p.columns) for (const b of col) if (b.kind === 'image' && !images.has(b.png)) images.set(b.png, (await loadImage(b.png)) as unknown as Image);
+
+  pages.forEach((page, pi) => {
+    if (pi > 0) ctx.addPage(width, height);
+    ctx.textBaseline = 'top';
+    ctx.fillStyle = '#ffffff';
+    ctx.fillRect(0, 0, width, height);
+    ctx.fillStyle = '#2b4c7e';
+    ctx.fillRect(0, 0, width, 5);
+    ctx.font = `bold 22px "${FONT}"`;
+    ctx.fillStyle = INK;
+    ctx.textAlign = 'left';
+    ctx.fillText(fit(ctx, page.title, width - 2 * MARGIN), MARGIN, 20);
+    let top = 52;
+    if (page.subtitle) {
+      ctx.font = `12px "${FONT}"`;
+      ctx.fillStyle = MUTED;
+      ctx.fillText(fit(ctx, page.subtitle, width - 2 * MARGIN), MARGIN, 50);
+      top = 72;
+    }
+    const bottom = height - 28;
+    ctx.font = `9px "${FONT}"`;
+    ctx.fillStyle = MUTED;
+    ctx.fillText(fit(ctx, footer, width - 2 * MARGIN - 60), MARGIN, height - 18);
+    ctx.textAlign = 'right';
+    ctx.fillText(`${pi + 1} / ${pages.length}`, width - MARGIN, height - 18);
+    ctx.textAlign = 'left';
+
+    const rel = page.widths ?? page.columns.map(() => 1);
+    const relSum = rel.reduce((a, v) => a + v, 0);
+    const usable = width - 2 * MARGIN - GAP * 2 * (page.columns.length - 1);
+    let x = MARGIN;
+    page.columns.forEach((col, ci) => {
+      const w = (usable * rel[ci]) / relSum;
+      const fixed = col.reduce((h, b) => h + (b.kind === 'image' ? 0 : measure(ctx, b, w) + GAP), 0);
+      const nImages = col.filter((b) => b.kind === 'image').length;
+      const imageH = nImages ? Math.max(40, (bottom - top - fixed) / nImages) : 0;
+      let y = top;
+      for (const b of col) {
+        const room = b.kind === 'image' ? Math.min(imageH, bottom - y) : bottom - y;
+        if (room <= 12) break;
+        y += draw(ctx, b, x, y, w, room, images) + GAP;
+      }
+      x += w + GAP * 2;
+    });
+  });
+  return canvas.toBuffer('application/pdf');
+}
