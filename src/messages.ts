@@ -64,3 +64,46 @@ export const plan = {
 };
 
 // ── report / demo ────────────────────────────────────────────────────────────
+export const report = {
+  // Headline findings (plain sentences; numbers already formatted).
+  modelPeak: (y: string, yv: string, fixed: string, x: string, xv: string, low: string, high: string, ratio: string | null, thr: string | null) =>
+    `Model-wise: at ${y} ${yv}${fixed ? ` (${fixed})` : ''} test error peaks at ${x} ${xv} (interval ${low}–${high})` +
+    `${ratio ? `, ${ratio} × the train size` : ''}${thr ? `; train error first reaches ε at ${x} ${thr} (the interpolation threshold)` : ''}.`,
+  modelPeakMoves: (y: string, firstY: string, x: string, fromX: string, toX: string, lastY: string, noneBefore: boolean) =>
+    `The peak ${noneBefore ? `appears at ${y} ${firstY} (no significant peak earlier) and ` : ''}` +
+    (fromX === toX ? `stays at ${x} ${toX} through ${y} ${lastY}.` : `moves from ${x} ${fromX} at ${y} ${firstY} to ${x} ${toX} at ${y} ${lastY}.`),
+  modelNoPeak: (fixed: string) => `Model-wise: no significant double-descent peak at any epoch${fixed ? ` (${fixed})` : ''}.`,
+  noiseEffect: (parts: string, trend: 'grows' | 'shrinks' | 'mixed') =>
+    `Label noise: the peak's height over its flanks ${trend === 'grows' ? 'grows with noise' : trend === 'shrinks' ? 'shrinks with noise' : 'varies with noise'} (${parts}).`,
+  samplePeaks: (parts: string) => `Sample-wise: test error peaks at ${parts}.`,
+  sampleNoPeak: (fixed: string) => `Sample-wise: no significant peak along train size${fixed ? ` (${fixed})` : ''}.`,
+  hurts: (fixed: string, onset: string, peak: string, rise: string, p: string, ratio: string | null, recovery: string | null, others: number) =>
+    `More data hurts at ${fixed}: test error rises by ${rise} from train size ${onset} to ${peak}${ratio ? ` (${ratio} × the width)` : ''} (p ${p}), ` +
+    `${recovery ? `and falls back to the onset level at ${recovery}` : 'and does not fall back to the onset level inside the sweep'}` +
+    `${others ? `; ${others} more slice${others === 1 ? '' : 's'} show a significant rise` : ''}.`,
+  hurtsNone: (slices: number, epochs: string) => `More data never significantly hurts at ${epochs} (${slices} train-size slices scanned).`,
+  epochPeak: (parts: string) => `Epoch-wise: test error rises and falls again with training time at ${parts}.`,
+  epochNoPeak: (fixed: string) => `Epoch-wise: no significant peak along training time${fixed ? ` (${fixed})` : ''}: error only falls or only rises with epochs.`,
+  coverage: (missing: number, partial: number, diverged: number, complete: number, total: number) =>
+    `Still missing against the spec: ${missing} of ${total} planned runs have no data, ${partial} stopped before the target epochs, ${diverged} diverged (${complete} complete).`,
+  coverageComplete: (total: number) => `Every one of the ${total} planned runs in the spec is complete.`,
+  mapGaps: (kind: string, n: number, total: number) => `${n} of ${total} grid points of the ${kind}-wise map have no data (crossed on the map).`,
+  plan: (runs: number, cost: string, reasons: string) => `Next: the plan proposes ${runs} runs (cost ${cost}): ${reasons}.`,
+  // Cautions: what a figure could make a reader believe wrongly.
+  weakPeaks: (kind: string, label: string, y: string, ys: string) =>
+    `${kind}-wise map (${label}): the peak at ${y} ${ys} is inside seed noise (prominence under 2 standard errors); do not read it as a peak.`,
+  curveNoise: (kind: string, label: string, y: string, ys: string) =>
+    `${kind}-wise map (${label}): one seed per cell, so the peak interval at ${y} ${ys} comes from the curve's own noise, not from seeds.`,
+  oneSeed: 'Some cells have one seed: they have no interval, and their peaks cannot be tested against seed noise.',
+  interpolated: (method: string, rmse: string) =>
+    `The static map images colour the plane between measured cells by ${method} interpolation (leave-one-out rmse ${rmse}); hatched areas were not measured. The interactive maps show measured cells only.`,
+  hurtsMultiple: (slices: number, alpha: string) =>
+    `${slices} train-size slices were each tested at α = ${alpha}: about ${alpha} × ${slices} rises could be significant by chance alone.`,
+  picked: (kind: string, names: string) => `${kind}-wise map: ${names} chosen automatically (the value with the most data).`,
+  skipAxis: (axis: string, n: number, need: number) => `the sweep has ${n} value${n === 1 ? '' : 's'} of ${axis}; this map needs at least ${need}`,
+  skipNoCells: 'no cell of the sweep has data on this map',
+  // Files and CLI.
+  wrote: (what: string, path: string) => `${what}: ${path}`,
+  demoSweepMissing: (dir: string) => `no committed demo sweep at ${dir} (run with --fresh to simulate it)`,
+  chromiumMissing: 'headless Chromium not found at /usr/bin/chromium',
+};
