@@ -24,6 +24,65 @@ export const general = {
 // ── cells / grid / map ───────────────────────────────────────────────────────
 
 // ── analysis (ridge, threshold, hurts) ───────────────────────────────────────
+/** Numbers as a reader wants them: sizes with thousands separators, errors with 3 significant digits. */
+const fmtNum = (v: number): string => {
+  if (!Number.isFinite(v)) return String(v);
+  if (Number.isInteger(v) && Math.abs(v) >= 1000) return v.toLocaleString('en-US');
+  const r = Number(v.toPrecision(3));
+  return Math.abs(r) >= 1000 ? Math.round(r).toLocaleString('en-US') : String(r);
+};
+/** An interpolated size: two significant digits, because that is all the grid supports. */
+const fmtApprox = (v: number): string => fmtNum(Number(v.toPrecision(2)));
+const fmtP = (p: number): string => (p < 0.001 ? 'p < 0.001' : `p = ${Number(p.toPrecision(2))}`);
+const fmtFixed = (fixed: Record<string, number | string>): string =>
+  Object.entries(fixed)
+    .filter(([k, v]) => !(k === 'condition' && v === ''))
+    .map(([k, v]) => `${k.replace('_', ' ')} ${typeof v === 'number' ? fmtNum(v) : v}`)
+    .join(', ');
+const metricName = (m: string): string => m.replace('_', ' ');
+
+export const analysisText = {
+  fmtNum,
+  fmtFixed,
+  badHurtsAt: (key: string) =>
+    `--at ${key}=...: hurts runs along train_size at fixed width, epochs, label_noise or condition; '${key}' cannot be fixed here`,
+  badKind: (kind: string) => `--kind expects model, sample or epoch, got '${kind}'`,
+  badNumber: (flag: string, text: string, what: string) => `${flag} expects ${what}, got '${text}'`,
+  noCells: (fixed: Record<string, number | string>) =>
+    `no cells with a finite metric at ${fmtFixed(fixed) || 'the chosen values'}; check --at against the sweep's values`,
+  ridgeHeader: (kind: string, metric: string, x: string, y: string, fixed: Record<string, number | string>) =>
+    `ridge of the ${kind} map: ${metricName(metric)} peak along ${x}, per ${y}` + (Object.keys(fixed).length ? ` (${fmtFixed(fixed)})` : ''),
+  picked: (names: string[], fixed: Record<string, number | string>) =>
+    `picked ${names.map((n) => `${n}=${fixed[n]}`).join(', ')} (most data); set --at to choose`,
+  ridgePeak: (o: { y: string; yv: number; x: string; px: number; low: number; high: number; level: number; metric: string; error: number; prominence: number; z: number }) =>
+    `${o.y} ${fmtNum(o.yv)}: peak at ${o.x} ≈ ${fmtApprox(o.px)} (${Math.round(o.level * 100)}% interval ${fmtApprox(o.low)}–${fmtApprox(o.high)}), ` +
+    `${metricName(o.metric)} ${fmtNum(o.error)}, ${fmtNum(o.prominence)} above the dip (${fmtNum(o.z)} SE)`,
+  ridgeOther: (x: string, px: number, prominence: number, z: number) =>
+    `    also a smaller peak at ${x} ≈ ${fmtApprox(px)} (${fmtNum(prominence)} above the dip, ${fmtNum(z)} SE)`,
+  ridgeNone: (y: string, yv: number) => `${y} ${fmtNum(yv)}: no significant peak`,
+  ridgeInsideNoise: (x: string, cx: number, prominence: number, z: number, min: number) =>
+    ` (a bump of ${fmtNum(prominence)} at ${x} ${fmtNum(cx)} sits inside the noise: ${fmtNum(z)} SE < ${min})`,
+  ridgeCurveNoise: (sd: number) =>
+    `    one seed per cell: significance and interval come from the curve's own noise (sd ≈ ${fmtNum(sd)}), not from seeds`,
+  ridgeThreshold: (x: string, t: number | null, epsilon: number, ratio: number | null) =>
+    t === null
+      ? `    train error never reaches ${epsilon}: no interpolation threshold in this row`
+      : `    interpolation threshold (train error <= ${epsilon}) at ${x} ≈ ${fmtApprox(t)}` + (ratio === null ? '' : `; peak/threshold ${fmtNum(ratio)}`),
+  ridgeSummary: (withPeak: number, rows: number) => `${withPeak} of ${rows} rows have a significant peak`,
+  hurtsSegment: (o: { onset: number; peak: number; recovery: number | null; rise: number; p: number; metric: string; last: number }) =>
+    `from n = ${fmtNum(o.onset)} to n = ${fmtNum(o.peak)} extra data raises ${metricName(o.metric)} by ${fmtNum(o.rise)} (${fmtP(o.p)}); ` +
+    (o.recovery === null
+      ? `it does not fall back below the n = ${fmtNum(o.onset)} level inside the sweep (largest n = ${fmtNum(o.last)})`
+      : `it falls back below the n = ${fmtNum(o.onset)} level at n ≈ ${fmtApprox(o.recovery)}`),
+  hurtsSlice: (fixed: Record<string, number | string>) => `${fmtFixed(fixed)}:`,
+  hurtsBootstrap: (noiseFrom: 'seeds' | 'curve') =>
+    noiseFrom === 'curve'
+      ? '    (one seed per cell: p from a bootstrap with the curve\'s own noise, not from seeds)'
+      : '    (a compared cell has one seed: p from a bootstrap with the pooled seed noise)',
+  hurtsNone: (metric: string, slices: number, alpha: number) =>
+    `no significant rise of ${metricName(metric)} with more data in ${slices} slice${slices === 1 ? '' : 's'} scanned (alpha ${alpha})`,
+  hurtsMore: (n: number) => `... and ${n} more segment${n === 1 ? '' : 's'} (all in --json)`,
+};
 
 // ── render ───────────────────────────────────────────────────────────────────
 export const render = {

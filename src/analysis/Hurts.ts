@@ -15,10 +15,22 @@ export interface HurtsSegment {
   /** p-value of the rise (Welch t-test, or bootstrap when a cell has one seed). */
   p: number;
   test: 'welch' | 'bootstrap';
+  /** Mean metric at the onset and at the peak, and the seeds behind each. */
+  onsetError?: number;
+  peakError?: number;
+  onsetSeeds?: number;
+  peakSeeds?: number;
+  /** Where the noise of a bootstrap test came from (see RidgeRow.noiseFrom). */
+  noiseFrom?: 'seeds' | 'curve';
+  /** Largest train size of the slice (how far recovery was looked for). */
+  lastSize?: number;
 }
 
 export interface HurtsResult {
   metric: Metric;
   fixed: Record<string, number | string>;
   segments: HurtsSegment[];
+  /** Significance level used, and how many train-size slices were scanned. */
+  alpha?: number;
+  slices?: number;
 }

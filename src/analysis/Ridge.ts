@@ -15,6 +15,13 @@ export interface Peak {
   prominenceSe: number;
   /** The measured x of the cell holding the maximum. */
   cellX: number;
+  /** Seeds behind the peak cell's mean. */
+  seeds?: number;
+  /**
+   * Search-wide p-value: how often a flat row of pure noise with the same per-cell noise has a
+   * bump at least this many SE tall anywhere. Absent when the check was not run.
+   */
+  p?: number;
 }
 
 export interface RidgeRow {
@@ -28,6 +35,13 @@ export interface RidgeRow {
   ratio: number | null;
   /** Where the noise scale came from: seeds (≥ 2 per cell) or the curve itself (single seed). */
   noiseFrom: 'seeds' | 'curve';
+  /** The per-seed (seeds) or per-point (curve) noise standard deviation used, metric units. */
+  noiseSd?: number;
+  /**
+   * When `peak` is null: the most prominent local maximum, which fell short of the prominence
+   * bar (a bump inside seed noise); its low/high are its cell x. Null when the row has no local maximum.
+   */
+  insideNoise?: Peak | null;
 }
 
 export interface RidgeResult {
@@ -38,5 +52,11 @@ export interface RidgeResult {
   fixed: Record<string, number | string>;
   minProminence: number;
   epsilon: number;
+  /** Bootstrap rounds, random seed and interval coverage used. */
+  boot?: number;
+  seed?: number;
+  level?: number;
+  /** Search-wide significance level of a peak. */
+  alpha?: number;
   rows: RidgeRow[];
 }

@@ -1,0 +1,140 @@
+import type { Cell } from '../cells/Cell.js';
+import { analysisText } from '../messages.js';
+import { usageError } from '../UserError.js';
+import type { HurtsResult, HurtsSegment } from './Hurts.js';
+import { localPeaks } from './localPeaks.js';
+import { deriveSeed, seededRng } from './seededRng.js';
+import { seriesNoise } from './seriesNoise.js';
+import { welchTest } from './welchTest.js';
+
+export interface HurtsOptions {
+  /** Fix some of width, epochs, label_noise, condition; the others are scanned. */
+  at?: Record<string, number | string>;
+  /** Significance level of a rise (default 0.05). */
+  alpha?: number;
+  /** Bootstrap rounds when a compared cell has a single seed (default 1000). */
+  boot?: number;
+  /** Seed of the bootstrap's random stream (default 1). */
+  seed?: number;
+}
+
+/** The axes a hurts slice is fixed on; train_size runs along it. */
+export const HURTS_SLICE_KEYS = ['width', 'epochs', 'label_noise', 'condition'] as const;
+
+function sameValue(a: number | string, b: number | string): boolean {
+  if (typeof a === 'number' && typeof b === 'number') return a === b || Math.abs(a - b) <= 1e-9 * Math.max(Math.abs(a), Math.abs(b));
+  const na = Number(a);
+  const nb = Number(b);
+  if (typeof a !== typeof b && Number.isFinite(na) && Number.isFinite(nb)) return sameValue(na, nb);
+  return String(a) === String(b);
+}
+
+/**
+ * "More data hurts": along train_size, at fixed width, epochs, label noise and condition, every
+ * significant rise of the metric. A rise runs from its onset (the lowest cell before it, back to
+ * the nearest higher point) to its peak (a local maximum, or the last size if still rising). It
+ * counts when the one-sided Welch t-test of peak against onset cell gives p < alpha; when either
+ * cell has a single seed a bootstrap of the difference is used instead (seed resampling, and the
+ * series' pooled or curve noise for single-seed cells). Recovery is where the error first falls
+ * back to the onset level after the peak, interpolated linearly in log2 size; null when not
+ * reached inside the sweep. Rises nested inside a larger one are not listed separately.
+ * Segments come worst (largest rise) first.
+ */
+export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
+  const at = opts.at ?? {};
+  const alpha = opts.alpha ?? 0.05;
+  const boot = Math.max(1, Math.floor(opts.boot ?? 1000));
+  const seed = opts.seed ?? 1;
+  for (const k of Object.keys(at)) {
+    if (!(HURTS_SLICE_KEYS as readonly string[]).includes(k)) throw usageError(analysisText.badHurtsAt(k));
+  }
+  const metric = cells[0]?.metric ?? 'test_error';
+
+  const slices = new Map<string, Cell[]>();
+  for (const c of cells) {
+    if (!HURTS_SLICE_KEYS.every((k) => at[k] === undefined || sameValue(c[k], at[k]))) continue;
+    if (!(c.stats.n > 0 && Number.isFinite(c.stats.mean) && c.train_size > 0)) continue;
+    const key = JSON.stringify([c.condition, c.label_noise, c.width, c.epochs]);
+    let s = slices.get(key);
+    if (!s) slices.set(key, (s = []));
+    s.push(c);
+  }
+  const keys = [...slices.keys()].sort();
+
+  const segments: HurtsSegment[] = [];
+  keys.forEach((key, sliceIndex) => {
+    const series = slices.get(key)!.sort((a, b) => a.train_size - b.train_size);
+    if (series.length < 2) return;
+    const u = series.map((c) => Math.log2(c.train_size));
+    const m = series.map((c) => c.stats.mean);
+    const noise = seriesNoise(series, u);
+    const rng = seededRng(deriveSeed(seed, sliceIndex));
+    const first = series[0];
+    const fixed: Record<string, number | string> = {
+      width: first.width,
+      epochs: first.epochs,
+      label_noise: first.label_noise,
+      condition: first.condition,
+    };
+    const found: (HurtsSegment & { i0: number; i1: number })[] = [];
+    for (const lp of localPeaks(m, { allowRightEnd: true })) {
+      const i0 = lp.leftBase;
+      const i1 = lp.index;
+      const on = series[i0];
+      const pk = series[i1];
+      const rise = m[i1] - m[i0];
+      let p: number;
+      let test: HurtsSegment['test'];
+      if (on.stats.n >= 2 && pk.stats.n >= 2) {
+        const a = pk.values.filter(Number.isFinite);
+        const b = on.values.filter(Number.isFinite);
+        p = welchTest(a, b, { alternative: 'greater' }).p;
+        test = 'welch';
+      } else {
+        if (!(noise.sd >= 0)) continue; // too few points to know the noise: no claim
+        // Bootstrap test on the centred difference: how often does resampling noise alone move it by `rise`?
+        const rep = new Float64Array(m.length);
+        let hits = 0;
+        for (let b = 0; b < boot; b++) {
+          noise.replicate(rng, rep);
+          if (rep[i1] - rep[i0] - rise >= rise) hits++;
+        }
+        p = (hits + 1) / (boot + 1);
+        test = 'bootstrap';
+      }
+      if (!(p < alpha)) continue;
+      let recovery: number | null = null;
+      for (let k = i1 + 1; k < m.length; k++) {
+        if (m[k] <= m[i0]) {
+          const f = (m[k - 1] - m[i0]) / (m[k - 1] - m[k]);
+          recovery = 2 ** (u[k - 1] + f * (u[k] - u[k - 1]));
+          break;
+        }
+      }
+      found.push({
+        fixed,
+        onset: on.train_size,
+        peak: pk.train_size,
+        recovery,
+        rise,
+        p,
+        test,
+        onsetError: m[i0],
+        peakError: m[i1],
+        onsetSeeds: on.stats.n,
+        peakSeeds: pk.stats.n,
+        noiseFrom: noise.from,
+        lastSize: series[series.length - 1].train_size,
+        i0,
+        i1,
+      });
+    }
+    // Keep the larger of nested rises: a wiggle on the way up is part of the same segment.
+    found.sort((a, b) => b.rise - a.rise);
+    const kept: typeof found = [];
+    for (const s of found) if (!kept.some((k) => s.i0 >= k.i0 && s.i1 <= k.i1)) kept.push(s);
+    for (const { i0: _i0, i1: _i1, ...s } of kept) segments.push(s);
+  });
+  segments.sort((a, b) => b.rise - a.rise || a.p - b.p);
+  return { metric, fixed: { ...at }, segments, alpha, slices: keys.length };
+}
