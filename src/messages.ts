@@ -111,7 +111,7 @@ export const render = {
 
 
 // ── plan / coverage ──────────────────────────────────────────────────────────
-export const plan = {
+export const planText = {
   specSyntax: (file: string, line: number, what: string) => `${fmtPath(file)} line ${line}: not valid YAML or JSON: ${what}`,
   specInvalid: (file: string, line: number | null, key: string, problem: string) =>
     `${fmtPath(file)}${line === null ? '' : ` line ${line}`}: ${key}: ${problem}`,
@@ -120,6 +120,27 @@ export const plan = {
   specLogNonPositive: () => 'log spacing needs values > 0 (use spacing: linear)',
   specMissing: (file: string) => `no spec file at ${fmtPath(file)} (write an example with: datlas plan --init ${file})`,
   specFlagNeeded: () => '--spec FILE is required (write an example with: datlas plan --init sweep.yaml)',
+  badPlaceholder: (name: string, known: string[]) => `--command: unknown placeholder {${name}} (known: ${known.map((k) => `{${k}}`).join(' ')})`,
+  slurmEmpty: () => 'the plan is empty: nothing to put in a Slurm array',
+  slurmLineBreak: (value: string) => `value ${JSON.stringify(value)} contains a line break; the Slurm array reads one CSV line per run`,
+  whyGap: (status: string, epoch: number | null, target: number, resumed: boolean) =>
+    status === 'missing'
+      ? 'not in the store'
+      : status === 'diverged'
+        ? `diverged at epoch ${epoch}; re-launched`
+        : resumed
+          ? `stopped at epoch ${epoch} of ${target}; resumes`
+          : `stopped at epoch ${epoch} of ${target}; restarts (the command cannot resume)`,
+  whyRefine: (where: string, x: string, low: string, high: string, a: string, b: string) =>
+    `ridge at width ${x} (${where}) known only to ${low}–${high}: bisects ${a}–${b}`,
+  whyPeakSeeds: (where: string, x: string, se: number, min: number) =>
+    `peak at width ${x} (${where}) is borderline: prominence ${se.toFixed(1)} SE, minimum ${min}`,
+  whyHurtsSeeds: (where: string, onset: string, peak: string, p: number, alpha: number) =>
+    `more data hurts from n ${onset} to ${peak} (${where}) is borderline: p = ${p.toPrecision(2)}, alpha ${alpha}`,
+  noteNoRidge: () => 'no ridge point along width at the target epoch in any slice: no new widths proposed',
+  noteDivergedRerun: (n: number) => `${n} diverged run${n === 1 ? '' : 's'} re-launched with the same seed (a deterministic run may diverge again: check the learning rate; --skip-diverged leaves them out)`,
+  noteDivergedSkipped: (n: number) => `${n} diverged run${n === 1 ? '' : 's'} left out (--skip-diverged)`,
+  noteNoResume: (n: number) => `${n} partial run${n === 1 ? '' : 's'} restart from epoch 0: the --command template has no {resume_from}`,
 };
 
 // ── report / demo ────────────────────────────────────────────────────────────

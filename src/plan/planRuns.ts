@@ -1,0 +1,92 @@
+import { planText as msg } from '../messages.js';
+import { runCost } from './costModel.js';
+import type { CostModel } from './costModel.js';
+import type { CoverageResult } from './coverage.js';
+import type { PlannedRun, PlanResult } from './Plan.js';
+import type { Candidate } from './refine.js';
+import { runId } from './runId.js';
+import type { SweepSpec } from './SweepSpec.js';
+
+export interface PlanOptions {
+  spec: SweepSpec;
+  coverage: CoverageResult;
+  model: CostModel;
+  /** Refinement and extra-seed proposals (proposeRefinements); none by default. */
+  candidates?: Candidate[];
+  /** Cost cap in the model's units; null or undefined: no cap. */
+  budget?: number | null;
+  /** Whether partial runs can resume from their last epoch (the command template has {resume_from}); default true. */
+  resume?: boolean;
+  /** Re-launch diverged runs (default true; they count as missing results). */
+  rerunDiverged?: boolean;
+}
+
+/**
+ * The next runs (DESIGN.md §5): first the gaps of the coverage (missing runs, partial runs
+ * resumed or restarted, diverged runs re-launched), cheapest first; then refinement and
+ * extra-seed groups by value per cost. Walking that order, a run (or a whole group) is kept
+ * when it still fits the budget, else dropped, so cheaper later items can use what is left.
+ */
+export function planRuns(opts: PlanOptions): PlanResult {
+  const { spec, coverage, model, candidates = [], budget = null, resume = true, rerunDiverged = true } = opts;
+  const notes: string[] = [];
+  const gaps: PlannedRun[] = [];
+  for (const r of coverage.runs) {
+    if (r.status === 'complete') continue;
+    if (r.status === 'diverged' && !rerunDiverged) continue;
+    const cfg = { condition: r.condition, label_noise: r.label_noise, width: r.width, train_size: r.train_size, seed: r.seed };
+    const canResume = r.status === 'partial' && resume && r.epoch !== null && r.epoch > 0;
+    const epochsToRun = canResume ? spec.epochs - r.epoch! : spec.epochs;
+    const cost = runCost(model, { width: r.width, train_size: r.train_size, epochs: epochsToRun });
+    gaps.push({
+      ...cfg,
+      epochs: spec.epochs,
+      reason: canResume ? 'resume' : 'missing',
+      cost,
+      resume_from: canResume ? r.epoch : null,
+      run: r.run ?? runId(cfg),
+      status: r.status,
+      score: 1 / cost,
+      why: msg.whyGap(r.status, r.epoch, spec.epochs, canResume),
+    });
+  }
+  gaps.sort((a, b) => a.cost - b.cost);
+  const diverged = coverage.counts.diverged;
+  if (diverged > 0) notes.push(rerunDiverged ? msg.noteDivergedRerun(diverged) : msg.noteDivergedSkipped(diverged));
+  if (!resume && coverage.counts.partial > 0) notes.push(msg.noteNoResume(coverage.counts.partial));
+
+  const groups = candidates.map((c) => {
+    const runs: PlannedRun[] = c.runs.map((r) => {
+      const cost = runCost(model, { width: r.width, train_size: r.train_size, epochs: spec.epochs });
+      return { ...r, epochs: spec.epochs, reason: c.reason, cost, resume_from: null, run: runId(r), status: 'new', score: 0, why: c.why };
+    });
+    const cost = runs.reduce((s, r) => s + r.cost, 0);
+    for (const r of runs) r.score = c.value / cost;
+    return { runs, cost, score: c.value / cost };
+  });
+  groups.sort((a, b) => b.score - a.score);
+
+  const kept: PlannedRun[] = [];
+  let total = 0;
+  const dropped = { runs: 0, cost: 0 };
+  const fits = (cost: number) => budget === null || total + cost <= budget * (1 + 1e-12);
+  for (const g of gaps) {
+    if (fits(g.cost)) {
+      kept.push(g);
+      total += g.cost;
+    } else {
+      dropped.runs++;
+      dropped.cost += g.cost;
+    }
+  }
+  for (const g of groups) {
+    if (fits(g.cost)) {
+      kept.push(...g.runs);
+      total += g.cost;
+    } else {
+      dropped.runs += g.runs.length;
+      dropped.cost += g.cost;
+    }
+  }
+  return { budget, cost: total, model, runs: kept, dropped, notes };
+}
