@@ -17,7 +17,66 @@ export const general = {
 
 // ── ingest ───────────────────────────────────────────────────────────────────
 
+export const ingestText = {
+  fieldCount: (want: number, got: number) => `expected ${want} fields (as in the header), got ${got}`,
+  badJsonLine: 'not valid JSON',
+  notARecord: 'not a JSON object (expected one record of key: value pairs)',
+  badJson: (why: string) => `not valid JSON: ${why}`,
+  badConfig: (why: string) => `run directory config is not readable: ${why}`,
+  skippedColumn: (source: string, column: string) =>
+    `${fmtPath(source)}: text column '${column}' has too many distinct values to be a condition; left out`,
+  percentColumn: (source: string, column: string, target: string) =>
+    `${fmtPath(source)}: column '${column}' read as percent (values above 1), divided by 100 for ${target} (override with --scale ${target}=fraction)`,
+  missingAxis: (source: string, axis: string) =>
+    `${fmtPath(source)}: no ${axis} column; add --map ${axis}=COLUMN or --set ${axis}=VALUE`,
+  missingMetric: (source: string) => `${fmtPath(source)}: no test error, accuracy or loss column; add --map test_error=COLUMN`,
+  notANumber: (text: string) => `not a number: '${text.length > 40 ? `${text.slice(0, 40)}…` : text}'`,
+  missing: (axis: string) => `missing ${axis} (add --map ${axis}=COLUMN or --set ${axis}=VALUE)`,
+  badAxis: (axis: string, v: number) =>
+    axis === 'train_size' ? `train_size must be a whole number > 0, got ${v}` : axis === 'epochs' ? `epochs must be >= 0, got ${v}` : `${axis} must be > 0, got ${v}`,
+  outOfRange: (field: string, v: number) =>
+    field.endsWith('loss') ? `${field} must be >= 0, got ${v}` : `${field} must be between 0 and 1 (or a percent), got ${v}`,
+  badSeed: (v: number) => `seed must be a whole number, got ${v}`,
+  noMetric: 'no test_error, test accuracy or test_loss value',
+  conflict: (run: string, epochs: number, winner: string, line: number) =>
+    `conflict: run '${run}' epoch ${epochs} has different values in ${fmtPath(winner)} line ${line}, which is newer and was kept`,
+  cannotOpen: (path: string, why: string) => `cannot open ${fmtPath(path)}: ${why === 'ENOENT' ? 'no such file or folder' : why}`,
+  unreadable: (why: string) => `file not readable: ${why}`,
+  badMap: (text: string) => `--map expects canonical=source (e.g. --map width=config.model.width), got '${text}'`,
+  badMapTarget: (target: string, known: string) => `--map: unknown column '${target}'; known: ${known}`,
+  badSet: (text: string) => `--set expects key=value (e.g. --set train_size=4000), got '${text}'`,
+  badScale: (text: string) => `--scale expects column=percent or column=fraction (e.g. --scale test_error=percent), got '${text}'`,
+  badSeedFrom: (text: string, why: string) => `--seed-from is not a valid regular expression '${text}': ${why}`,
+  badMappingFile: (path: string, why: string) => `--mapping ${path}: ${why}`,
+  nothingFound: (paths: string) => `no readable logs found in ${paths}`,
+  nothingRead: 'nothing could be read; see the reasons above',
+  strictFailed: (n: number) => `--strict: ${n} row${n === 1 ? '' : 's'} rejected, store left unchanged`,
+  summary: (r: { read: number; accepted: number; duplicates: number; rejected: number; pending: number }) =>
+    `read ${r.read} rows = ${r.accepted} accepted + ${r.duplicates} duplicates + ${r.rejected} rejected + ${r.pending} pending`,
+  sourcesLine: (sources: number, unchanged: number, failed: number) =>
+    `${sources} source${sources === 1 ? '' : 's'}: ${sources - unchanged - failed} read, ${unchanged} unchanged (skipped), ${failed} unreadable`,
+  conflictsLine: (conflicts: number, displaced: number) =>
+    `${conflicts} conflict${conflicts === 1 ? '' : 's'} (same run and epoch, different values): the newest source kept${displaced ? `, ${displaced} stored row${displaced === 1 ? '' : 's'} replaced` : ''}`,
+  rejectedLine: (r: { source: string; line: number; field: string; reason: string }) =>
+    `  ${fmtPath(r.source)}${r.line ? ` line ${r.line}` : ''}${r.field ? ` field ${r.field}` : ''}: ${r.reason}`,
+  moreRejected: (n: number, path: string) => `  … ${n} more in ${path}`,
+  storeLine: (dir: string, rows: number, sources: number) => `store ${dir}: ${rows} rows from ${sources} sources`,
+  noChange: 'nothing new: every source is already in the store',
+  noPaths: 'name at least one log file or folder (or - for stdin), e.g. datlas ingest runs/',
+};
+
 // ── store ────────────────────────────────────────────────────────────────────
+export const storeText = {
+  noStore: (dir: string) => `no store at ${dir} (run datlas ingest first)`,
+  notAStore: (dir: string) => `${dir} holds a manifest.json that is not a datlas store`,
+  badManifest: (dir: string, why: string) => `store ${dir}: manifest.json is not readable: ${why}`,
+  badRows: (dir: string, why: string) => `store ${dir}: rows.arrow is not readable: ${why}`,
+  inconsistent: (dir: string, want: number, got: number) =>
+    `store ${dir}: manifest says ${want} rows but rows.arrow holds ${got} (an interrupted write?); run datlas ingest again`,
+  locked: (dir: string, pid: number, seconds: number) =>
+    `store ${dir} is locked by another ingest${pid ? ` (pid ${pid})` : ''}; waited ${seconds} s. Try again when it finishes, or raise --wait`,
+  cannotLock: (dir: string, why: string) => `cannot lock store ${dir}: ${why}`,
+};
 
 // ── simulate ─────────────────────────────────────────────────────────────────
 

@@ -10,6 +10,7 @@ import type { CommandSpec } from './CommandSpec.js';
  */
 const COMMANDS: Record<string, { describe: string; load: () => Promise<{ command: CommandSpec<any> }> }> = {
   // registry:start (one line per command, keep alphabetical)
+  ingest: { describe: 'merge run logs into the store', load: () => import('./ingest.js') },
   // registry:end
 };
 

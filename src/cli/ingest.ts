@@ -1,0 +1,134 @@
+import { readFileSync } from 'node:fs';
+import type { Argv } from 'yargs';
+import type { CommandSpec } from './CommandSpec.js';
+import { progressBar } from './progress.js';
+import { UserError, usageError } from '../UserError.js';
+import { ingestText } from '../messages.js';
+import type { Target } from '../ingest/synonyms.js';
+import type { Scale } from '../ingest/normalizeRaw.js';
+
+interface IngestArgs {
+  paths: string[];
+  store: string;
+  map?: string[];
+  mapping?: string;
+  set?: string[];
+  seedFrom?: string;
+  scale?: string[];
+  strict: boolean;
+  wait: number;
+}
+
+/** Targets --map may name (the canonical columns plus accuracies, converted to error). */
+const MAP_TARGETS = ['run', 'seed', 'width', 'epochs', 'train_size', 'label_noise', 'test_error', 'train_error', 'test_loss',
+  'train_loss', 'test_accuracy', 'train_accuracy', 'wall_seconds', 'status', 'condition'];
+const SCALE_TARGETS = ['test_error', 'train_error', 'test_accuracy', 'train_accuracy', 'label_noise'];
+
+function pairs(values: string[] | undefined, bad: (t: string) => string): [string, string][] {
+  return (values ?? []).flatMap((v) => String(v).split(/,(?=[^,=]+=)/)).map((text) => {
+    const eq = text.indexOf('=');
+    if (eq <= 0 || eq === text.length - 1) throw usageError(bad(text));
+    return [text.slice(0, eq).trim(), text.slice(eq + 1).trim()] as [string, string];
+  });
+}
+
+function readMappingFile(path: string): { map: Record<string, string>; set: Record<string, string>; scale: Record<string, string>; seedFrom?: string } {
+  let value: unknown;
+  try {
+    value = JSON.parse(readFileSync(path, 'utf8'));
+  } catch (err) {
+    throw usageError(ingestText.badMappingFile(path, (err as Error).message.split('\n')[0]));
+  }
+  if (!value || typeof value !== 'object' || Array.isArray(value)) throw usageError(ingestText.badMappingFile(path, 'expected a JSON object'));
+  const v = value as Record<string, unknown>;
+  const strings = (o: unknown) => Object.fromEntries(Object.entries((o ?? {}) as Record<string, unknown>).map(([k, x]) => [k, String(x)]));
+  // Either {"width": "config.model.width", ...} or {"map": {...}, "set": {...}, "scale": {...}, "seedFrom": "..."}.
+  if ('map' in v || 'set' in v || 'scale' in v || 'seedFrom' in v) {
+    return { map: strings(v.map), set: strings(v.set), scale: strings(v.scale), seedFrom: typeof v.seedFrom === 'string' ? v.seedFrom : undefined };
+  }
+  return { map: strings(v), set: {}, scale: {} };
+}
+
+export const command: CommandSpec<IngestArgs> = {
+  usage: 'ingest [paths..]',
+  describe: 'merge run logs (csv, tsv, text, jsonl, json, run folders, arrow) into the store',
+  example: ['ingest runs/ --set label_noise=0.2 --map width=config.model.width', 'merge every log under runs/ into ./atlas-store'],
+  builder: (y: Argv) =>
+    y
+      .positional('paths', { type: 'string', array: true, describe: 'files or folders (walked recursively); - reads stdin' })
+      .option('store', { type: 'string', default: 'atlas-store', describe: 'store directory' })
+      .option('map', { type: 'string', array: true, describe: 'canonical=source column or dotted JSON path (e.g. width=config.model.width)' })
+      .option('mapping', { type: 'string', describe: 'JSON file of canonical: source (or {map, set, scale, seedFrom})' })
+      .option('set', { type: 'string', array: true, describe: 'axis=value for logs that lack it; other keys join the condition' })
+      .option('seed-from', { type: 'string', describe: 'regular expression taking the seed from the file path (first group)' })
+      .option('scale', { type: 'string', array: true, describe: 'column=percent|fraction, overriding the per-column detection' })
+      .option('strict', { type: 'boolean', default: false, describe: 'fail (exit 1, store unchanged) on any rejected row' })
+      .option('wait', { type: 'number', default: 30, describe: 'seconds to wait for another ingest holding the store lock' }),
+  async run(args) {
+    // yargs array options swallow the words after them (`--set n=4000 runs/`): give paths back.
+    const stray: string[] = [];
+    for (const key of ['map', 'set', 'scale'] as const) {
+      const vals = args[key];
+      if (!vals) continue;
+      args[key] = vals.filter((v) => {
+        const keep = String(v).includes('=');
+        if (!keep) stray.push(String(v));
+        return keep;
+      });
+    }
+    const file = args.mapping ? readMappingFile(args.mapping) : { map: {}, set: {}, scale: {}, seedFrom: undefined };
+    const map: Record<string, string> = { ...file.map, ...Object.fromEntries(pairs(args.map, ingestText.badMap)) };
+    for (const t of Object.keys(map)) if (!MAP_TARGETS.includes(t)) throw usageError(ingestText.badMapTarget(t, MAP_TARGETS.join(', ')));
+    const set: Record<string, string> = { ...file.set, ...Object.fromEntries(pairs(args.set, ingestText.badSet)) };
+    const scale: Record<string, string> = { ...file.scale, ...Object.fromEntries(pairs(args.scale, ingestText.badScale)) };
+    for (const [k, v] of Object.entries(scale)) if (!SCALE_TARGETS.includes(k) || (v !== 'percent' && v !== 'fraction')) throw usageError(ingestText.badScale(`${k}=${v}`));
+    const seedText = args.seedFrom ?? file.seedFrom;
+    let seedFrom: RegExp | undefined;
+    if (seedText !== undefined) {
+      try {
+        seedFrom = new RegExp(seedText);
+      } catch (err) {
+        throw usageError(ingestText.badSeedFrom(seedText, (err as Error).message));
+      }
+    }
+    if (!Number.isFinite(args.wait) || args.wait < 0) throw usageError(`--wait expects seconds >= 0, got '${args.wait}'`);
+    const paths = [...(args.paths ?? []).map(String), ...stray];
+    if (paths.length === 0) throw usageError(ingestText.noPaths);
+
+    const { ingestSources } = await import('../ingest/ingestSources.js');
+    const r = await ingestSources({
+      paths,
+      store: args.store,
+      map: map as Partial<Record<Target, string>>,
+      set,
+      seedFrom,
+      scale: scale as Partial<Record<Target, Scale>>,
+      strict: args.strict,
+      wait: args.wait,
+      progress: (total) => progressBar({ label: 'ingest', total, quiet: args.quiet, minTotal: 300 }),
+    });
+    const err = (line: string) => {
+      if (!args.quiet) process.stderr.write(`${line}\n`);
+    };
+    for (const note of r.notes) err(`note: ${note}`);
+    if (r.sources === 0) throw new UserError(r.missing.length ? ingestText.cannotOpen(r.missing[0], 'ENOENT') : ingestText.nothingFound(paths.join(' ')));
+
+    if (args.json) {
+      const { rejects, notes, missing, ...counts } = r;
+      process.stdout.write(`${JSON.stringify({ ...counts, store: args.store, missing, rejectedFile: `${args.store}/rejected.csv` })}\n`);
+    } else {
+      const out: string[] = [];
+      out.push(r.read === 0 && r.unchanged === r.sources ? ingestText.noChange : ingestText.summary(r));
+      out.push(ingestText.sourcesLine(r.sources, r.unchanged, r.failed));
+      if (r.conflicts) out.push(ingestText.conflictsLine(r.conflicts, r.displaced));
+      const shown = r.rejects.slice(0, 5);
+      for (const x of shown) out.push(ingestText.rejectedLine(x));
+      if (r.rejects.length > shown.length) out.push(ingestText.moreRejected(r.rejects.length - shown.length, `${args.store}/rejected.csv`));
+      out.push(ingestText.storeLine(args.store, r.storeRows, r.storeSources));
+      process.stdout.write(`${out.join('\n')}\n`);
+    }
+    if (r.strictFailed) throw new UserError(ingestText.strictFailed(r.rejected));
+    if (r.failed > 0 && r.failed === r.sources - r.unchanged && r.accepted === 0 && r.duplicates === 0) throw new UserError(ingestText.nothingRead);
+    return 0;
+  },
+};

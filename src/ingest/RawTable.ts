@@ -1,0 +1,77 @@
+/**
+ * What a reader hands to normalisation: the columns of one source as read (strings, numbers or
+ * nothing), before mapping and validation. Columnar so a million-row file costs no row objects.
+ */
+export type RawValue = string | number | boolean | null | undefined;
+export type RawColumn = RawValue[] | Float64Array;
+
+export interface RawTable {
+  format: string;
+  /** Column names; nested JSON keys are dotted paths (`config.model.width`). */
+  names: string[];
+  columns: RawColumn[];
+  length: number;
+  /** 1-based line (text) or record number (JSON array, Arrow) of each row. */
+  lines: number[];
+  /** Rows that could not be split into fields (bad JSON, wrong field count): row index → problem. */
+  rowErrors: Map<number, { field: string; reason: string }>;
+  /** Per-source constants (a run directory's config, the scalar keys of a JSON object file). */
+  constants: Record<string, RawValue>;
+  /** Line of an incomplete last row (a log still being written), or 0. */
+  pendingLine: number;
+}
+
+export function emptyRaw(format: string): RawTable {
+  return { format, names: [], columns: [], length: 0, lines: [], rowErrors: new Map(), constants: {}, pendingLine: 0 };
+}
+
+/** Builds a RawTable from records whose keys vary (JSON): new keys get a column padded with undefined. */
+export class RecordColumns {
+  readonly raw: RawTable;
+  private readonly index = new Map<string, number>();
+  constructor(format: string) {
+    this.raw = emptyRaw(format);
+  }
+
+  /** Adds one flattened record as the next row. */
+  add(flat: Record<string, RawValue>, line: number): void {
+    const raw = this.raw;
+    const row = raw.length;
+    for (const key in flat) {
+      let j = this.index.get(key);
+      if (j === undefined) {
+        j = raw.names.length;
+        this.index.set(key, j);
+        raw.names.push(key);
+        raw.columns.push(new Array<RawValue>(row));
+      }
+      (raw.columns[j] as RawValue[])[row] = flat[key];
+    }
+    raw.lines.push(line);
+    raw.length = row + 1;
+  }
+
+  /** Adds a row that could not be read at all (it still counts as read, and is rejected). */
+  addError(line: number, reason: string): void {
+    this.raw.rowErrors.set(this.raw.length, { field: '', reason });
+    this.raw.lines.push(line);
+    this.raw.length++;
+  }
+
+  finish(): RawTable {
+    for (const col of this.raw.columns) (col as RawValue[]).length = this.raw.length;
+    return this.raw;
+  }
+}
+
+/** Flattens nested objects into dotted keys; arrays inside a record are left out. */
+export function flattenRecord(obj: Record<string, unknown>, prefix = '', out: Record<string, RawValue> = {}): Record<string, RawValue> {
+  for (const key in obj) {
+    const v = obj[key];
+    const name = prefix === '' ? key : `${prefix}.${key}`;
+    if (v !== null && typeof v === 'object') {
+      if (!Array.isArray(v)) flattenRecord(v as Record<string, unknown>, name, out);
+    } else out[name] = v as RawValue;
+  }
+  return out;
+}

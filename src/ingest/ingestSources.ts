@@ -1,0 +1,249 @@
+import { createHash } from 'node:crypto';
+import { existsSync, readFileSync, statSync } from 'node:fs';
+import { emptyTable } from '../store/RowTable.js';
+import type { RowTable } from '../store/RowTable.js';
+import { emptyManifest, STORE_FORMAT, STORE_VERSION } from '../store/Manifest.js';
+import type { FileStamp, Manifest, SourceEntry } from '../store/Manifest.js';
+import { lockStore } from '../store/storeLock.js';
+import { readManifest, readStore } from '../store/readStore.js';
+import { writeStore } from '../store/writeStore.js';
+import { parseRejected } from '../store/rejectedCsv.js';
+import { storeFiles } from '../store/storeFiles.js';
+import { atomicWrite } from '../store/atomicWrite.js';
+import { formatOfBytes, rawFromBytes, readConfigFile } from './readSource.js';
+import { normalizeRaw } from './normalizeRaw.js';
+import type { NormalizeOptions, Normalized, Reject, Scale } from './normalizeRaw.js';
+import { dropSources, mergeTables } from './mergeTables.js';
+import { walkInputs } from './walkInputs.js';
+import type { InputSource } from './walkInputs.js';
+import type { Target } from './synonyms.js';
+import { ingestText } from '../messages.js';
+
+export interface IngestOptions {
+  paths: string[];
+  store: string;
+  map?: Partial<Record<Target, string>>;
+  set?: Record<string, string>;
+  seedFrom?: RegExp;
+  scale?: Partial<Record<Target, Scale>>;
+  /** Any rejection fails the ingest and leaves the store untouched. */
+  strict?: boolean;
+  /** Seconds to wait for another ingest's lock. */
+  wait?: number;
+  /** Reads stdin when a path is `-`. */
+  readStdin?: () => Uint8Array;
+  /** Makes a progress reporter once the number of sources is known (ticked once per source). */
+  progress?: (total: number) => Promise<{ tick(): void; done(): void }>;
+}
+
+export interface IngestResult {
+  read: number;
+  accepted: number;
+  duplicates: number;
+  rejected: number;
+  pending: number;
+  conflicts: number;
+  /** Sources named or found this time. */
+  sources: number;
+  /** Sources skipped because their content was already in the store. */
+  unchanged: number;
+  /** Sources that could not be read at all (each counted as one rejected record). */
+  failed: number;
+  /** Rows stored earlier that lost a conflict to a newer source. */
+  displaced: number;
+  /** Rows and sources in the store afterwards. */
+  storeRows: number;
+  storeSources: number;
+  /** Whether the store was written. */
+  wrote: boolean;
+  /** Under --strict with rejections: nothing was written. */
+  strictFailed: boolean;
+  /** Paths that do not exist. */
+  missing: string[];
+  /** This ingest's rejections (all of them; rejected.csv holds the store's). */
+  rejects: Reject[];
+  notes: string[];
+}
+
+const sha256 = (b: Uint8Array) => createHash('sha256').update(b).digest('hex');
+
+interface Parsed {
+  src: InputSource;
+  key: string;
+  given: string;
+  stamp: FileStamp;
+  config?: FileStamp;
+  format: string;
+  norm: Normalized | null;
+  failure: string | null;
+}
+
+/**
+ * Merges log files into a store: walk, skip unchanged sources (size+mtime, then content hash),
+ * parse and normalise the rest, merge with dedupe and conflict resolution, write atomically
+ * under the store lock. Every row read is accounted for in the result.
+ */
+export async function ingestSources(opts: IngestOptions): Promise<IngestResult> {
+  const { store, map = {}, set = {}, seedFrom, scale = {}, strict = false, wait = 30 } = opts;
+  const walk = walkInputs(opts.paths, { skip: [store] });
+  const result: IngestResult = {
+    read: 0, accepted: 0, duplicates: 0, rejected: 0, pending: 0, conflicts: 0, sources: walk.sources.length, unchanged: 0,
+    failed: 0, displaced: 0, storeRows: 0, storeSources: 0, wrote: false, strictFailed: false,
+    missing: walk.missing.map((m) => m.path), rejects: [], notes: [],
+  };
+  for (const m of walk.missing) result.notes.push(ingestText.cannotOpen(m.path, m.reason));
+  if (walk.sources.length === 0) return result;
+
+  const lock = await lockStore(store, wait);
+  try {
+    const manifest: Manifest = readManifest(store) ?? emptyManifest();
+    const todo: Parsed[] = [];
+    const touched = { value: false };
+    const bar = opts.progress ? await opts.progress(walk.sources.length) : null;
+    for (const src of walk.sources) {
+      const p = readOne(src, manifest, { map, set, seedFrom, scale }, opts.readStdin, touched);
+      bar?.tick();
+      if (p) todo.push(p);
+      else result.unchanged++;
+    }
+    bar?.done();
+    if (todo.length === 0) {
+      // Touched-but-unchanged sources got new stamps: keep the next check on the fast path.
+      if (touched.value) atomicWrite(storeFiles(store).manifest, `${JSON.stringify(manifest, null, 2)}\n`);
+      result.storeRows = manifest.rows;
+      result.storeSources = Object.keys(manifest.sources).length;
+      return result;
+    }
+
+    // Earlier rows and rejections of re-read sources are replaced.
+    const replaced = new Set<string>();
+    for (const p of todo) {
+      replaced.add(p.given);
+      const prev = manifest.sources[p.key];
+      if (prev) replaced.add(prev.path);
+    }
+    const files = storeFiles(store);
+    const existing: RowTable = existsSync(files.manifest) ? (await readStore(store)).table : emptyTable(0);
+    const kept = dropSources(existing, replaced);
+    const oldRejects = existsSync(files.rejected) ? parseRejected(readFileSync(files.rejected, 'utf8')).filter((r) => !replaced.has(r.source)) : [];
+
+    const ok = todo.filter((p) => p.norm);
+    const mtimeBySource = new Map<string, number>();
+    for (const e of Object.values(manifest.sources)) mtimeBySource.set(e.path, e.mtime);
+    const merged = mergeTables({
+      existing: kept,
+      existingMtime: (s) => mtimeBySource.get(s) ?? 0,
+      incoming: ok.map((p) => ({ table: p.norm!.table, mtime: p.stamp.mtime })),
+    });
+
+    const now = new Date().toISOString();
+    const rejects: Reject[] = [];
+    ok.forEach((p, k) => {
+      const n = p.norm!;
+      const rejected = n.rejects.length + merged.conflictLost[k];
+      result.read += n.read;
+      result.accepted += merged.accepted[k];
+      result.duplicates += merged.duplicates[k];
+      result.rejected += rejected;
+      result.pending += n.pending;
+      rejects.push(...n.rejects);
+      result.notes.push(...n.notes);
+      const entry: SourceEntry = {
+        ...p.stamp, path: p.given, format: p.format, mapping: n.mapping, ingestedAt: now,
+        read: n.read, accepted: merged.accepted[k], duplicates: merged.duplicates[k], rejected, pending: n.pending,
+      };
+      if (p.config) entry.config = p.config;
+      manifest.sources[p.key] = entry;
+    });
+    for (const p of todo) {
+      if (p.norm) continue;
+      result.failed++;
+      result.read++;
+      result.rejected++;
+      rejects.push({ source: p.given, line: 0, field: '', reason: p.failure! });
+      delete manifest.sources[p.key]; // retried next time
+    }
+    rejects.push(...merged.rejects);
+    result.conflicts = merged.conflicts;
+    result.displaced = merged.displaced;
+    result.rejects = rejects;
+    // The displaced rows were counted by an earlier ingest; they now sit in rejected.csv.
+    if (strict && result.rejected > 0) {
+      result.strictFailed = true;
+      result.storeRows = manifest.rows;
+      result.storeSources = Object.keys(manifest.sources).length;
+      return result;
+    }
+    manifest.format = STORE_FORMAT;
+    manifest.version = STORE_VERSION;
+    manifest.updated = now;
+    manifest.mapping = { map: { ...map }, set: { ...set }, seedFrom: seedFrom ? seedFrom.source : null, scale: { ...scale } };
+    manifest.counts = { read: result.read, accepted: result.accepted, duplicates: result.duplicates, rejected: result.rejected, pending: result.pending, conflicts: result.conflicts };
+    writeStore({ dir: store, table: merged.table, manifest, rejected: [...oldRejects, ...rejects] });
+    result.wrote = true;
+    result.storeRows = merged.table.length;
+    result.storeSources = Object.keys(manifest.sources).length;
+    return result;
+  } finally {
+    lock.release();
+  }
+}
+
+const stampOf = (path: string, bytes?: Uint8Array): FileStamp => {
+  const st = statSync(path);
+  return { path, size: st.size, mtime: st.mtimeMs, sha256: bytes ? sha256(bytes) : '' };
+};
+
+/** Reads one source unless the store already holds its content; null = unchanged. */
+function readOne(
+  src: InputSource,
+  manifest: Manifest,
+  norm: Omit<NormalizeOptions, 'source'>,
+  readStdin: IngestOptions['readStdin'],
+  touched: { value: boolean },
+): Parsed | null {
+  let bytes: Uint8Array;
+  let stamp: FileStamp;
+  let config: FileStamp | undefined;
+  let key = src.key;
+  try {
+    if (src.kind === 'stdin') {
+      bytes = readStdin ? readStdin() : readFileSync(0);
+      const hash = sha256(bytes);
+      key = `-:${hash}`;
+      if (manifest.sources[key]) return null;
+      stamp = { path: '-', size: bytes.byteLength, mtime: Date.now(), sha256: hash };
+    } else {
+      const prev = manifest.sources[key];
+      const st = statSync(src.given);
+      const cst = src.config ? statSync(src.config) : null;
+      const sameConfig = !src.config || (prev?.config && cst && prev.config.size === cst.size && prev.config.mtime === cst.mtimeMs);
+      // Fast path: same size and mtime as stored means unchanged (no read, no hash).
+      if (prev && prev.size === st.size && prev.mtime === st.mtimeMs && sameConfig) return null;
+      bytes = readFileSync(src.given);
+      stamp = { path: src.given, size: bytes.byteLength, mtime: st.mtimeMs, sha256: sha256(bytes) };
+      if (src.config) config = stampOf(src.config, readFileSync(src.config));
+      if (prev && prev.sha256 === stamp.sha256 && (!src.config || prev.config?.sha256 === config?.sha256)) {
+        // Touched but not changed: remember the new stamp so the next check is fast again.
+        prev.mtime = stamp.mtime;
+        touched.value = true;
+        if (config) prev.config = config;
+        return null;
+      }
+    }
+  } catch (err) {
+    const e = err as NodeJS.ErrnoException;
+    return { src, key, given: src.given, stamp: { path: src.given, size: 0, mtime: 0, sha256: '' }, format: '', norm: null, failure: ingestText.unreadable(e.code ?? e.message) };
+  }
+  let format = '';
+  try {
+    format = formatOfBytes(src.given, bytes);
+    const raw = rawFromBytes(bytes, format as Parameters<typeof rawFromBytes>[1]);
+    if (src.config) raw.constants = { ...readConfigFile(src.config), ...raw.constants };
+    const n = normalizeRaw(raw, { ...norm, source: src.given });
+    return { src, key, given: src.given, stamp, config, format, norm: n, failure: null };
+  } catch (err) {
+    return { src, key, given: src.given, stamp, config, format, norm: null, failure: (err as Error).message.split('\n')[0] };
+  }
+}
+

@@ -1,0 +1,163 @@
+import { emptyTable, NUMERIC_COLUMNS } from '../store/RowTable.js';
+import type { RowTable } from '../store/RowTable.js';
+import type { Reject } from './normalizeRaw.js';
+import { ingestText } from '../messages.js';
+
+export interface MergeInput {
+  /** Accepted rows of one source. */
+  table: RowTable;
+  /** Modification time of the source (ms); the newest source wins a conflict. */
+  mtime: number;
+}
+
+export interface MergeResult {
+  table: RowTable;
+  /** Per input: rows kept, exact duplicates dropped, rows that lost a conflict. */
+  accepted: number[];
+  duplicates: number[];
+  conflictLost: number[];
+  /** Conflict losers (incoming and earlier stored rows) for rejected.csv. */
+  rejects: Reject[];
+  /** Conflicts found (same run and epoch, different values). */
+  conflicts: number;
+  /** Stored rows from earlier ingests that lost a conflict to a newer source. */
+  displaced: number;
+}
+
+const KEPT = 0;
+const DUPLICATE = 1;
+const LOST = 2;
+
+const same = (a: number, b: number) => a === b || (a !== a && b !== b);
+
+/**
+ * Merges new rows into the stored ones. A row is one run at one epoch: the same (run, epochs)
+ * with equal values is a duplicate (dropped and counted); with different values it is a
+ * conflict: the row from the newer source (mtime; later line within one source) wins and the
+ * loser goes to rejected.csv with reason `conflict`.
+ */
+export function mergeTables(opts: { existing: RowTable; existingMtime: (source: string) => number; incoming: MergeInput[] }): MergeResult {
+  const { existing, existingMtime, incoming } = opts;
+  const tables = [existing, ...incoming.map((x) => x.table)];
+  const mtimes = [NaN, ...incoming.map((x) => x.mtime)];
+  let total = 0;
+  const offset = tables.map((t) => {
+    const o = total;
+    total += t.length;
+    return o;
+  });
+  const disposition = new Uint8Array(total);
+  const tableOf = new Int32Array(total);
+  tables.forEach((t, ti) => tableOf.fill(ti, offset[ti], offset[ti] + t.length));
+  const mtimeOf = (slot: number) => {
+    const ti = tableOf[slot];
+    return ti === 0 ? existingMtime(existing.source[slot]) : mtimes[ti];
+  };
+  const extraNames = [...new Set(tables.flatMap((t) => Object.keys(t.extra)))];
+  const equal = (a: number, b: number): boolean => {
+    const ta = tables[tableOf[a]];
+    const tb = tables[tableOf[b]];
+    const ia = a - offset[tableOf[a]];
+    const ib = b - offset[tableOf[b]];
+    for (const c of NUMERIC_COLUMNS) if (!same(ta[c][ia], tb[c][ib])) return false;
+    if (ta.status[ia] !== tb.status[ib] || ta.condition[ia] !== tb.condition[ib]) return false;
+    for (const e of extraNames) if (!same(ta.extra[e]?.[ia] ?? NaN, tb.extra[e]?.[ib] ?? NaN)) return false;
+    return true;
+  };
+  const rowOf = (slot: number) => {
+    const ti = tableOf[slot];
+    return { t: tables[ti], i: slot - offset[ti] };
+  };
+
+  const index = new Map<string, Map<number, number>>();
+  const rejects: Reject[] = [];
+  let conflicts = 0;
+  // Older sources first, so a newer one arriving later in the same ingest wins its conflicts.
+  const order = [0, ...incoming.map((_, k) => k + 1).sort((a, b) => mtimes[a] - mtimes[b] || a - b)];
+  for (const ti of order) {
+    const t = tables[ti];
+    const base = offset[ti];
+    let lastRun = '';
+    let byEpoch: Map<number, number> | undefined;
+    for (let i = 0; i < t.length; i++) {
+      const run = t.run[i];
+      if (run !== lastRun || byEpoch === undefined) {
+        byEpoch = index.get(run);
+        if (!byEpoch) index.set(run, (byEpoch = new Map()));
+        lastRun = run;
+      }
+      const slot = base + i;
+      const ep = t.epochs[i];
+      const holder = byEpoch.get(ep);
+      if (holder === undefined) {
+        byEpoch.set(ep, slot);
+        continue;
+      }
+      if (equal(holder, slot)) {
+        disposition[slot] = DUPLICATE;
+        continue;
+      }
+      conflicts++;
+      const newer = ti === 0 ? false : mtimeOf(slot) >= mtimeOf(holder);
+      const loser = newer ? holder : slot;
+      const winner = newer ? slot : holder;
+      disposition[loser] = LOST;
+      if (newer) byEpoch.set(ep, slot);
+      const l = rowOf(loser);
+      const w = rowOf(winner);
+      rejects.push({ source: l.t.source[l.i], line: l.t.source_line[l.i], field: 'run', reason: ingestText.conflict(run, ep, w.t.source[w.i], w.t.source_line[w.i]) });
+    }
+  }
+
+  const accepted = incoming.map(() => 0);
+  const duplicates = incoming.map(() => 0);
+  const conflictLost = incoming.map(() => 0);
+  let kept = 0;
+  let displaced = 0;
+  for (let s = 0; s < total; s++) {
+    const ti = tableOf[s];
+    const d = disposition[s];
+    if (d === KEPT) kept++;
+    if (ti === 0) {
+      if (d === LOST) displaced++;
+      continue;
+    }
+    if (d === KEPT) accepted[ti - 1]++;
+    else if (d === DUPLICATE) duplicates[ti - 1]++;
+    else conflictLost[ti - 1]++;
+  }
+  const out = emptyTable(kept, extraNames);
+  let k = 0;
+  for (let s = 0; s < total; s++) {
+    if (disposition[s] !== KEPT) continue;
+    const { t, i } = rowOf(s);
+    out.run[k] = t.run[i];
+    out.condition[k] = t.condition[i];
+    out.source[k] = t.source[i];
+    out.source_line[k] = t.source_line[i];
+    out.status[k] = t.status[i];
+    for (const c of NUMERIC_COLUMNS) out[c][k] = t[c][i];
+    for (const e of extraNames) out.extra[e][k] = t.extra[e]?.[i] ?? NaN;
+    k++;
+  }
+  return { table: out, accepted, duplicates, conflictLost, rejects, conflicts, displaced };
+}
+
+/** The rows of a table whose source is not in `drop` (a changed source's earlier rows are replaced). */
+export function dropSources(t: RowTable, drop: ReadonlySet<string>): RowTable {
+  if (drop.size === 0) return t;
+  const keep: number[] = [];
+  for (let i = 0; i < t.length; i++) if (!drop.has(t.source[i])) keep.push(i);
+  if (keep.length === t.length) return t;
+  const out = emptyTable(keep.length, Object.keys(t.extra));
+  keep.forEach((i, k) => {
+    out.run[k] = t.run[i];
+    out.condition[k] = t.condition[i];
+    out.source[k] = t.source[i];
+    out.source_line[k] = t.source_line[i];
+    out.status[k] = t.status[i];
+    for (const c of NUMERIC_COLUMNS) out[c][k] = t[c][i];
+    for (const e of Object.keys(t.extra)) out.extra[e][k] = t.extra[e][i];
+  });
+  return out;
+}

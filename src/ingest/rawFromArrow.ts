@@ -1,0 +1,19 @@
+import { tableFromIPC } from '@uwdata/flechette';
+import { emptyRaw } from './RawTable.js';
+import type { RawTable, RawValue } from './RawTable.js';
+
+/** An Arrow IPC file or stream: each column as read (numbers stay typed, 64-bit integers become numbers). */
+export function rawFromArrow(bytes: Uint8Array): RawTable {
+  const table = tableFromIPC(bytes, { useBigInt: false });
+  const raw = emptyRaw('arrow');
+  raw.length = table.numRows;
+  raw.lines = Array.from({ length: table.numRows }, (_, i) => i + 1);
+  for (const field of table.schema.fields) {
+    const values = table.getChild(field.name).toArray() as ArrayLike<unknown>;
+    raw.names.push(field.name);
+    if (values instanceof Float64Array) raw.columns.push(values);
+    else if (ArrayBuffer.isView(values)) raw.columns.push(Float64Array.from(values as ArrayLike<number>));
+    else raw.columns.push(Array.from(values as ArrayLike<unknown>, (v) => (typeof v === 'bigint' ? Number(v) : (v as RawValue))));
+  }
+  return raw;
+}

@@ -1,0 +1,99 @@
+import { readFileSync } from 'node:fs';
+import { basename, extname } from 'node:path';
+import { parse as parseYaml } from 'yaml';
+import { flattenRecord } from './RawTable.js';
+import type { RawTable, RawValue } from './RawTable.js';
+import { rawFromDelimited } from './rawFromDelimited.js';
+import { parseJsonLenient, rawFromJson, rawFromJsonLines } from './rawFromJson.js';
+import { rawFromArrow } from './rawFromArrow.js';
+import { ingestText } from '../messages.js';
+
+export type SourceFormat = 'csv' | 'tsv' | 'text' | 'jsonl' | 'json' | 'arrow';
+
+const BY_EXTENSION: Record<string, SourceFormat | 'sniff'> = {
+  '.csv': 'csv', '.tsv': 'tsv', '.tab': 'tsv', '.jsonl': 'jsonl', '.ndjson': 'jsonl', '.json': 'json',
+  '.arrow': 'arrow', '.feather': 'arrow', '.ipc': 'arrow', '.arrows': 'arrow',
+  '.txt': 'sniff', '.dat': 'sniff', '.log': 'sniff', '.out': 'sniff',
+};
+
+/** The format a file name stands for, 'sniff' for generic text, null when ingest does not read it. */
+export function formatOfName(path: string): SourceFormat | 'sniff' | null {
+  return BY_EXTENSION[extname(path).toLowerCase()] ?? null;
+}
+
+const ARROW_MAGIC = [0x41, 0x52, 0x52, 0x4f, 0x57, 0x31]; // "ARROW1"
+
+/** Guesses the format of text (or bytes) from its start: JSON, Arrow, tab, comma or whitespace. */
+export function sniffFormat(bytes: Uint8Array): SourceFormat {
+  if (ARROW_MAGIC.every((b, i) => bytes[i] === b) || (bytes[0] === 0xff && bytes[1] === 0xff && bytes[2] === 0xff && bytes[3] === 0xff)) return 'arrow';
+  const head = new TextDecoder().decode(bytes.subarray(0, 4096)).replace(/^\uFEFF/, '').trimStart();
+  if (head.startsWith('[')) return 'json';
+  if (head.startsWith('{')) {
+    const first = head.split('\n')[0].trim();
+    try {
+      parseJsonLenient(first);
+      return 'jsonl';
+    } catch {
+      return 'json';
+    }
+  }
+  const first = head.split(/\r?\n/)[0];
+  if (first.includes('\t')) return 'tsv';
+  if (first.includes(',')) return 'csv';
+  return 'text';
+}
+
+/** Reads bytes of a known format into a RawTable (pure: no file access). Throws on an unreadable file. */
+export function rawFromBytes(bytes: Uint8Array, format: SourceFormat): RawTable {
+  if (format === 'arrow') return rawFromArrow(bytes);
+  const text = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString('utf8');
+  switch (format) {
+    case 'csv':
+      return rawFromDelimited(text, ',');
+    case 'tsv':
+      return rawFromDelimited(text, '\t');
+    case 'text':
+      return rawFromDelimited(text, 'whitespace');
+    case 'jsonl':
+      return rawFromJsonLines(text);
+    case 'json':
+      return rawFromJson(text);
+  }
+}
+
+export function formatOfBytes(path: string, bytes: Uint8Array): SourceFormat {
+  const f = formatOfName(path);
+  return f === null || f === 'sniff' ? sniffFormat(bytes) : f;
+}
+
+/** File names that hold a run's configuration inside a run directory. */
+export const CONFIG_NAMES = ['config.json', 'config.yaml', 'config.yml', 'params.json', 'params.yaml', 'params.yml', 'hparams.json',
+  'hparams.yaml', 'hparams.yml', 'args.json', 'args.yaml', 'args.yml', 'run.json', 'run.yaml', 'run.yml'];
+/** Base names (any readable extension) that hold a run's metrics inside a run directory. */
+export const METRICS_NAMES = ['metrics', 'history', 'log', 'logs', 'progress', 'results', 'train_log', 'stats', 'eval', 'curve'];
+
+/** A run directory's (config file, metrics file) pair, or null when the folder is not one. */
+export function runDirectoryFiles(files: readonly string[]): { config: string; metrics: string } | null {
+  const lower = new Map(files.map((f) => [f.toLowerCase(), f]));
+  const config = CONFIG_NAMES.find((c) => lower.has(c));
+  if (!config) return null;
+  const metrics = files.find((f) => {
+    const ext = extname(f).toLowerCase();
+    const base = basename(f, extname(f)).toLowerCase();
+    return METRICS_NAMES.includes(base) && formatOfName(f) !== null && f.toLowerCase() !== config;
+  });
+  return metrics ? { config: lower.get(config)!, metrics } : null;
+}
+
+/** Reads a run directory's config file (JSON or YAML) into flat constants. */
+export function readConfigFile(path: string): Record<string, RawValue> {
+  const text = readFileSync(path, 'utf8');
+  let value: unknown;
+  try {
+    value = /\.ya?ml$/i.test(path) ? parseYaml(text) : parseJsonLenient(text);
+  } catch (err) {
+    throw new Error(ingestText.badConfig((err as Error).message.split('\n')[0]));
+  }
+  if (value === null || typeof value !== 'object' || Array.isArray(value)) throw new Error(ingestText.badConfig('not a mapping of keys to values'));
+  return flattenRecord(value as Record<string, unknown>);
+}

@@ -1,0 +1,75 @@
+/**
+ * Column names ingest recognises, per canonical target. Matching ignores case, spaces and
+ * punctuation (`Test Err`, `test-err` and `test_err` are one name). Earlier entries win when a
+ * log carries several synonyms of one target (`test_error` beats `val_error`).
+ */
+export const TARGETS = [
+  'run',
+  'seed',
+  'width',
+  'epochs',
+  'train_size',
+  'label_noise',
+  'test_error',
+  'train_error',
+  'test_loss',
+  'train_loss',
+  'test_accuracy',
+  'train_accuracy',
+  'wall_seconds',
+  'status',
+  'condition',
+] as const;
+export type Target = (typeof TARGETS)[number];
+
+export const SYNONYMS: Record<Target, readonly string[]> = {
+  run: ['run', 'run_id', 'run_name', 'job_id', 'trial', 'trial_id'],
+  seed: ['seed', 'random_seed', 'rng_seed', 'replicate', 'repeat'],
+  width: ['width', 'k', 'hidden', 'hidden_size', 'hidden_dim', 'hidden_units', 'channels', 'n_features', 'num_features',
+    'features', 'model_width', 'units', 'neurons', 'd_model', 'p', 'n_params', 'num_params', 'params', 'parameters', 'model_size'],
+  epochs: ['epochs', 'epoch', 'step', 'steps', 'iteration', 'iterations', 'iter', 't'],
+  train_size: ['train_size', 'n', 'n_train', 'num_samples', 'n_samples', 'num_train', 'train_samples', 'samples', 'dataset_size', 'ntrain'],
+  label_noise: ['label_noise', 'noise', 'noise_level', 'label_corruption', 'corruption', 'noise_rate', 'flip_prob'],
+  test_error: ['test_error', 'test_err', 'err_test', 'test_error_rate', 'error', 'top1_error', 'val_error', 'val_err', 'valid_error'],
+  train_error: ['train_error', 'train_err', 'err_train', 'training_error', 'train_error_rate'],
+  test_loss: ['test_loss', 'loss_test', 'test_mse', 'test_risk', 'risk', 'mse', 'val_loss', 'valid_loss'],
+  train_loss: ['train_loss', 'loss_train', 'training_loss', 'train_mse', 'train_risk'],
+  test_accuracy: ['test_accuracy', 'test_acc', 'acc_test', 'accuracy', 'acc', 'top1', 'top1_acc', 'val_accuracy', 'val_acc'],
+  train_accuracy: ['train_accuracy', 'train_acc', 'acc_train', 'training_accuracy'],
+  wall_seconds: ['wall_seconds', 'wall_time', 'wall', 'elapsed', 'elapsed_seconds', 'seconds', 'time', 'runtime', 'time_s'],
+  status: ['status', 'state'],
+  condition: ['condition'],
+};
+
+/** The matching key of a name: lower case, letters and digits only. */
+export function nameKey(name: string): string {
+  return name.toLowerCase().replace(/[^a-z0-9]/g, '');
+}
+
+const LOOKUP = new Map<string, { target: Target; rank: number }>();
+for (const t of TARGETS) {
+  SYNONYMS[t].forEach((s, rank) => {
+    const k = nameKey(s);
+    if (!LOOKUP.has(k)) LOOKUP.set(k, { target: t, rank });
+  });
+}
+
+/**
+ * The canonical target a source column name stands for, with its rank (lower = better), or
+ * null. Dotted paths (`metrics.test_acc`) match on the whole path first, then on the last part.
+ */
+export function matchTarget(name: string): { target: Target; rank: number } | null {
+  const whole = LOOKUP.get(nameKey(name));
+  if (whole) return whole;
+  const dot = name.lastIndexOf('.');
+  if (dot >= 0) {
+    const last = LOOKUP.get(nameKey(name.slice(dot + 1)));
+    if (last) return { target: last.target, rank: last.rank + 100 };
+  }
+  return null;
+}
+
+/** Whether a canonical target is an error or accuracy (a fraction that logs may write in percent). */
+export function isFractionTarget(t: Target): boolean {
+  return t === 'test_error' || t === 'train_error' || t === 'test_accuracy' || t === 'train_accuracy' || t === 'label_noise';
+}

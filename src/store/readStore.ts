@@ -1,0 +1,42 @@
+import { existsSync, readFileSync } from 'node:fs';
+import type { RowTable } from './RowTable.js';
+import { emptyTable } from './RowTable.js';
+import { STORE_FORMAT } from './Manifest.js';
+import type { Manifest } from './Manifest.js';
+import { rowsFromArrow } from './rowsArrow.js';
+import { storeFiles } from './storeFiles.js';
+import { UserError } from '../UserError.js';
+import { storeText } from '../messages.js';
+
+/** Reads only the manifest (cheap: lets a re-ingest of unchanged files skip rows.arrow). Null when absent. */
+export function readManifest(dir: string): Manifest | null {
+  const f = storeFiles(dir);
+  if (!existsSync(f.manifest)) return null;
+  let m: Manifest;
+  try {
+    m = JSON.parse(readFileSync(f.manifest, 'utf8')) as Manifest;
+  } catch (err) {
+    throw new UserError(storeText.badManifest(dir, (err as Error).message));
+  }
+  if (m.format !== STORE_FORMAT) throw new UserError(storeText.notAStore(dir));
+  return m;
+}
+
+/** Reads a store written by `datlas ingest`. Throws UserError (exit 1) when there is none. */
+export async function readStore(dir: string): Promise<{ table: RowTable; manifest: Manifest }> {
+  const manifest = readManifest(dir);
+  if (!manifest) throw new UserError(storeText.noStore(dir));
+  const f = storeFiles(dir);
+  if (!existsSync(f.rows)) {
+    if (manifest.rows === 0) return { table: emptyTable(0), manifest };
+    throw new UserError(storeText.inconsistent(dir, manifest.rows, 0));
+  }
+  let table: RowTable;
+  try {
+    table = rowsFromArrow(readFileSync(f.rows));
+  } catch (err) {
+    throw new UserError(storeText.badRows(dir, (err as Error).message));
+  }
+  if (table.length !== manifest.rows) throw new UserError(storeText.inconsistent(dir, manifest.rows, table.length));
+  return { table, manifest };
+}

@@ -1,0 +1,59 @@
+import { dictionary, float64, int32, tableFromArrays, tableFromIPC, tableToIPC, utf8 } from '@uwdata/flechette';
+import { emptyTable, NUMERIC_COLUMNS, STRING_COLUMNS } from './RowTable.js';
+import type { RowTable, RunStatus } from './RowTable.js';
+
+/** Column order in rows.arrow: run, seed, the axes, condition, metrics, status, provenance, extras. */
+export const STORE_COLUMNS = ['run', 'seed', 'width', 'epochs', 'train_size', 'label_noise', 'condition', 'test_error', 'train_error',
+  'test_loss', 'train_loss', 'wall_seconds', 'status', 'source', 'source_line'] as const;
+
+/**
+ * Encodes a RowTable as an Arrow IPC file (readable by pyarrow, pandas.read_feather, polars,
+ * DuckDB). Numbers are float64 (NaN for missing), text columns are dictionary-encoded utf8,
+ * source_line is int32.
+ */
+export function rowsToArrow(t: RowTable): Uint8Array {
+  const data: [string, unknown[] | Float64Array | Int32Array][] = [];
+  const types: Record<string, ReturnType<typeof float64> | ReturnType<typeof int32> | ReturnType<typeof dictionary>> = {};
+  for (const c of STORE_COLUMNS) {
+    if (c === 'source_line') {
+      data.push([c, t.source_line]);
+      types[c] = int32();
+    } else if ((NUMERIC_COLUMNS as readonly string[]).includes(c)) {
+      data.push([c, t[c as (typeof NUMERIC_COLUMNS)[number]]]);
+      types[c] = float64();
+    } else {
+      data.push([c, c === 'status' ? t.status : t[c as (typeof STRING_COLUMNS)[number]]]);
+      types[c] = dictionary(utf8(), int32());
+    }
+  }
+  for (const [name, col] of Object.entries(t.extra)) {
+    if ((STORE_COLUMNS as readonly string[]).includes(name)) continue;
+    data.push([name, col]);
+    types[name] = float64();
+  }
+  // flechette's typings want plain arrays or typed arrays; ours are exactly that.
+  const table = tableFromArrays(data as [string, unknown[]][], { types });
+  return tableToIPC(table, { format: 'file' })!;
+}
+
+/** Decodes rows.arrow back into a RowTable (columns beyond the canonical ones become extras). */
+export function rowsFromArrow(bytes: Uint8Array): RowTable {
+  const table = tableFromIPC(bytes, { useBigInt: false });
+  const names = table.schema.fields.map((f) => f.name);
+  const canonical = new Set<string>(STORE_COLUMNS);
+  const extraNames = names.filter((n) => !canonical.has(n));
+  const out = emptyTable(table.numRows, extraNames) as { -readonly [K in keyof RowTable]: RowTable[K] };
+  const num = (name: string): Float64Array => {
+    const v = table.getChild(name).toArray() as ArrayLike<number | null>;
+    return v instanceof Float64Array ? v : Float64Array.from(v, (x) => (x === null ? NaN : Number(x)));
+  };
+  for (const c of NUMERIC_COLUMNS) if (names.includes(c)) (out as Record<string, unknown>)[c] = num(c);
+  for (const c of STRING_COLUMNS) if (names.includes(c)) (out as Record<string, unknown>)[c] = Array.from(table.getChild(c).toArray() as ArrayLike<string | null>, (s) => s ?? '');
+  if (names.includes('status')) out.status = Array.from(table.getChild('status').toArray() as ArrayLike<string | null>, (s) => (s === 'diverged' ? 'diverged' : 'ok') as RunStatus);
+  if (names.includes('source_line')) {
+    const v = table.getChild('source_line').toArray() as ArrayLike<number>;
+    out.source_line = v instanceof Int32Array ? v : Int32Array.from(v);
+  }
+  for (const e of extraNames) out.extra[e] = num(e);
+  return out;
+}
