@@ -37,4 +37,6 @@ export interface Cell extends CellKey {
   runs: string[];
   /** Seeds whose run is marked diverged at this cell (their values are not in `stats`). */
   diverged: number;
+  /** Run ids of the diverged seeds (not in `seeds`/`values`). */
+  divergedRuns?: string[];
 }

@@ -1,0 +1,177 @@
+import type { Metric, RowTable } from '../store/RowTable.js';
+import { defaultMetric } from '../store/RowTable.js';
+import type { Cell } from './Cell.js';
+import { seedStats } from './seedStats.js';
+
+export interface BuildCellsOptions {
+  /** The value aggregated over seeds; default test_error, or test_loss when no row has an error. */
+  metric?: Metric;
+  /**
+   * Align every run to these epochs by interpolation along its own curve in log-epoch space.
+   * Default: each run contributes at the epochs it logged.
+   */
+  epochs?: number[];
+}
+
+/** One run's curve: finite points of a value, epochs ascending. */
+interface Curve {
+  e: number[];
+  v: number[];
+}
+
+/**
+ * The value of a run's curve at epoch `t`: exact at a logged epoch, interpolated between the two
+ * logged epochs around it (linear in log epoch when both are positive, else linear in epoch), and
+ * undefined outside [first, last] logged epoch: runs are never extrapolated.
+ */
+export function curveAt(curve: Curve, t: number): number | undefined {
+  const { e, v } = curve;
+  const n = e.length;
+  if (n === 0 || !(t >= e[0] && t <= e[n - 1])) return undefined;
+  let lo = 0;
+  let hi = n - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (e[mid] <= t) lo = mid;
+    else hi = mid;
+  }
+  if (e[lo] === t) return v[lo];
+  if (e[hi] === t) return v[hi];
+  const a = e[lo];
+  const b = e[hi];
+  const w = a > 0 ? Math.log(t / a) / Math.log(b / a) : (t - a) / (b - a);
+  return v[lo] + w * (v[hi] - v[lo]);
+}
+
+function curveOf(epochs: number[], values: number[]): Curve {
+  const e: number[] = [];
+  const v: number[] = [];
+  for (let k = 0; k < epochs.length; k++) {
+    if (!Number.isFinite(values[k]) || !Number.isFinite(epochs[k])) continue;
+    // A repeated epoch inside one run keeps its last row (ingest normally removed duplicates).
+    if (e.length > 0 && e[e.length - 1] === epochs[k]) v[v.length - 1] = values[k];
+    else {
+      e.push(epochs[k]);
+      v.push(values[k]);
+    }
+  }
+  return { e, v };
+}
+
+interface Entry {
+  seed: number;
+  run: string;
+  value: number;
+  train: number;
+}
+
+interface Acc {
+  condition: string;
+  label_noise: number;
+  width: number;
+  train_size: number;
+  epochs: number;
+  entries: Entry[];
+  divergedRuns: string[];
+}
+
+/**
+ * Groups rows into cells (condition, label_noise, width, train_size, epochs) and aggregates the
+ * seeds of each. A run marked diverged is counted (`diverged`) at every epoch from its first
+ * diverged row on — divergence is terminal — and its values there are never averaged.
+ */
+export function buildCells(table: RowTable, opts: BuildCellsOptions = {}): Cell[] {
+  const metric = opts.metric ?? defaultMetric(table);
+  const targets = opts.epochs ? [...new Set(opts.epochs.filter((e) => Number.isFinite(e)))].sort((a, b) => a - b) : null;
+  const metricCol = table[metric];
+
+  // Rows of each run. The configuration is part of the key so a run id reused across configurations splits.
+  const runs = new Map<string, number[]>();
+  for (let i = 0; i < table.length; i++) {
+    const key = `${table.run[i]}\u0000${table.condition[i]}\u0000${table.label_noise[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}\u0000${table.run[i] === '' ? table.seed[i] : ''}`;
+    let rows = runs.get(key);
+    if (!rows) runs.set(key, (rows = []));
+    rows.push(i);
+  }
+
+  const cells = new Map<string, Acc>();
+  const accFor = (i: number, epoch: number): Acc => {
+    const key = `${table.condition[i]}\u0000${table.label_noise[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}\u0000${epoch}`;
+    let acc = cells.get(key);
+    if (!acc) {
+      acc = {
+        condition: table.condition[i],
+        label_noise: table.label_noise[i],
+        width: table.width[i],
+        train_size: table.train_size[i],
+        epochs: epoch,
+        entries: [],
+        divergedRuns: [],
+      };
+      cells.set(key, acc);
+    }
+    return acc;
+  };
+
+  for (const rows of runs.values()) {
+    rows.sort((a, b) => table.epochs[a] - table.epochs[b]);
+    const first = rows[0];
+    let divergedAt = Infinity;
+    const epochs: number[] = [];
+    const values: number[] = [];
+    const trains: number[] = [];
+    for (const i of rows) {
+      if (table.status[i] === 'diverged') {
+        divergedAt = Math.min(divergedAt, table.epochs[i]);
+        continue;
+      }
+      epochs.push(table.epochs[i]);
+      values.push(metricCol[i]);
+      trains.push(table.train_error[i]);
+    }
+    const curve = curveOf(epochs, values);
+    const trainCurve = curveOf(epochs, trains);
+    const runTargets = targets ?? [...new Set(rows.map((i) => table.epochs[i]).filter((e) => Number.isFinite(e)))];
+    for (const t of runTargets) {
+      if (t >= divergedAt) {
+        accFor(first, t).divergedRuns.push(table.run[first]);
+        continue;
+      }
+      const value = curveAt(curve, t);
+      if (value === undefined) continue;
+      accFor(first, t).entries.push({ seed: table.seed[first], run: table.run[first], value, train: curveAt(trainCurve, t) ?? NaN });
+    }
+  }
+
+  const out: Cell[] = [];
+  for (const acc of cells.values()) {
+    acc.entries.sort((a, b) => a.seed - b.seed || (a.run < b.run ? -1 : a.run > b.run ? 1 : 0));
+    const trainValues = acc.entries.map((e) => e.train);
+    const anyTrain = trainValues.some((x) => Number.isFinite(x));
+    out.push({
+      condition: acc.condition,
+      label_noise: acc.label_noise,
+      width: acc.width,
+      train_size: acc.train_size,
+      epochs: acc.epochs,
+      metric,
+      stats: seedStats(acc.entries.map((e) => e.value)),
+      train: anyTrain ? seedStats(trainValues) : null,
+      seeds: acc.entries.map((e) => e.seed),
+      values: acc.entries.map((e) => e.value),
+      trainValues,
+      runs: acc.entries.map((e) => e.run),
+      diverged: acc.divergedRuns.length,
+      divergedRuns: acc.divergedRuns.sort(),
+    });
+  }
+  out.sort(
+    (a, b) =>
+      (a.condition < b.condition ? -1 : a.condition > b.condition ? 1 : 0) ||
+      a.label_noise - b.label_noise ||
+      a.width - b.width ||
+      a.train_size - b.train_size ||
+      a.epochs - b.epochs,
+  );
+  return out;
+}

@@ -1,0 +1,255 @@
+import type { FittedField, GridField, ScatterPoints } from './Interpolator.js';
+import { cholesky, choleskyInverseDiagonal, choleskyLogDet, choleskySolve, forwardSolve } from './linalg.js';
+import { nelderMead } from './nelderMead.js';
+
+/** Hyper-parameters are fitted on at most this many points (a fixed-seed random subset beyond it). */
+export const GP_FIT_SUBSET = 300;
+/** The sd field conditions each block of raster points on this many nearest cells (exact below it). */
+export const GP_SD_NEIGHBOURS = 80;
+/** Raster points per side of a block sharing one neighbour set for the sd field. */
+const SD_BLOCK = 8;
+/** Diagonal jitter relative to the amplitude, for numerical stability only. */
+const JITTER = 1e-10;
+
+export interface GpHyper {
+  /** Length-scales along x and y in normalised transformed units. */
+  lx: number;
+  ly: number;
+  /** Signal variance (amplitude²) in standardised value units. */
+  amp2: number;
+  /** Extra noise variance fitted when cells carry no standard error; 0 otherwise. */
+  noise2: number;
+}
+
+export interface GpOptions {
+  /** Fixed hyper-parameters (skip the marginal-likelihood fit); used by tests and refits. */
+  hyper?: GpHyper;
+  /** Fixed constant mean in value units (default: the mean of the values). */
+  mean?: number;
+  /** Fixed value scale (default: the sd of the values). */
+  scale?: number;
+}
+
+/** Matérn 5/2 correlation at scaled distance r. */
+export function matern52(r: number): number {
+  const s = Math.sqrt(5) * r;
+  return (1 + s + (s * s) / 3) * Math.exp(-s);
+}
+
+/** Deterministic pseudo-random numbers (mulberry32) so fits are reproducible. */
+function mulberry32(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+interface Data {
+  dims: 1 | 2;
+  x: Float64Array;
+  y: Float64Array;
+  z: Float64Array;
+  /** Noise variance per point in standardised units (0 when fitted globally). */
+  noise: Float64Array;
+}
+
+function covariance(d: Data, ids: ArrayLike<number>, h: GpHyper): Float64Array {
+  const n = ids.length;
+  const k = new Float64Array(n * n);
+  for (let a = 0; a < n; a++) {
+    const i = ids[a];
+    for (let b = 0; b <= a; b++) {
+      const j = ids[b];
+      const dx = (d.x[i] - d.x[j]) / h.lx;
+      const dy = d.dims === 2 ? (d.y[i] - d.y[j]) / h.ly : 0;
+      const v = h.amp2 * matern52(Math.sqrt(dx * dx + dy * dy));
+      k[a * n + b] = v;
+      k[b * n + a] = v;
+    }
+    k[a * n + a] += d.noise[i] + h.noise2 + JITTER * h.amp2;
+  }
+  return k;
+}
+
+/** Cholesky of the covariance, raising the jitter until it factors (duplicated points, tiny noise). */
+function factor(d: Data, ids: ArrayLike<number>, h: GpHyper): Float64Array | null {
+  let extra = 0;
+  for (let attempt = 0; attempt < 6; attempt++) {
+    const k = covariance(d, ids, { ...h, noise2: h.noise2 + extra });
+    if (cholesky(k, ids.length)) return k;
+    extra = extra === 0 ? 1e-8 * h.amp2 : extra * 100;
+  }
+  return null;
+}
+
+/** Negative log marginal likelihood (Rasmussen & Williams eq. 2.30). */
+function negLogMarginal(d: Data, ids: ArrayLike<number>, h: GpHyper): number {
+  const n = ids.length;
+  const l = factor(d, ids, h);
+  if (!l) return Infinity;
+  const z = Float64Array.from(ids, (i) => d.z[i]);
+  const w = forwardSolve(l, n, z);
+  let q = 0;
+  for (let i = 0; i < n; i++) q += w[i] * w[i];
+  return 0.5 * q + 0.5 * choleskyLogDet(l, n) + 0.5 * n * Math.log(2 * Math.PI);
+}
+
+const BOUNDS = { l: [Math.log(0.02), Math.log(5)], amp2: [Math.log(1e-4), Math.log(100)], noise2: [Math.log(1e-8), Math.log(10)] };
+const clamp = (v: number, [lo, hi]: number[]) => Math.min(hi, Math.max(lo, v));
+
+function fitHyper(d: Data, ids: number[], fitNoise: boolean): GpHyper {
+  const unpack = (t: number[]): GpHyper => {
+    let k = 0;
+    const lx = Math.exp(clamp(t[k++], BOUNDS.l));
+    const ly = d.dims === 2 ? Math.exp(clamp(t[k++], BOUNDS.l)) : 1;
+    const amp2 = Math.exp(clamp(t[k++], BOUNDS.amp2));
+    const noise2 = fitNoise ? Math.exp(clamp(t[k++], BOUNDS.noise2)) : 0;
+    return { lx, ly, amp2, noise2 };
+  };
+  // A soft penalty outside the box keeps the simplex from drifting along flat directions.
+  const pen = (t: number[]) => {
+    let k = 0;
+    let s = 0;
+    const out = (v: number, b: number[]) => (v < b[0] ? b[0] - v : v > b[1] ? v - b[1] : 0);
+    s += out(t[k++], BOUNDS.l);
+    if (d.dims === 2) s += out(t[k++], BOUNDS.l);
+    s += out(t[k++], BOUNDS.amp2);
+    if (fitNoise) s += out(t[k++], BOUNDS.noise2);
+    return 10 * s * s;
+  };
+  const objective = (t: number[]) => negLogMarginal(d, ids, unpack(t)) + pen(t);
+  let best: { x: number[]; f: number } | null = null;
+  for (const l0 of [0.15, 0.5]) {
+    const x0 = [Math.log(l0)];
+    if (d.dims === 2) x0.push(Math.log(l0));
+    x0.push(0);
+    if (fitNoise) x0.push(Math.log(0.05));
+    const r = nelderMead(objective, x0, { step: 0.7, maxEvals: 160, tol: 1e-5 });
+    if (!best || r.f < best.f) best = r;
+  }
+  return unpack(best!.x);
+}
+
+/**
+ * Gaussian-process regression of the cell means: constant mean, anisotropic Matérn 5/2 kernel,
+ * each cell's noise variance its squared standard error (or one fitted noise level when no cell
+ * has two seeds), length-scales and amplitude by maximising the log marginal likelihood
+ * (Nelder–Mead over their logs). Gives the posterior mean and standard-deviation fields.
+ *
+ * Leave-one-out in closed form (Rasmussen & Williams 2006, eq. 5.12), hyper-parameters and mean
+ * held fixed. The sd field conditions each 8×8 block of raster points on its GP_SD_NEIGHBOURS
+ * nearest cells (in length-scale units): exact when there are no more cells than that, otherwise
+ * a slight over-estimate (conditioning on less data never lowers the variance), close to exact
+ * for Matérn kernels because far cells are screened by near ones.
+ */
+export function gaussianProcessField(p: ScatterPoints, opts: GpOptions = {}): FittedField {
+  const n = p.x.length;
+  if (n < 2) throw new Error('a Gaussian process needs at least two points');
+  const notes: string[] = [];
+  let mean = opts.mean ?? 0;
+  if (opts.mean === undefined) {
+    for (let i = 0; i < n; i++) mean += p.v[i];
+    mean /= n;
+  }
+  let scale = opts.scale ?? 0;
+  if (opts.scale === undefined) {
+    for (let i = 0; i < n; i++) scale += (p.v[i] - mean) ** 2;
+    scale = Math.sqrt(scale / n);
+    if (!(scale > 0)) scale = 1;
+  }
+  const d: Data = {
+    dims: p.dims,
+    x: p.x,
+    y: p.y,
+    z: Float64Array.from(p.v, (v) => (v - mean) / scale),
+    noise: p.noise ? Float64Array.from(p.noise, (s) => (Number.isFinite(s) && s > 0 ? s / (scale * scale) : 0)) : new Float64Array(n),
+  };
+  const fitNoise = p.noise === null;
+
+  let hyper = opts.hyper;
+  if (!hyper) {
+    let ids = [...Array(n).keys()];
+    if (n > GP_FIT_SUBSET) {
+      const rand = mulberry32(12345);
+      for (let i = n - 1; i > 0; i--) {
+        const j = Math.floor(rand() * (i + 1));
+        [ids[i], ids[j]] = [ids[j], ids[i]];
+      }
+      ids = ids.slice(0, GP_FIT_SUBSET);
+      notes.push(`gp: hyper-parameters fitted on a random subset of ${GP_FIT_SUBSET} of ${n} cells`);
+    }
+    hyper = fitHyper(d, ids, fitNoise);
+  }
+  const h = hyper;
+  const all = [...Array(n).keys()];
+  const l = factor(d, all, h);
+  if (!l) throw new Error('Gaussian-process covariance is not positive definite');
+  const alpha = choleskySolve(l, n, d.z);
+  const kinvDiag = choleskyInverseDiagonal(l, n);
+  const loo = new Float64Array(n);
+  // R&W eq. 5.12: y_i − μ₋ᵢ = [K⁻¹y]_i / [K⁻¹]_ii.
+  for (let i = 0; i < n; i++) loo[i] = mean + scale * (d.z[i] - alpha[i] / kinvDiag[i]);
+
+  const corrTo = (i: number, x: number, y: number) => {
+    const dx = (x - d.x[i]) / h.lx;
+    const dy = d.dims === 2 ? (y - d.y[i]) / h.ly : 0;
+    return h.amp2 * matern52(Math.sqrt(dx * dx + dy * dy));
+  };
+  const at = (x: number, y: number): number => {
+    let s = 0;
+    for (let i = 0; i < n; i++) s += corrTo(i, x, y) * alpha[i];
+    return mean + scale * s;
+  };
+
+  const grid = (gx: Float64Array, gy: Float64Array): GridField => {
+    const nx = gx.length;
+    const ny = gy.length;
+    const value = new Float64Array(nx * ny);
+    for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) value[j * nx + i] = at(gx[i], gy[j]);
+    const sd = new Float64Array(nx * ny);
+    const m = Math.min(n, GP_SD_NEIGHBOURS);
+    const dist = new Float64Array(n);
+    const order = new Int32Array(n);
+    const kstar = new Float64Array(m);
+    for (let bj = 0; bj < ny; bj += SD_BLOCK) {
+      for (let bi = 0; bi < nx; bi += SD_BLOCK) {
+        const ie = Math.min(nx, bi + SD_BLOCK);
+        const je = Math.min(ny, bj + SD_BLOCK);
+        let ids: Int32Array;
+        if (m === n) ids = Int32Array.from(all);
+        else {
+          const cx = (gx[bi] + gx[ie - 1]) / 2;
+          const cy = (gy[bj] + gy[je - 1]) / 2;
+          for (let i = 0; i < n; i++) {
+            const dx = (d.x[i] - cx) / h.lx;
+            const dy = d.dims === 2 ? (d.y[i] - cy) / h.ly : 0;
+            dist[i] = dx * dx + dy * dy;
+            order[i] = i;
+          }
+          order.sort((a, b) => dist[a] - dist[b]);
+          ids = order.slice(0, m);
+        }
+        const lb = factor(d, ids, h);
+        if (!lb) {
+          for (let j = bj; j < je; j++) for (let i = bi; i < ie; i++) sd[j * nx + i] = NaN;
+          continue;
+        }
+        for (let j = bj; j < je; j++) {
+          for (let i = bi; i < ie; i++) {
+            for (let a = 0; a < m; a++) kstar[a] = corrTo(ids[a], gx[i], gy[j]);
+            forwardSolve(lb, m, kstar);
+            let q = 0;
+            for (let a = 0; a < m; a++) q += kstar[a] * kstar[a];
+            sd[j * nx + i] = scale * Math.sqrt(Math.max(0, h.amp2 - q));
+          }
+        }
+      }
+    }
+    return { value, sd };
+  };
+  return { at, grid, loo, notes, params: { ...h, mean, scale } };
+}
