@@ -81,6 +81,31 @@ export const storeText = {
 // ── simulate ─────────────────────────────────────────────────────────────────
 
 // ── cells / grid / map ───────────────────────────────────────────────────────
+export const mapMessages = {
+  unknownAxis: (name: string, allowed: readonly string[]) => `unknown axis '${name}'; map axes are ${allowed.join(', ')}`,
+  sameAxes: (name: string) => `--x and --y are both '${name}'; a map needs two different axes`,
+  atOnMapAxis: (name: string) => `--at fixes '${name}', but '${name}' is an axis of this map; drop it or choose other axes`,
+  atUnknown: (name: string, allowed: readonly string[]) => `--at names '${name}', which is not one of ${allowed.join(', ')}`,
+  atNotNumber: (name: string, value: string) => `--at ${name}=${value}: ${name} takes a number`,
+  atValueAbsent: (name: string, value: number | string, available: readonly (number | string)[]) =>
+    `no rows with ${name}=${value}; values present: ${available.slice(0, 20).join(', ')}${available.length > 20 ? ', ...' : ''}`,
+  noMetric: (metric: string) => `no row has a finite ${metric}${metric === 'test_error' ? ' (try --metric test_loss)' : ''}`,
+  noCells: (fixed: string) => `no measured cells at ${fixed} (runs may end before that epoch; they are never extrapolated)`,
+  tooFewCells: (n: number, x: string, y: string) => `only ${n} measured cell(s) over ${x} × ${y}: a map needs at least 2 (3 not on one line for a 2-D field)`,
+  methodFailed: (method: string, why: string) => `method ${method} failed on this map: ${why}`,
+  noMethodWorked: (why: string) => `no interpolation method worked on this map: ${why}`,
+  badRaster: (text: string) => `--raster expects NXxNY (e.g. 256x256) with sizes 2..2048, got '${text}'`,
+  badFormat: (text: string, allowed: readonly string[]) => `--format '${text}' is not available; choose from ${allowed.join(', ')}`,
+  badScale: (text: string) => `--scale expects axis=log2|linear (e.g. --scale width=linear), got '${text}'`,
+  droppedNonPositive: (axis: string, n: number) => `${n} cell(s) at ${axis} <= 0 left out of the log2 ${axis} axis`,
+  epochsThinned: (logged: number, used: number) => `runs logged ${logged} distinct epochs; the map uses ${used} of them (every run aligned to them along its own curve)`,
+  oneSeedCells: (n: number) => `${n} cell(s) have one seed: no interval there`,
+  heavyTails: (n: number) => `${n} cell(s) have mean and median more than a factor 2 apart (heavy tails across seeds); the map shows means`,
+  gpSkipped: (n: number, max: number) => `gp not tried: ${n} cells (auto tries gp up to ${max}; ask for --method gp to force it)`,
+  triedFailed: (method: string, why: string) => `${method} not usable here: ${why}`,
+  wroteMap: (path: string) => `wrote ${path}`,
+};
+
 
 // ── analysis (ridge, threshold, hurts) ───────────────────────────────────────
 /** Numbers as a reader wants them: sizes with thousands separators, errors with 3 significant digits. */
@@ -154,7 +179,8 @@ export const render = {
   keyDiverged: (n: number) => `triangle: cell with diverged run(s), left out of the mean (${n})`,
   keyRidge: (from: string) => `ridge: error peak in each row; whiskers: its location interval (${from}); gap: no significant peak`,
   keyThreshold: (x: string, eps: string) => `dashed: interpolation threshold, smallest ${x} with mean train error ≤ ${eps}`,
-  keySlicesBand: 'band: 95% Student-t interval over seeds · ◆ peak with its location interval · ▲ diverged run(s)',
+  keySlicesBand: (diverged: boolean) =>
+    `band: 95% Student-t interval of the mean over seeds · ◆ ridge peak with its location interval${diverged ? ' · △ cell with diverged run(s)' : ''}`,
   warnNoRidge: 'ridge not computed: no peak or threshold drawn',
   warnNoPeak: (k: number) => `no significant peak in any row (prominence ≥ ${k} standard errors): no ridge drawn`,
   warnWeakPeaks: (where: string, k: number) => `not significant (prominence < ${k} standard errors): peak at ${where}`,
@@ -214,14 +240,15 @@ export const report = {
   modelNoPeak: (fixed: string) => `Model-wise: no significant double-descent peak at any epoch${fixed ? ` (${fixed})` : ''}.`,
   noiseEffect: (parts: string, trend: 'grows' | 'shrinks' | 'mixed') =>
     `Label noise: the peak's height over its flanks ${trend === 'grows' ? 'grows with noise' : trend === 'shrinks' ? 'shrinks with noise' : 'varies with noise'} (${parts}).`,
-  samplePeaks: (parts: string) => `Sample-wise: test error peaks at ${parts}.`,
+  samplePeaks: (parts: string, fixed: string) => `Sample-wise: test error peaks at ${parts}${fixed ? ` (${fixed})` : ''}.`,
   sampleNoPeak: (fixed: string) => `Sample-wise: no significant peak along train size${fixed ? ` (${fixed})` : ''}.`,
   hurts: (fixed: string, onset: string, peak: string, rise: string, p: string, ratio: string | null, recovery: string | null, others: number) =>
     `More data hurts at ${fixed}: test error rises by ${rise} from train size ${onset} to ${peak}${ratio ? ` (${ratio} × the width)` : ''} (p ${p}), ` +
     `${recovery ? `and falls back to the onset level at ${recovery}` : 'and does not fall back to the onset level inside the sweep'}` +
     `${others ? `; ${others} more slice${others === 1 ? '' : 's'} show a significant rise` : ''}.`,
   hurtsNone: (slices: number, epochs: string) => `More data never significantly hurts at ${epochs} (${slices} train-size slices scanned).`,
-  epochPeak: (parts: string) => `Epoch-wise: test error rises and falls again with training time at ${parts}.`,
+  epochPeak: (parts: string, fixed: string) =>
+    `Epoch-wise: test error rises and falls again with training time at ${parts}${fixed ? ` (${fixed})` : ''}.`,
   epochNoPeak: (fixed: string) => `Epoch-wise: no significant peak along training time${fixed ? ` (${fixed})` : ''}: error only falls or only rises with epochs.`,
   coverage: (missing: number, partial: number, diverged: number, complete: number, total: number) =>
     `Still missing against the spec: ${missing} of ${total} planned runs have no data, ${partial} stopped before the target epochs, ${diverged} diverged (${complete} complete).`,
