@@ -15,6 +15,11 @@ export interface HurtsSegment {
   /** p-value of the rise (Welch t-test, or bootstrap when a cell has one seed). */
   p: number;
   test: 'welch' | 'bootstrap';
+  /**
+   * Search-wide p: how often a flat slice of pure noise with the same per-cell noise shows a rise
+   * this tall (in pair standard errors) anywhere. A segment needs both p and pSearch below alpha.
+   */
+  pSearch?: number;
   /** Mean metric at the onset and at the peak, and the seeds behind each. */
   onsetError?: number;
   peakError?: number;

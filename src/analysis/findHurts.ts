@@ -3,6 +3,7 @@ import { analysisText } from '../messages.js';
 import { usageError } from '../UserError.js';
 import type { HurtsResult, HurtsSegment } from './Hurts.js';
 import { localPeaks } from './localPeaks.js';
+import { searchWideP } from './searchWideP.js';
 import { deriveSeed, seededRng } from './seededRng.js';
 import { seriesNoise } from './seriesNoise.js';
 import { welchTest } from './welchTest.js';
@@ -16,6 +17,11 @@ export interface HurtsOptions {
   boot?: number;
   /** Seed of the bootstrap's random stream (default 1). */
   seed?: number;
+  /**
+   * Simulated pure-noise slices for the search-wide check (default 1000; 0 turns it off): a rise
+   * must also be taller, in SE, than the tallest rise noise alone produces anywhere along the slice.
+   */
+  nullRounds?: number;
 }
 
 /** The axes a hurts slice is fixed on; train_size runs along it. */
@@ -35,7 +41,10 @@ function sameValue(a: number | string, b: number | string): boolean {
  * the nearest higher point) to its peak (a local maximum, or the last size if still rising). It
  * counts when the one-sided Welch t-test of peak against onset cell gives p < alpha; when either
  * cell has a single seed a bootstrap of the difference is used instead (seed resampling, and the
- * series' pooled or curve noise for single-seed cells). Recovery is where the error first falls
+ * series' pooled or curve noise for single-seed cells). Because onset and peak are picked as the
+ * lowest and highest points, the rise must also beat, in pair standard errors, the tallest rise
+ * that pure noise produces anywhere along a slice of the same shape (search-wide p, `pSearch`).
+ * Recovery is where the error first falls
  * back to the onset level after the peak, interpolated linearly in log2 size; null when not
  * reached inside the sweep. Rises nested inside a larger one are not listed separately.
  * Segments come worst (largest rise) first.
@@ -45,6 +54,7 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
   const alpha = opts.alpha ?? 0.05;
   const boot = Math.max(1, Math.floor(opts.boot ?? 1000));
   const seed = opts.seed ?? 1;
+  const nullRounds = Math.max(0, Math.floor(opts.nullRounds ?? 1000));
   for (const k of Object.keys(at)) {
     if (!(HURTS_SLICE_KEYS as readonly string[]).includes(k)) throw usageError(analysisText.badHurtsAt(k));
   }
@@ -77,6 +87,13 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
       condition: first.condition,
     };
     const found: (HurtsSegment & { i0: number; i1: number })[] = [];
+    // Rise of a candidate in pair standard errors: the statistic the search-wide check compares.
+    const zOf = (mm: ArrayLike<number>, i0: number, i1: number): number => {
+      const se = noise.pairSe(i1, i0);
+      const d = mm[i1] - mm[i0];
+      return se > 0 ? d / se : d > 0 ? Infinity : 0;
+    };
+    let pSearchOf: ((z: number) => number) | null = null;
     for (const lp of localPeaks(m, { allowRightEnd: true })) {
       const i0 = lp.leftBase;
       const i1 = lp.index;
@@ -103,6 +120,22 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
         test = 'bootstrap';
       }
       if (!(p < alpha)) continue;
+      let pSearch: number | undefined;
+      if (nullRounds > 0 && Number.isFinite(noise.sd) && noise.sd > 0) {
+        pSearchOf ??= searchWideP({
+          noise,
+          u,
+          rounds: nullRounds,
+          rng,
+          maxStat: (mm, scale) => {
+            let best = 0;
+            for (const q of localPeaks(mm, { allowRightEnd: true })) best = Math.max(best, zOf(mm, q.leftBase, q.index) * scale);
+            return best;
+          },
+        });
+        pSearch = pSearchOf(zOf(m, i0, i1));
+        if (!(pSearch < alpha)) continue;
+      }
       let recovery: number | null = null;
       for (let k = i1 + 1; k < m.length; k++) {
         if (m[k] <= m[i0]) {
@@ -118,6 +151,7 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
         recovery,
         rise,
         p,
+        ...(pSearch === undefined ? {} : { pSearch }),
         test,
         onsetError: m[i0],
         peakError: m[i1],

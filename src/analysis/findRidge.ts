@@ -1,12 +1,12 @@
 import type { Cell } from '../cells/Cell.js';
 import type { SweepMap } from '../grid/SweepMap.js';
 import { axisTransform } from './axisTransform.js';
-import { curveNoise } from './curveNoise.js';
 import { findThreshold } from './findThreshold.js';
 import { localPeaks } from './localPeaks.js';
 import type { LocalPeak } from './localPeaks.js';
 import { parabolaVertex } from './parabolaVertex.js';
 import { quantileSorted } from './quantile.js';
+import { searchWideP } from './searchWideP.js';
 import type { Peak, RidgeResult, RidgeRow } from './Ridge.js';
 import { deriveSeed, seededRng } from './seededRng.js';
 import { seriesNoise } from './seriesNoise.js';
@@ -101,24 +101,20 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
     const rep = new Float64Array(means.length);
     const tall = scored.filter((s) => s.z >= minProminence);
     if (tall.length > 0 && alpha < 1 && nullRounds > 0 && Number.isFinite(noise.sd) && noise.sd > 0) {
-      // Look-elsewhere check: a row of L noisy cells has several local maxima, and the tallest of
-      // them clears 2 SE far more often than a single comparison would. Compare each peak with the
-      // tallest noise bump of simulated flat rows carrying the same per-cell noise.
-      const nullMax = new Float64Array(nullRounds);
-      for (let b = 0; b < nullRounds; b++) {
-        noise.nullReplicate(rng, rep);
-        // A curve estimate of the noise is itself uncertain: re-estimate it on each simulated row
-        // so the statistic is studentised the same way as the observed one.
-        const scale = noise.from === 'curve' ? noise.sd / curveNoise(u, rep) : 1;
-        let best = 0;
-        for (const lp of localPeaks(rep)) best = Math.max(best, zOf(lp) * scale);
-        nullMax[b] = best;
-      }
-      for (const s of tall) {
-        let hits = 0;
-        for (let b = 0; b < nullRounds; b++) if (nullMax[b] >= s.z) hits++;
-        s.p = (hits + 1) / (nullRounds + 1);
-      }
+      // Look-elsewhere check: the tallest of a row's several noise bumps clears 2 SE far more
+      // often than one comparison would; compare with the tallest bump of simulated flat rows.
+      const pOf = searchWideP({
+        noise,
+        u,
+        rounds: nullRounds,
+        rng,
+        maxStat: (m, scale) => {
+          let best = 0;
+          for (const lp of localPeaks(m)) best = Math.max(best, zOf(lp) * scale);
+          return best;
+        },
+      });
+      for (const s of tall) s.p = pOf(s.z);
     }
     const passes = (s: { z: number; p: number }) => s.z >= minProminence && !(s.p >= alpha);
     const significant = scored.filter(passes).sort((a, b) => b.lp.prominence - a.lp.prominence);
