@@ -1,0 +1,234 @@
+import type { HurtsResult } from '../analysis/Hurts.js';
+import { findHurts } from '../analysis/findHurts.js';
+import { findRidge } from '../analysis/findRidge.js';
+import type { RidgeResult } from '../analysis/Ridge.js';
+import { buildCells } from '../cells/buildCells.js';
+import { buildMap } from '../grid/buildMap.js';
+import { MAP_AXES } from '../grid/SweepMap.js';
+import type { MapKind, SweepMap } from '../grid/SweepMap.js';
+import { report as msg } from '../messages.js';
+import type { CoverageResult } from '../plan/coverage.js';
+import type { PlanResult } from '../plan/Plan.js';
+import { defaultMetric } from '../store/RowTable.js';
+import type { Metric, RowTable } from '../store/RowTable.js';
+import { formatFixed, formatNumber } from './formatNumber.js';
+import { headlineFindings, variantCautions } from './headlineFindings.js';
+import type { CoverageSummary, MapSection, MapVariant, PlanSummary, ReportFacts, ReportModel } from './ReportModel.js';
+
+export interface BuildReportOptions {
+  table: RowTable;
+  title: string;
+  metric?: Metric;
+  dataDate?: string | null;
+  storeHash?: string | null;
+  coverage?: CoverageResult | null;
+  plan?: PlanResult | null;
+  /** Report time (ISO); default now. */
+  now?: string;
+  /** Values per fixed axis offered by a map's selector (default 5; epochs at most 4). */
+  perAxis?: number;
+  /** Bootstrap rounds of the ridge and hurts analyses (default 400) and their random seed (default 1). */
+  boot?: number;
+  seed?: number;
+  /** Called as each map variant is done (progress). */
+  onStep?: () => void;
+}
+
+const KINDS: MapKind[] = ['model', 'sample', 'epoch'];
+const FIXED_KEYS = ['width', 'epochs', 'train_size', 'label_noise', 'condition'] as const;
+
+function distinct(col: ArrayLike<number>, ok?: (i: number) => boolean): number[] {
+  const s = new Set<number>();
+  for (let i = 0; i < col.length; i++) if (Number.isFinite(col[i]) && (!ok || ok(i))) s.add(col[i]);
+  return [...s].sort((a, b) => a - b);
+}
+
+function columnValues(table: RowTable, key: string): (number | string)[] {
+  if (key === 'condition') return [...new Set(table.condition)].sort();
+  return distinct(table[key as 'width' | 'epochs' | 'train_size' | 'label_noise']);
+}
+
+/** Up to `k` values spread evenly over the list (by index; the list is log-spaced for most axes), always keeping `keep`. */
+function spread<T>(values: T[], k: number, keep: T): T[] {
+  if (values.length <= k) return values;
+  const out = new Set<T>([keep]);
+  for (let i = 0; out.size < k && i < k; i++) out.add(values[Math.round((i * (values.length - 1)) / (k - 1))]);
+  return values.filter((v) => out.has(v));
+}
+
+function facts(table: RowTable, opts: BuildReportOptions, metric: Metric): ReportFacts {
+  const runs = new Set(table.run);
+  const perConfig = new Map<string, Set<number>>();
+  let diverged = 0;
+  for (let i = 0; i < table.length; i++) {
+    if (table.status[i] === 'diverged') diverged++;
+    const k = `${table.condition[i]}\u0000${table.label_noise[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}`;
+    let s = perConfig.get(k);
+    if (!s) perConfig.set(k, (s = new Set()));
+    s.add(table.seed[i]);
+  }
+  const counts = [...perConfig.values()].map((s) => s.size);
+  return {
+    title: opts.title,
+    runs: runs.size,
+    rows: table.length,
+    seeds: { distinct: distinct(table.seed).length, perCellMin: counts.length ? Math.min(...counts) : 0, perCellMax: counts.length ? Math.max(...counts) : 0 },
+    axes: (['width', 'epochs', 'train_size', 'label_noise'] as const).map((name) => ({ name, values: distinct(table[name]) })),
+    conditions: [...new Set(table.condition)].sort(),
+    metric,
+    dataDate: opts.dataDate ?? null,
+    storeHash: opts.storeHash ?? null,
+    generatedAt: opts.now ?? new Date().toISOString(),
+    diverged,
+  };
+}
+
+/** Why the sweep cannot support a map of this kind, or null when it can. */
+function unsupported(table: RowTable, kind: MapKind): string | null {
+  const { x, y } = MAP_AXES[kind];
+  const nx = distinct(table[x as 'width']).length;
+  const ny = distinct(table[y as 'width']).length;
+  // A peak needs a rise and a fall along x: three values at least; a map needs two rows.
+  if (nx < 3) return msg.skipAxis(x, nx, 3);
+  if (ny < 2) return msg.skipAxis(y, ny, 2);
+  return null;
+}
+
+/** The selector's label of a variant: the varying axes first, then the rest. */
+function variantLabel(fixed: Record<string, number | string>, selector: string[]): string {
+  const first: Record<string, number | string> = {};
+  for (const k of selector) if (k in fixed) first[k] = fixed[k];
+  return formatFixed({ ...first, ...fixed });
+}
+
+function mapSection(table: RowTable, kind: MapKind, o: { metric: Metric; perAxis: number; boot: number; seed: number; onStep?: () => void }): MapSection | null {
+  const main = buildMap(table, { kind, metric: o.metric, method: 'auto' });
+  if (main.cells.length === 0) return null;
+  const ridgeOf = (map: SweepMap): RidgeResult | null =>
+    map.cells.length >= 3 ? findRidge(map, { boot: o.boot, seed: o.seed, nullRounds: o.boot }) : null;
+  const maps: SweepMap[] = [main];
+  o.onStep?.();
+  const selector: string[] = [];
+  // One fixed axis at a time around the main map (a full product of values would explode).
+  for (const key of FIXED_KEYS) {
+    if (!(key in main.fixed)) continue;
+    const all = columnValues(table, key);
+    if (all.length < 2) continue;
+    const k = key === 'epochs' ? Math.min(4, o.perAxis) : o.perAxis;
+    const chosen = spread(all as (number | string)[], k, main.fixed[key]);
+    let added = 0;
+    for (const v of chosen) {
+      if (v === main.fixed[key]) continue;
+      try {
+        const m = buildMap(table, { kind, metric: o.metric, method: main.method, at: { ...main.fixed, [key]: v } });
+        if (m.cells.length >= 3) {
+          maps.push(m);
+          added++;
+        }
+      } catch {
+        // A slice the sweep does not cover (buildMap refuses it): nothing to offer there.
+      }
+      o.onStep?.();
+    }
+    if (added) selector.push(key);
+  }
+  const variants: MapVariant[] = maps.map((map) => {
+    const v: MapVariant = { label: variantLabel(map.fixed, selector), map, ridge: ridgeOf(map), cautions: [] };
+    v.cautions = variantCautions(v, kind);
+    return v;
+  });
+  // Keep the selector in a reading order: sorted by the selector axes' values.
+  const order = variants.map((v, i) => i);
+  const keyOf = (v: MapVariant) => selector.map((k) => v.map.fixed[k]);
+  order.sort((a, b) => {
+    const ka = keyOf(variants[a]);
+    const kb = keyOf(variants[b]);
+    for (let i = 0; i < ka.length; i++) {
+      if (ka[i] === kb[i]) continue;
+      return typeof ka[i] === 'number' && typeof kb[i] === 'number' ? (ka[i] as number) - (kb[i] as number) : String(ka[i]).localeCompare(String(kb[i]));
+    }
+    return 0;
+  });
+  const sorted = order.map((i) => variants[i]);
+  return { kind, x: MAP_AXES[kind].x, y: MAP_AXES[kind].y, selector, variants: sorted, main: order.indexOf(0) };
+}
+
+function coverageSummary(c: CoverageResult): CoverageSummary {
+  return {
+    counts: { complete: c.counts.complete, partial: c.counts.partial, missing: c.counts.missing, diverged: c.counts.diverged },
+    gaps: c.runs
+      .filter((r) => r.status !== 'complete')
+      .map((r) => ({
+        config: { ...(r.condition ? { condition: r.condition } : {}), label_noise: r.label_noise, width: r.width, train_size: r.train_size },
+        seed: r.seed,
+        status: r.status === 'partial' && r.epoch !== null ? `partial (stopped at epoch ${formatNumber(r.epoch)})` : r.status,
+      })),
+  };
+}
+
+function planSummary(p: PlanResult): PlanSummary {
+  return {
+    budget: p.budget,
+    cost: p.cost,
+    runs: p.runs.map((r) => ({
+      config: { ...(r.condition ? { condition: r.condition } : {}), label_noise: r.label_noise, width: r.width, train_size: r.train_size },
+      seed: r.seed,
+      epochs: r.epochs,
+      reason: r.reason,
+      cost: r.cost,
+    })),
+  };
+}
+
+/**
+ * Everything the report shows, computed from the store's table: the sweep's facts; the
+ * model-, sample- and epoch-wise maps (each at its most-data fixed values, plus variants along
+ * one fixed axis at a time for the page's selector) with their ridges; the hurts scan at the
+ * sample map's epoch; coverage and plan when given; headline findings and the warnings a
+ * reader needs. Kinds the sweep cannot support are listed with the reason.
+ */
+export function buildReport(opts: BuildReportOptions): ReportModel {
+  const { table } = opts;
+  const metric = opts.metric ?? defaultMetric(table);
+  const o = { metric, perAxis: opts.perAxis ?? 5, boot: opts.boot ?? 400, seed: opts.seed ?? 1, onStep: opts.onStep };
+  const maps: MapSection[] = [];
+  const skipped: ReportModel['skipped'] = [];
+  for (const kind of KINDS) {
+    const why = unsupported(table, kind);
+    if (why) {
+      skipped.push({ kind, reason: why });
+      continue;
+    }
+    const sec = mapSection(table, kind, o);
+    if (sec) maps.push(sec);
+    else skipped.push({ kind, reason: msg.skipNoCells });
+  }
+
+  // More data hurts: along train size at every width and noise, at the epoch the sample map uses.
+  let hurts: HurtsResult | null = null;
+  if (distinct(table.train_size).length >= 3) {
+    const sample = maps.find((m) => m.kind === 'sample');
+    const epochs = sample ? sample.variants[sample.main].map.fixed.epochs : Math.max(...distinct(table.epochs));
+    const at: Record<string, number | string> = typeof epochs === 'number' ? { epochs } : {};
+    const cells = buildCells(table, { metric, ...(typeof epochs === 'number' ? { epochs: [epochs] } : {}) });
+    hurts = findHurts(cells, { at, boot: o.boot, seed: o.seed });
+  }
+
+  const coverage = opts.coverage ? coverageSummary(opts.coverage) : null;
+  const plan = opts.plan ? planSummary(opts.plan) : null;
+  const findings = headlineFindings({ maps, hurts, coverage, plan });
+
+  const cautions: string[] = [];
+  for (const sec of maps) {
+    const main = sec.variants[sec.main];
+    cautions.push(...main.cautions);
+    if (main.map.picked.length) cautions.push(msg.picked(sec.kind, main.map.picked.map((k) => `${k} ${main.map.fixed[k]}`).join(', ')));
+  }
+  const f = facts(table, opts, metric);
+  if (f.seeds.perCellMin === 1) cautions.push(msg.oneSeed);
+  const first = maps[0]?.variants[maps[0].main]?.map;
+  if (first) cautions.push(msg.interpolated(first.method, formatNumber(first.loo.rmse)));
+  if (hurts && (hurts.slices ?? 0) > 1) cautions.push(msg.hurtsMultiple(hurts.slices ?? 0, formatNumber(hurts.alpha ?? 0.05)));
+
+  return { facts: f, findings, cautions, maps, skipped, hurts: hurts ? [hurts] : [], coverage, plan };
+}

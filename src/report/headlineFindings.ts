@@ -1,0 +1,149 @@
+import type { HurtsResult } from '../analysis/Hurts.js';
+import type { RidgeRow } from '../analysis/Ridge.js';
+import { report as msg } from '../messages.js';
+import { formatFixed, formatNumber } from './formatNumber.js';
+import type { CoverageSummary, MapSection, MapVariant, PlanSummary } from './ReportModel.js';
+
+/** Prominence (in pooled standard errors) under which a peak is "inside seed noise" (about a one-sided 95% z level; common practice). */
+export const SIGNIFICANT_SE = 2;
+
+export interface FindingsInput {
+  maps: MapSection[];
+  /** Hurts scan of the sweep (usually at its last common epoch), null when there is no sample axis. */
+  hurts: HurtsResult | null;
+  coverage: CoverageSummary | null;
+  plan: PlanSummary | null;
+}
+
+const fmt = (v: number | null | undefined) => formatNumber(v);
+
+/** The fixed values of a map without the one a sentence already names. */
+function fixedWithout(fixed: Record<string, number | string>, drop: string[] = []): string {
+  const f: Record<string, number | string> = {};
+  for (const [k, v] of Object.entries(fixed)) if (!drop.includes(k)) f[k] = v;
+  return formatFixed(f);
+}
+
+const peaked = (rows: RidgeRow[]) => rows.filter((r) => r.peak !== null).sort((a, b) => a.y - b.y);
+
+/** The highest-y ridge row with a peak: for the model map, the latest epoch. */
+function lastPeak(v: MapVariant): RidgeRow | null {
+  const rows = peaked(v.ridge?.rows ?? []);
+  return rows.length ? rows[rows.length - 1] : null;
+}
+
+function modelFindings(sec: MapSection): string[] {
+  const out: string[] = [];
+  const main = sec.variants[sec.main];
+  if (!main) return out;
+  const rows = main.ridge?.rows ?? [];
+  const withPeak = peaked(rows);
+  const fixed = fixedWithout(main.map.fixed);
+  if (withPeak.length === 0) {
+    out.push(msg.modelNoPeak(fixed));
+  } else {
+    const last = withPeak[withPeak.length - 1];
+    const p = last.peak!;
+    const n = main.map.fixed.train_size;
+    const ratio = typeof n === 'number' && n > 0 ? formatNumber(p.x / n, 2) : null;
+    out.push(msg.modelPeak(sec.y, fmt(last.y), fixed, sec.x, fmt(p.x), fmt(p.low), fmt(p.high), ratio, last.threshold === null ? null : fmt(last.threshold)));
+    if (withPeak.length >= 2) {
+      const first = withPeak[0];
+      const noneBefore = rows.some((r) => r.y < first.y && r.peak === null);
+      out.push(msg.modelPeakMoves(sec.y, fmt(first.y), sec.x, fmt(first.peak!.x), fmt(p.x), fmt(last.y), noneBefore));
+    }
+  }
+  // Label noise: the variants that differ from the main one only in label_noise.
+  const others = Object.entries(main.map.fixed).filter(([k]) => k !== 'label_noise');
+  const byNoise = sec.variants
+    .filter((v) => typeof v.map.fixed.label_noise === 'number' && others.every(([k, val]) => v.map.fixed[k] === val))
+    .sort((a, b) => (a.map.fixed.label_noise as number) - (b.map.fixed.label_noise as number));
+  if (byNoise.length >= 2) {
+    const heights = byNoise.map((v) => {
+      const r = lastPeak(v);
+      return { noise: v.map.fixed.label_noise as number, prominence: r?.peak?.prominence ?? 0, row: r };
+    });
+    const parts = heights
+      .map((h) => `noise ${fmt(h.noise)}: ${h.row ? `${fmt(h.row.peak!.prominence)} at ${sec.x} ${fmt(h.row.peak!.x)}` : 'no peak'}`)
+      .join('; ');
+    const diffs = heights.slice(1).map((h, i) => h.prominence - heights[i].prominence);
+    const trend = diffs.every((d) => d > 0) ? 'grows' : diffs.every((d) => d < 0) ? 'shrinks' : 'mixed';
+    out.push(msg.noiseEffect(parts, trend));
+  }
+  return out;
+}
+
+function sampleFindings(sec: MapSection): string[] {
+  const main = sec.variants[sec.main];
+  if (!main) return [];
+  const withPeak = peaked(main.ridge?.rows ?? []);
+  if (withPeak.length === 0) return [msg.sampleNoPeak(fixedWithout(main.map.fixed))];
+  // Rows are widths: say where the peak sits relative to each width (a few, spread out).
+  const pick = withPeak.length <= 3 ? withPeak : [withPeak[0], withPeak[Math.floor(withPeak.length / 2)], withPeak[withPeak.length - 1]];
+  const parts = pick
+    .map((r) => `${sec.x} ${fmt(r.peak!.x)} for ${sec.y} ${fmt(r.y)}${sec.y === 'width' ? ` (${formatNumber(r.peak!.x / r.y, 2)} × the width)` : ''}`)
+    .join(', ');
+  return [msg.samplePeaks(parts, fixedWithout(main.map.fixed))];
+}
+
+function epochFindings(sec: MapSection): string[] {
+  const main = sec.variants[sec.main];
+  if (!main) return [];
+  const withPeak = peaked(main.ridge?.rows ?? []);
+  if (withPeak.length === 0) return [msg.epochNoPeak(fixedWithout(main.map.fixed))];
+  const pick = withPeak.length <= 3 ? withPeak : [withPeak[0], withPeak[withPeak.length - 1]];
+  const parts = pick.map((r) => `${sec.y} ${fmt(r.y)} (peak at epoch ${fmt(r.peak!.x)}, height ${fmt(r.peak!.prominence)})`).join(', ');
+  return [msg.epochPeak(parts, fixedWithout(main.map.fixed))];
+}
+
+function hurtsFindings(h: HurtsResult): string[] {
+  const segs = h.segments;
+  if (segs.length === 0) return [msg.hurtsNone(h.slices ?? 0, formatFixed(h.fixed) || 'any epoch')];
+  const s = segs[0];
+  const w = s.fixed.width;
+  const ratio = typeof w === 'number' && w > 0 ? formatNumber(s.peak / w, 2) : null;
+  const slicesWith = new Set(segs.map((x) => JSON.stringify(x.fixed))).size;
+  const p = s.p < 1e-4 ? '< 1e-4' : `= ${formatNumber(s.p, 2)}`;
+  return [msg.hurts(formatFixed(s.fixed), fmt(s.onset), fmt(s.peak), fmt(s.rise), p, ratio, s.recovery === null ? null : fmt(s.recovery), slicesWith - 1)];
+}
+
+/** Variant-level warnings: peaks inside seed noise, intervals from curve noise. */
+export function variantCautions(v: MapVariant, kind: string): string[] {
+  const out: string[] = [];
+  const rows = v.ridge?.rows ?? [];
+  const y = v.map.y.name;
+  const list = (rs: RidgeRow[]) => (rs.length <= 4 ? rs.map((r) => fmt(r.y)).join(', ') : `${fmt(rs[0].y)}, ${fmt(rs[1].y)}, … ${fmt(rs[rs.length - 1].y)} (${rs.length} rows)`);
+  const weak = rows.filter((r) => r.peak !== null && !(r.peak.prominenceSe >= SIGNIFICANT_SE));
+  if (weak.length) out.push(msg.weakPeaks(kind, v.label, y, list(weak)));
+  const curve = rows.filter((r) => r.peak !== null && r.noiseFrom === 'curve');
+  if (curve.length) out.push(msg.curveNoise(kind, v.label, y, list(curve)));
+  return out;
+}
+
+/** Headline findings in plain sentences, from the report's analyses (nothing else is computed here). */
+export function headlineFindings(input: FindingsInput): string[] {
+  const out: string[] = [];
+  const byKind = (k: string) => input.maps.find((m) => m.kind === k);
+  const model = byKind('model');
+  if (model) out.push(...modelFindings(model));
+  const sample = byKind('sample');
+  if (sample) out.push(...sampleFindings(sample));
+  if (input.hurts) out.push(...hurtsFindings(input.hurts));
+  const epoch = byKind('epoch');
+  if (epoch) out.push(...epochFindings(epoch));
+  if (input.coverage) {
+    const c = input.coverage.counts;
+    const total = c.complete + c.partial + c.missing + c.diverged;
+    out.push(c.complete === total ? msg.coverageComplete(total) : msg.coverage(c.missing, c.partial, c.diverged, c.complete, total));
+  } else if (model) {
+    const m = model.variants[model.main]?.map;
+    if (m && m.missing.length) out.push(msg.mapGaps('model', m.missing.length, m.missing.length + m.cells.length));
+  }
+  if (input.plan && input.plan.runs.length) {
+    const counts = new Map<string, number>();
+    for (const r of input.plan.runs) counts.set(r.reason, (counts.get(r.reason) ?? 0) + 1);
+    const reasons = [...counts].map(([r, n]) => `${n} ${r}`).join(', ');
+    out.push(msg.plan(input.plan.runs.length, fmt(input.plan.cost), reasons));
+  }
+  return out;
+}
