@@ -59,11 +59,25 @@ export interface SweepMap {
   picked: string[];
   method: MethodName;
   /** Leave-one-out root-mean-square error of the method used and of every method tried. */
-  loo: { method: MethodName; rmse: number; tried: Partial<Record<MethodName, number>> };
+  loo: {
+    method: MethodName;
+    rmse: number;
+    tried: Partial<Record<MethodName, number>>;
+    /** Cells the RMSEs average over: those where every tried method could predict without the cell. */
+    points?: number;
+    /** Methods not tried or not usable, with the reason. */
+    skipped?: Partial<Record<MethodName, string>>;
+  };
   cells: MapCell[];
   /** Grid points (x value × y value) with no finite data. */
   missing: { x: number; y: number }[];
   /** Grid points where at least one seed diverged. */
   diverged: { x: number; y: number; count: number }[];
   raster: Raster;
+  /** Things a reader should know (dropped cells, thinned epochs, heavy tails, fit details). */
+  notes?: string[];
+  /** Fitted parameters of the method used (e.g. Gaussian-process length-scales in normalised units). */
+  fit?: Record<string, number>;
+  /** The epochs every run was aligned to (when epochs is a map axis or fixed). */
+  alignedEpochs?: number[];
 }

@@ -1,0 +1,152 @@
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Argv } from 'yargs';
+import type { CommandSpec } from './CommandSpec.js';
+import { parseAt } from './parseAt.js';
+import { mapMessages as msg } from '../messages.js';
+import { usageError } from '../UserError.js';
+import type { Metric } from '../store/RowTable.js';
+import type { AxisScale, MapKind, MethodName, SweepMap } from '../grid/SweepMap.js';
+
+interface MapArgs {
+  kind: MapKind;
+  x?: string;
+  y?: string;
+  at?: string[];
+  metric?: Metric;
+  method: MethodName | 'auto';
+  raster: string;
+  scale?: string[];
+  store: string;
+  out: string;
+  format: string;
+  ridge: boolean;
+}
+
+/**
+ * Output formats this command writes. Images (png, svg, pdf) join this list together with the
+ * call to writeMapImages from the render stage; until then only the JSON map is written.
+ */
+const FORMATS = ['json'] as const;
+type Format = (typeof FORMATS)[number];
+
+function parseFormats(text: string): Format[] {
+  const list = String(text).split(',').map((s) => s.trim()).filter(Boolean);
+  for (const f of list) if (!(FORMATS as readonly string[]).includes(f)) throw usageError(msg.badFormat(f, FORMATS));
+  if (list.length === 0) throw usageError(msg.badFormat(String(text), FORMATS));
+  return [...new Set(list)] as Format[];
+}
+
+function parseRaster(text: string): { nx: number; ny: number } {
+  const m = /^(\d+)(?:[x×](\d+))?$/.exec(String(text).trim());
+  const nx = m ? Number(m[1]) : NaN;
+  const ny = m ? Number(m[2] ?? m[1]) : NaN;
+  if (!(nx >= 2 && nx <= 2048 && ny >= 2 && ny <= 2048)) throw usageError(msg.badRaster(String(text)));
+  return { nx, ny };
+}
+
+function parseScales(values: string[] | undefined): Record<string, AxisScale> {
+  const out: Record<string, AxisScale> = {};
+  for (const raw of values ?? []) {
+    for (const text of String(raw).split(',')) {
+      const [name, scale] = text.split('=').map((s) => s.trim());
+      if (!name || (scale !== 'log2' && scale !== 'linear')) throw usageError(msg.badScale(text));
+      out[name] = scale;
+    }
+  }
+  return out;
+}
+
+const fmt = (v: number) => (Number.isFinite(v) ? (Math.abs(v) >= 1000 || Number.isInteger(v) ? String(v) : v.toPrecision(3)) : 'n/a');
+
+/** Human summary of a map: axes, fixed values (and which were picked), method and LOO error, cell counts. */
+function summary(map: SweepMap, ridgeRows: { total: number; withPeak: number } | null, files: string[]): string[] {
+  const axis = (a: SweepMap['x']) => `${a.name} (${a.scale}, ${a.values.length} value${a.values.length === 1 ? '' : 's'} ${fmt(a.values[0])}..${fmt(a.values[a.values.length - 1])})`;
+  const lines = [`map ${map.kind}: ${map.metric} over ${axis(map.x)} × ${axis(map.y)}`];
+  const fixed = Object.entries(map.fixed).map(([k, v]) => `${k}=${v === '' ? '""' : v}${map.picked.includes(k) ? ' (picked: most data)' : ''}`);
+  lines.push(`fixed: ${fixed.join(', ') || 'nothing'}`);
+  const tried = Object.entries(map.loo.tried).map(([m, r]) => `${m} ${fmt(r)}`).join(', ');
+  lines.push(`method: ${map.method}, leave-one-out RMSE ${fmt(map.loo.rmse)} over ${map.loo.points ?? 0} cells (tried: ${tried})`);
+  for (const why of Object.values(map.loo.skipped ?? {})) lines.push(`  ${why}`);
+  const measured = map.cells.filter((c) => c.cell.stats.n > 0);
+  const seeds = measured.map((c) => c.cell.stats.n).sort((a, b) => a - b);
+  const grid = map.x.values.length * map.y.values.length;
+  lines.push(`cells: ${measured.length} measured, ${map.missing.length} missing, ${map.diverged.length} with diverged runs (grid ${map.x.values.length}×${map.y.values.length} = ${grid})`);
+  if (seeds.length) lines.push(`seeds per cell: ${seeds[0]}..${seeds[seeds.length - 1]} (median ${seeds[Math.floor(seeds.length / 2)]})`);
+  const interp = map.raster.origin.reduce((s, o) => s + (o === 1 ? 1 : 0), 0);
+  if (interp > 0) lines.push(`raster: ${map.raster.nx}×${map.raster.ny}, ${((100 * interp) / map.raster.origin.length).toFixed(1)}% of it interpolated over missing cells (origin codes in the file)`);
+  if (ridgeRows) lines.push(`ridge: a peak in ${ridgeRows.withPeak} of ${ridgeRows.total} ${map.y.name} rows (datlas ridge for details)`);
+  for (const note of map.notes ?? []) lines.push(`note: ${note}`);
+  for (const f of files) lines.push(msg.wroteMap(f));
+  return lines;
+}
+
+export const command: CommandSpec<MapArgs> = {
+  usage: 'map',
+  describe: 'a map of test error over two axes (others fixed), interpolated, with leave-one-out error',
+  example: ['map --kind model --at label_noise=0.2 --out maps', 'width × epochs map at 20% label noise, written to maps/map-model.json'],
+  builder: (y: Argv) =>
+    y
+      .option('kind', { choices: ['model', 'sample', 'epoch'], default: 'model', describe: 'model: width × epochs; sample: train_size × width; epoch: epochs × train_size' })
+      .option('x', { type: 'string', describe: 'x axis instead of the kind\'s (width, epochs, train_size, label_noise)' })
+      .option('y', { type: 'string', describe: 'y axis instead of the kind\'s' })
+      .option('at', { type: 'string', array: true, describe: 'fix an axis or the condition: axis=value (repeat, or comma-separate); unset ones take the value with most data' })
+      .option('metric', { choices: ['test_error', 'test_loss', 'train_error', 'train_loss'], describe: 'value mapped (default test_error, or test_loss when the store has no error)' })
+      .option('method', { choices: ['auto', 'linear', 'thin-plate', 'gp'], default: 'auto', describe: 'interpolation; auto = lowest leave-one-out error' })
+      .option('raster', { type: 'string', default: '256x256', describe: 'raster size NXxNY over the transformed plane' })
+      .option('scale', { type: 'string', array: true, describe: 'axis=log2|linear, overriding the detected axis scale' })
+      .option('ridge', { type: 'boolean', default: true, describe: 'also locate the double-descent ridge and put it in the file (--no-ridge skips)' })
+      .option('store', { type: 'string', default: 'atlas-store', describe: 'store directory' })
+      .option('out', { type: 'string', default: '.', describe: 'directory the map files go to' })
+      .option('format', { type: 'string', default: 'json', describe: `comma-separated output formats; available now: ${FORMATS.join(', ')} (images come with the render stage)` }),
+  async run(args) {
+    const formats = parseFormats(args.format);
+    const raster = parseRaster(args.raster);
+    const at = parseAt(args.at);
+    const scales = parseScales(args.scale);
+    const { readStore } = await import('../store/readStore.js');
+    const { buildMap } = await import('../grid/buildMap.js');
+    const { mapToJson } = await import('../grid/mapJson.js');
+    const { table } = await readStore(args.store);
+    const map = buildMap(table, { kind: args.kind, x: args.x, y: args.y, at, metric: args.metric, method: args.method, raster, scales });
+
+    let ridge = null;
+    if (args.ridge) {
+      const { findRidge } = await import('../analysis/findRidge.js');
+      ridge = findRidge(map);
+    }
+
+    mkdirSync(args.out, { recursive: true });
+    const base = map.kind === 'custom' ? `map-${map.x.name}-${map.y.name}` : `map-${map.kind}`;
+    const files: string[] = [];
+    if (formats.includes('json')) {
+      const path = join(args.out, `${base}.json`);
+      writeFileSync(path, `${mapToJson(map, { ridge, store: args.store })}\n`);
+      files.push(path);
+    }
+
+    const ridgeRows = ridge ? { total: ridge.rows.length, withPeak: ridge.rows.filter((r) => r.peak).length } : null;
+    if (args.json) {
+      const measured = map.cells.filter((c) => c.cell.stats.n > 0).map((c) => c.cell.stats.n).sort((a, b) => a - b);
+      const out = {
+        map: map.kind,
+        x: { name: map.x.name, scale: map.x.scale, values: map.x.values },
+        y: { name: map.y.name, scale: map.y.scale, values: map.y.values },
+        metric: map.metric,
+        fixed: map.fixed,
+        picked: map.picked,
+        method: map.method,
+        loo: map.loo,
+        cells: { measured: measured.length, missing: map.missing.length, diverged: map.diverged.length },
+        seeds: measured.length ? { min: measured[0], median: measured[Math.floor(measured.length / 2)], max: measured[measured.length - 1] } : null,
+        ridge: ridgeRows,
+        notes: map.notes ?? [],
+        files,
+      };
+      process.stdout.write(`${JSON.stringify(out, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v))}\n`);
+    } else {
+      process.stdout.write(`${summary(map, ridgeRows, files).join('\n')}\n`);
+    }
+    return 0;
+  },
+};

@@ -1,0 +1,316 @@
+import type { Cell } from '../cells/Cell.js';
+import { buildCells } from '../cells/buildCells.js';
+import { selectRows } from '../cells/selectRows.js';
+import { mapMessages as msg } from '../messages.js';
+import type { Metric, RowTable } from '../store/RowTable.js';
+import { AXES, defaultMetric } from '../store/RowTable.js';
+import { UserError, usageError } from '../UserError.js';
+import { cellEdges, detectScale, fromScale, toScale } from './axisScale.js';
+import { gaussianProcessField } from './gaussianProcessField.js';
+import type { FittedField, ScatterPoints } from './Interpolator.js';
+import { lowerBound } from './Interpolator.js';
+import { linearField } from './linearField.js';
+import type { AxisScale, MapAxis, MapCell, MapKind, MethodName, SweepMap } from './SweepMap.js';
+import { MAP_AXES, ORIGIN_INTERPOLATED, ORIGIN_MEASURED, ORIGIN_OUTSIDE } from './SweepMap.js';
+import { thinPlateField } from './thinPlateField.js';
+
+export interface MapOptions {
+  kind?: MapKind;
+  x?: string;
+  y?: string;
+  at?: Record<string, number | string>;
+  metric?: Metric;
+  method?: MethodName | 'auto';
+  raster?: { nx: number; ny: number };
+  scales?: Record<string, AxisScale>;
+  /** When epochs is a map axis: align every run to these epochs (default: chosen from the logged ones). */
+  epochs?: number[];
+  /** At most this many epochs on an epochs axis before the logged ones are thinned (default 100). */
+  maxEpochs?: number;
+}
+
+export const DEFAULT_RASTER = { nx: 256, ny: 256 };
+/** `auto` tries the Gaussian process up to this many cells (its cost grows as n³). */
+export const GP_AUTO_MAX = 2500;
+export const METHODS: readonly MethodName[] = ['linear', 'thin-plate', 'gp'];
+
+/** Names --at may fix: the four axes and the condition. */
+const FIXABLE = [...AXES, 'condition'] as const;
+/** The order fixed values are picked in: each pick counts only rows matching the earlier ones. */
+const PICK_ORDER = ['condition', 'label_noise', 'train_size', 'width', 'epochs'] as const;
+
+const sameNumber = (a: number, b: number) => a === b || Math.abs(a - b) <= 1e-9 * Math.max(Math.abs(a), Math.abs(b));
+
+function fitMethod(method: MethodName, p: ScatterPoints): FittedField {
+  if (method === 'linear') return linearField(p);
+  if (method === 'thin-plate') return thinPlateField(p);
+  return gaussianProcessField(p);
+}
+
+/** Epochs an epochs axis uses: all logged ones, or (too many) those most runs logged, or a log-spaced subset. */
+function chooseEpochs(table: RowTable, rows: number[], max: number, notes: string[]): number[] {
+  const perEpoch = new Map<number, Set<string>>();
+  const runs = new Set<string>();
+  for (const i of rows) {
+    const e = table.epochs[i];
+    if (!Number.isFinite(e)) continue;
+    const id = `${table.run[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}\u0000${table.seed[i]}`;
+    runs.add(id);
+    let s = perEpoch.get(e);
+    if (!s) perEpoch.set(e, (s = new Set()));
+    s.add(id);
+  }
+  const all = [...perEpoch.keys()].sort((a, b) => a - b);
+  if (all.length <= max) return all;
+  const common = all.filter((e) => perEpoch.get(e)!.size * 2 >= runs.size);
+  let used: number[];
+  if (common.length >= 2 && common.length <= max) used = common;
+  else {
+    // Nearest logged epoch to each of `max` targets evenly spaced in log epoch (linear when epoch 0 dominates).
+    const pos = all.filter((e) => e > 0);
+    const lo = Math.log(pos[0]);
+    const hi = Math.log(pos[pos.length - 1]);
+    const pick = new Set<number>();
+    if (all[0] <= 0) pick.add(all[0]);
+    for (let k = 0; k < max; k++) {
+      const t = Math.exp(lo + ((hi - lo) * k) / (max - 1));
+      const j = lowerBound(pos, t);
+      const a = pos[Math.max(0, j - 1)];
+      const b = pos[Math.min(pos.length - 1, j)];
+      pick.add(Math.abs(Math.log(a / t)) <= Math.abs(Math.log(b / t)) ? a : b);
+    }
+    used = [...pick].sort((a, b) => a - b);
+  }
+  notes.push(msg.epochsThinned(all.length, used.length));
+  return used;
+}
+
+function evenly(n: number): Float64Array {
+  return Float64Array.from({ length: n }, (_, k) => (n === 1 ? 0 : k / (n - 1)));
+}
+
+/**
+ * A map: the metric over two axes with every other axis (and the condition) fixed, from the
+ * seed-aggregated cells, interpolated on a regular raster in the transformed plane.
+ * Fixed values not given in `at` are picked — the value with the most rows, ties to the largest —
+ * and listed in `picked`. `auto` picks the method with the lowest leave-one-out RMSE.
+ */
+export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
+  const kindAxes = MAP_AXES[opts.kind ?? 'model'];
+  const xName = opts.x ?? kindAxes.x;
+  const yName = opts.y ?? kindAxes.y;
+  for (const n of [xName, yName]) if (!(AXES as readonly string[]).includes(n)) throw usageError(msg.unknownAxis(n, AXES));
+  if (xName === yName) throw usageError(msg.sameAxes(xName));
+  const kind: SweepMap['kind'] =
+    xName === kindAxes.x && yName === kindAxes.y ? (opts.kind ?? 'model') : ((Object.keys(MAP_AXES) as MapKind[]).find((k) => MAP_AXES[k].x === xName && MAP_AXES[k].y === yName) ?? 'custom');
+  const metric = opts.metric ?? defaultMetric(table);
+  const at = opts.at ?? {};
+  for (const name of Object.keys(at)) {
+    if (!(FIXABLE as readonly string[]).includes(name)) throw usageError(msg.atUnknown(name, FIXABLE));
+    if (name === xName || name === yName) throw usageError(msg.atOnMapAxis(name));
+  }
+  const notes: string[] = [];
+
+  // Rows that carry information: a finite metric, or a diverged mark.
+  const metricCol = table[metric];
+  let rows: number[] = [];
+  for (let i = 0; i < table.length; i++) if (Number.isFinite(metricCol[i]) || table.status[i] === 'diverged') rows.push(i);
+  if (rows.length === 0) throw new UserError(msg.noMetric(metric));
+
+  const fixed: Record<string, number | string> = {};
+  const picked: string[] = [];
+  const hasConditions = rows.some((i) => table.condition[i] !== '');
+  for (const name of PICK_ORDER) {
+    if (name === xName || name === yName) continue;
+    if (name === 'condition' && !hasConditions && at.condition === undefined) continue;
+    const valueOf = (i: number): number | string => (name === 'condition' ? table.condition[i] : table[name][i]);
+    const given = at[name];
+    let value: number | string;
+    if (given !== undefined) {
+      if (name === 'condition') value = String(given);
+      else {
+        value = typeof given === 'number' ? given : Number(given);
+        if (!Number.isFinite(value)) throw usageError(msg.atNotNumber(name, String(given)));
+      }
+      // Epochs need not be logged exactly: runs are aligned to it along their own curves.
+      if (name !== 'epochs' && !rows.some((i) => (typeof value === 'number' ? sameNumber(valueOf(i) as number, value) : valueOf(i) === value))) {
+        const available = [...new Set(rows.map(valueOf))].sort((a, b) => (typeof a === 'number' && typeof b === 'number' ? a - b : String(a) < String(b) ? -1 : 1));
+        throw new UserError(msg.atValueAbsent(name, value, available));
+      }
+    } else {
+      const counts = new Map<number | string, number>();
+      for (const i of rows) counts.set(valueOf(i), (counts.get(valueOf(i)) ?? 0) + 1);
+      let best: number | string | undefined;
+      let bestCount = -1;
+      for (const [v, c] of counts) {
+        const better =
+          c > bestCount ||
+          (c === bestCount && (typeof v === 'number' ? (v as number) > (best as number) : String(v) < String(best)));
+        if (better && !(typeof v === 'number' && !Number.isFinite(v))) {
+          best = v;
+          bestCount = c;
+        }
+      }
+      if (best === undefined) throw new UserError(msg.noMetric(metric));
+      value = best;
+      picked.push(name);
+    }
+    fixed[name] = value;
+    if (name !== 'epochs') {
+      const v = value;
+      rows = rows.filter((i) => (typeof v === 'number' ? sameNumber(valueOf(i) as number, v) : valueOf(i) === v));
+    }
+  }
+
+  const epochTargets =
+    fixed.epochs !== undefined ? [fixed.epochs as number] : xName === 'epochs' || yName === 'epochs' ? (opts.epochs ?? chooseEpochs(table, rows, opts.maxEpochs ?? 100, notes)) : undefined;
+  const cells = buildCells(selectRows(table, rows), { metric, epochs: epochTargets });
+  const fixedText = Object.entries(fixed).map(([k, v]) => `${k}=${v}`).join(', ') || 'the whole sweep';
+  if (cells.length === 0) throw new UserError(msg.noCells(fixedText));
+
+  // Axes and their scales; a log2 axis cannot hold values <= 0 (epoch 0 is the usual case).
+  const coord = (c: Cell, name: string) => c[name as keyof Cell] as number;
+  const axisScale = (name: string): AxisScale => {
+    if (opts.scales?.[name]) return opts.scales[name];
+    const vals = [...new Set(cells.map((c) => coord(c, name)))].sort((a, b) => a - b);
+    const pos = vals.filter((v) => v > 0);
+    return pos.length < vals.length && pos.length >= 3 && detectScale(pos) === 'log2' && name === 'epochs' ? 'log2' : detectScale(vals);
+  };
+  const xScale = axisScale(xName);
+  const yScale = axisScale(yName);
+  let kept = cells;
+  for (const [name, scale] of [[xName, xScale], [yName, yScale]] as const) {
+    if (scale !== 'log2') continue;
+    const before = kept.length;
+    kept = kept.filter((c) => coord(c, name) > 0);
+    if (kept.length < before) notes.push(msg.droppedNonPositive(name, before - kept.length));
+  }
+  const makeAxis = (name: string, scale: AxisScale): MapAxis => {
+    const values = [...new Set(kept.map((c) => coord(c, name)))].sort((a, b) => a - b);
+    return { name, scale, values, edges: cellEdges(scale, values) };
+  };
+  const xAxis = makeAxis(xName, xScale);
+  const yAxis = makeAxis(yName, yScale);
+
+  const mapCells: MapCell[] = kept.map((cell) => ({ x: coord(cell, xName), y: coord(cell, yName), cell }));
+  const measured = mapCells.filter((m) => m.cell.stats.n > 0);
+  const key = (x: number, y: number) => `${x}\u0000${y}`;
+  const measuredKeys = new Set(measured.map((m) => key(m.x, m.y)));
+  const missing: { x: number; y: number }[] = [];
+  for (const y of yAxis.values) for (const x of xAxis.values) if (!measuredKeys.has(key(x, y))) missing.push({ x, y });
+  const diverged = mapCells.filter((m) => m.cell.diverged > 0).map((m) => ({ x: m.x, y: m.y, count: m.cell.diverged }));
+
+  // Normalised transformed coordinates: each axis's [min, max] → [0, 1].
+  const span = (a: MapAxis) => {
+    const lo = toScale(a.scale, a.values[0]);
+    const hi = toScale(a.scale, a.values[a.values.length - 1]);
+    return { lo, hi, norm: (v: number) => (hi > lo ? (toScale(a.scale, v) - lo) / (hi - lo) : 0) };
+  };
+  const sx = span(xAxis);
+  const sy = span(yAxis);
+  const xVaries = xAxis.values.length > 1;
+  const yVaries = yAxis.values.length > 1;
+  const dims: 1 | 2 = xVaries && yVaries ? 2 : 1;
+  const n = measured.length;
+  if (n < 2 || (!xVaries && !yVaries)) throw new UserError(msg.tooFewCells(n, xName, yName));
+  // In one dimension the varying axis plays x for the interpolators.
+  const u = (m: MapCell) => (dims === 2 || xVaries ? sx.norm(m.x) : sy.norm(m.y));
+  const w = (m: MapCell) => (dims === 2 ? sy.norm(m.y) : 0);
+  const pooledVar = (() => {
+    const v = measured.filter((m) => m.cell.stats.n >= 2).map((m) => m.cell.stats.sd ** 2).sort((a, b) => a - b);
+    return v.length ? v[Math.floor(v.length / 2)] : NaN;
+  })();
+  const points: ScatterPoints = {
+    dims,
+    x: Float64Array.from(measured, u),
+    y: Float64Array.from(measured, w),
+    v: Float64Array.from(measured, (m) => m.cell.stats.mean),
+    // Noise of a cell mean: its squared standard error; a one-seed cell takes the median seed variance.
+    noise: Number.isFinite(pooledVar)
+      ? Float64Array.from(measured, (m) => (m.cell.stats.n >= 2 ? m.cell.stats.se ** 2 : pooledVar / Math.max(1, m.cell.stats.n)))
+      : null,
+  };
+
+  // Fit the method(s); auto compares leave-one-out RMSE on the cells every tried method can predict.
+  const requested = opts.method ?? 'auto';
+  const candidates: MethodName[] = requested === 'auto' ? [...METHODS] : [requested];
+  const fits = new Map<MethodName, FittedField>();
+  const skipped: Partial<Record<MethodName, string>> = {};
+  for (const m of candidates) {
+    if (requested === 'auto' && m === 'gp' && n > GP_AUTO_MAX) {
+      skipped.gp = msg.gpSkipped(n, GP_AUTO_MAX);
+      continue;
+    }
+    try {
+      fits.set(m, fitMethod(m, points));
+    } catch (err) {
+      const why = (err as Error).message;
+      if (requested !== 'auto') throw new UserError(msg.methodFailed(m, why));
+      skipped[m] = msg.triedFailed(m, why);
+    }
+  }
+  if (fits.size === 0) throw new UserError(msg.noMethodWorked(Object.values(skipped).join('; ')));
+  const common: number[] = [];
+  for (let i = 0; i < n; i++) if ([...fits.values()].every((f) => Number.isFinite(f.loo[i]))) common.push(i);
+  const tried: Partial<Record<MethodName, number>> = {};
+  for (const [m, f] of fits) {
+    let s = 0;
+    for (const i of common) s += (f.loo[i] - points.v[i]) ** 2;
+    tried[m] = common.length ? Math.sqrt(s / common.length) : NaN;
+  }
+  let method = [...fits.keys()][0];
+  for (const m of fits.keys()) if ((tried[m] ?? Infinity) < (tried[method] ?? Infinity)) method = m;
+  const fitted = fits.get(method)!;
+  notes.push(...fitted.notes);
+
+  // Raster in the normalised plane; a single-valued axis gets one raster line.
+  const nx = xVaries ? (opts.raster?.nx ?? DEFAULT_RASTER.nx) : 1;
+  const ny = yVaries ? (opts.raster?.ny ?? DEFAULT_RASTER.ny) : 1;
+  const gxN = evenly(nx);
+  const gyN = evenly(ny);
+  let value: Float64Array;
+  let sd: Float64Array | null;
+  if (dims === 2) ({ value, sd } = fitted.grid(gxN, gyN));
+  else ({ value, sd } = fitted.grid(xVaries ? gxN : gyN, new Float64Array(1))); // nx × 1 or 1 × ny: same row-major order
+  const xs = Array.from(gxN, (t) => fromScale(xAxis.scale, sx.lo + t * (sx.hi - sx.lo)));
+  const ys = Array.from(gyN, (t) => fromScale(yAxis.scale, sy.lo + t * (sy.hi - sy.lo)));
+  const origin = new Uint8Array(nx * ny);
+  const xi = xs.map((x) => Math.min(xAxis.values.length - 1, Math.max(0, lowerBound(xAxis.edges, x) - 1)));
+  const yi = ys.map((y) => Math.min(yAxis.values.length - 1, Math.max(0, lowerBound(yAxis.edges, y) - 1)));
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      const k = j * nx + i;
+      origin[k] = measuredKeys.has(key(xAxis.values[xi[i]], yAxis.values[yi[j]]))
+        ? ORIGIN_MEASURED
+        : Number.isFinite(value[k])
+          ? ORIGIN_INTERPOLATED
+          : ORIGIN_OUTSIDE;
+    }
+  }
+
+  const oneSeed = measured.filter((m) => m.cell.stats.n === 1).length;
+  if (oneSeed > 0) notes.push(msg.oneSeedCells(oneSeed));
+  const heavy = measured.filter((m) => {
+    const { n: k, mean, median } = m.cell.stats;
+    return k >= 3 && mean > 0 && median > 0 && (mean > 2 * median || median > 2 * mean);
+  }).length;
+  if (heavy > 0) notes.push(msg.heavyTails(heavy));
+
+  return {
+    kind,
+    x: xAxis,
+    y: yAxis,
+    metric,
+    fixed,
+    picked,
+    method,
+    loo: { method, rmse: tried[method] ?? NaN, tried, points: common.length, ...(Object.keys(skipped).length ? { skipped } : {}) },
+    cells: mapCells,
+    missing,
+    diverged,
+    raster: { nx, ny, xs, ys, value, sd, origin },
+    notes,
+    ...(fitted.params ? { fit: fitted.params } : {}),
+    ...(epochTargets ? { alignedEpochs: epochTargets } : {}),
+  };
+}
