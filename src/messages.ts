@@ -144,8 +144,10 @@ export const analysisText = {
   ridgeOther: (x: string, px: number, prominence: number, z: number) =>
     `    also a smaller peak at ${x} ≈ ${fmtApprox(px)} (${fmtNum(prominence)} above the dip, ${fmtNum(z)} SE)`,
   ridgeNone: (y: string, yv: number) => `${y} ${fmtNum(yv)}: no significant peak`,
-  ridgeInsideNoise: (x: string, cx: number, prominence: number, z: number, min: number) =>
-    ` (a bump of ${fmtNum(prominence)} at ${x} ${fmtNum(cx)} sits inside the noise: ${fmtNum(z)} SE < ${min})`,
+  ridgeInsideNoise: (x: string, cx: number, prominence: number, z: number, min: number, p?: number, alpha?: number) =>
+    z < min
+      ? ` (a bump of ${fmtNum(prominence)} at ${x} ${fmtNum(cx)} sits inside the noise: ${fmtNum(z)} SE < ${min})`
+      : ` (a bump of ${fmtNum(prominence)} at ${x} ${fmtNum(cx)}, ${fmtNum(z)} SE, is no taller than noise makes somewhere along the row: search-wide ${fmtP(p ?? 1)} >= ${alpha})`,
   ridgeCurveNoise: (sd: number) =>
     `    one seed per cell: significance and interval come from the curve's own noise (sd ≈ ${fmtNum(sd)}), not from seeds`,
   ridgeThreshold: (x: string, t: number | null, epsilon: number, ratio: number | null) =>
@@ -153,8 +155,9 @@ export const analysisText = {
       ? `    train error never reaches ${epsilon}: no interpolation threshold in this row`
       : `    interpolation threshold (train error <= ${epsilon}) at ${x} ≈ ${fmtApprox(t)}` + (ratio === null ? '' : `; peak/threshold ${fmtNum(ratio)}`),
   ridgeSummary: (withPeak: number, rows: number) => `${withPeak} of ${rows} rows have a significant peak`,
-  hurtsSegment: (o: { onset: number; peak: number; recovery: number | null; rise: number; p: number; metric: string; last: number }) =>
-    `from n = ${fmtNum(o.onset)} to n = ${fmtNum(o.peak)} extra data raises ${metricName(o.metric)} by ${fmtNum(o.rise)} (${fmtP(o.p)}); ` +
+  hurtsSegment: (o: { onset: number; peak: number; recovery: number | null; rise: number; p: number; metric: string; last: number; pSearch?: number }) =>
+    `from n = ${fmtNum(o.onset)} to n = ${fmtNum(o.peak)} extra data raises ${metricName(o.metric)} by ${fmtNum(o.rise)} ` +
+    `(${fmtP(o.p)}${o.pSearch === undefined ? '' : `, search-wide ${fmtP(o.pSearch)}`}); ` +
     (o.recovery === null
       ? `it does not fall back below the n = ${fmtNum(o.onset)} level inside the sweep (largest n = ${fmtNum(o.last)})`
       : `it falls back below the n = ${fmtNum(o.onset)} level at n ≈ ${fmtApprox(o.recovery)}`),
@@ -208,14 +211,17 @@ export const planText = {
   badPlaceholder: (name: string, known: string[]) => `--command: unknown placeholder {${name}} (known: ${known.map((k) => `{${k}}`).join(' ')})`,
   slurmEmpty: () => 'the plan is empty: nothing to put in a Slurm array',
   slurmLineBreak: (value: string) => `value ${JSON.stringify(value)} contains a line break; the Slurm array reads one CSV line per run`,
-  whyGap: (status: string, epoch: number | null, target: number, resumed: boolean) =>
-    status === 'missing'
+  whyGap: (status: string, epochAt: number | null, targetEpochs: number, resumed: boolean) => {
+    const epoch = epochAt === null ? '?' : epochAt.toLocaleString('en-US');
+    const target = targetEpochs.toLocaleString('en-US');
+    return status === 'missing'
       ? 'not in the store'
       : status === 'diverged'
         ? `diverged at epoch ${epoch}; re-launched`
         : resumed
           ? `stopped at epoch ${epoch} of ${target}; resumes`
-          : `stopped at epoch ${epoch} of ${target}; restarts (the command cannot resume)`,
+          : `stopped at epoch ${epoch} of ${target}; restarts (the command cannot resume)`;
+  },
   whyRefine: (where: string, x: string, low: string, high: string, a: string, b: string) =>
     `ridge at width ${x} (${where}) known only to ${low}–${high}: bisects ${a}–${b}`,
   whyPeakSeeds: (where: string, x: string, se: number, min: number) =>
@@ -226,6 +232,34 @@ export const planText = {
   noteDivergedRerun: (n: number) => `${n} diverged run${n === 1 ? '' : 's'} re-launched with the same seed (a deterministic run may diverge again: check the learning rate; --skip-diverged leaves them out)`,
   noteDivergedSkipped: (n: number) => `${n} diverged run${n === 1 ? '' : 's'} left out (--skip-diverged)`,
   noteNoResume: (n: number) => `${n} partial run${n === 1 ? '' : 's'} restart from epoch 0: the --command template has no {resume_from}`,
+  coverageHead: (file: string, runs: number, shape: string, epochs: string) => `${fmtPath(file)}: ${runs} planned runs (${shape}; target ${epochs} epochs)`,
+  coverageCounts: (c: Record<string, number>, pct: string) =>
+    `complete ${c.complete} · partial ${c.partial} · missing ${c.missing} · diverged ${c.diverged}  (${pct} complete)`,
+  coverageAllDone: () => 'every planned run is complete',
+  gapsHead: () => 'gaps:',
+  gapsMore: (n: number) => `  … and ${n} more group${n === 1 ? '' : 's'} (--limit 0 lists all, --json gives every run)`,
+  extraRuns: (n: number, what: string) => `extra: ${n} store run${n === 1 ? '' : 's'} outside the spec (${what})`,
+  supersededRuns: (n: number) => `${n} store run${n === 1 ? '' : 's'} re-launched a planned run already covered; the better one counts`,
+  emptyStore: (dir: string) => `no store at ${dir}: every planned run counts as missing`,
+  badImageExt: (path: string) => `--out ${path}: the coverage image must end in .png, .svg or .pdf`,
+  initExists: (path: string) => `${path} exists; remove it or name another file (datlas plan --init FILE)`,
+  wroteInit: (path: string) => `wrote ${path}: edit the axes, seeds and epochs, then run datlas coverage --spec ${path}`,
+  needCommand: (emit: string) => `--emit ${emit} needs --command TEMPLATE (e.g. --command "python train.py --width {width} --seed {seed}")`,
+  stdoutClash: () => '--emit without --out writes to stdout, and so does --json: add --out FILE',
+  badBudget: (text: string) => `--budget expects a number (cost units) or a time such as 90m, 48h, 2d, got '${text}'`,
+  budgetNeedsSeconds: (text: string) => `--budget ${text} is a time, but the store logs no wall_seconds: costs are relative (give a plain number)`,
+  planHead: (n: number, cost: string, units: string) => `${n} run${n === 1 ? '' : 's'} planned, total cost ${cost}${units ? ` ${units}` : ''}`,
+  planDropped: (n: number, cost: string, budget: string) => `${n} more run${n === 1 ? '' : 's'} (cost ${cost}) left out by --budget ${budget}`,
+  planEmpty: () => 'nothing to run: every planned run is complete and no refinement is proposed',
+  modelFitted: (a: string, aSe: string | null, runs: number, c: string, spread: string | null) =>
+    `cost model: seconds = c · width^a · train_size · epochs, a = ${a}${aSe ? ` ± ${aSe}` : ''}, c = ${c} (least squares in log space over ${runs} runs' wall time${spread ? `; a run's cost is typically off by ×${spread}` : ''})`,
+  modelWidthOnly: (runs: number, c: string) =>
+    `cost model: a = 2 assumed (all ${runs} timed runs share one width), c = ${c} s fitted from their wall time`,
+  modelRelative: (ref: string) =>
+    `cost model: a = 2 assumed (common practice for convolutional width; the store logs no wall_seconds); costs relative, 1 = one run at ${ref}`,
+  badResolution: (text: string) => `--resolution expects a positive number of octaves, got '${text}'`,
+  badParallel: (text: string) => `--max-parallel expects a whole number >= 1, got '${text}'`,
+  refinePeaks: (n: number, sig: number) => `analyses at the target epoch: ${n} ridge point${n === 1 ? '' : 's'} along width (${sig} significant)`,
 };
 
 // ── report / demo ────────────────────────────────────────────────────────────

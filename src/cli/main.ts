@@ -10,7 +10,12 @@ import type { CommandSpec } from './CommandSpec.js';
  */
 const COMMANDS: Record<string, { describe: string; load: () => Promise<{ command: CommandSpec<any> }> }> = {
   // registry:start (one line per command, keep alphabetical)
+  coverage: { describe: 'which planned runs are complete, partial, missing or diverged', load: () => import('./coverage.js') },
+  hurts: { describe: 'train-size ranges where more data raises test error', load: () => import('./hurts.js') },
   ingest: { describe: 'merge run logs into the store', load: () => import('./ingest.js') },
+  map: { describe: 'a map of test error over two axes, interpolated, with leave-one-out error', load: () => import('./map.js') },
+  plan: { describe: 'rank the next runs (gaps, new widths, extra seeds) within a budget; export csv/json/shell/slurm', load: () => import('./plan.js') },
+  ridge: { describe: 'the double-descent peak per map row, with interval and threshold', load: () => import('./ridge.js') },
   // registry:end
 };
 
