@@ -150,10 +150,12 @@ export const analysisText = {
       : ` (a bump of ${fmtNum(prominence)} at ${x} ${fmtNum(cx)}, ${fmtNum(z)} SE, is no taller than noise makes somewhere along the row: search-wide ${fmtP(p ?? 1)} >= ${alpha})`,
   ridgeCurveNoise: (sd: number) =>
     `    one seed per cell: significance and interval come from the curve's own noise (sd ≈ ${fmtNum(sd)}), not from seeds`,
-  ridgeThreshold: (x: string, t: number | null, epsilon: number, ratio: number | null) =>
+  ridgeThreshold: (x: string, t: number | null, epsilon: number, ratio: number | null, atEdge = false) =>
     t === null
       ? `    train error never reaches ${epsilon}: no interpolation threshold in this row`
-      : `    interpolation threshold (train error <= ${epsilon}) at ${x} ≈ ${fmtApprox(t)}` + (ratio === null ? '' : `; peak/threshold ${fmtNum(ratio)}`),
+      : atEdge
+        ? `    train error is already <= ${epsilon} at the sweep's edge (${x} ${fmtNum(t)}): the threshold lies at or beyond it`
+        : `    interpolation threshold (train error <= ${epsilon}) at ${x} ≈ ${fmtApprox(t)}` + (ratio === null ? '' : `; peak/threshold ${fmtNum(ratio)}`),
   ridgeSummary: (withPeak: number, rows: number) => `${withPeak} of ${rows} rows have a significant peak`,
   hurtsSegment: (o: { onset: number; peak: number; recovery: number | null; rise: number; p: number; metric: string; last: number; pSearch?: number }) =>
     `from n = ${fmtNum(o.onset)} to n = ${fmtNum(o.peak)} extra data raises ${metricName(o.metric)} by ${fmtNum(o.rise)} ` +
@@ -223,7 +225,7 @@ export const planText = {
           : `stopped at epoch ${epoch} of ${target}; restarts (the command cannot resume)`;
   },
   whyRefine: (where: string, x: string, low: string, high: string, a: string, b: string) =>
-    `ridge at width ${x} (${where}) known only to ${low}–${high}: bisects ${a}–${b}`,
+    `ridge at width ${x} (${where}), interval ${low}–${high}, lies between measured widths ${a} and ${b}: bisects that bracket`,
   whyPeakSeeds: (where: string, x: string, se: number, min: number) =>
     `peak at width ${x} (${where}) is borderline: prominence ${se.toFixed(1)} SE, minimum ${min}`,
   whyHurtsSeeds: (where: string, onset: string, peak: string, p: number, alpha: number) =>

@@ -31,6 +31,11 @@ export interface RidgeRow {
   others: Peak[];
   /** Smallest x with mean train error <= epsilon; null when not reached. */
   threshold: number | null;
+  /**
+   * True when train error is already <= epsilon at the first cell of the row (last, for
+   * train_size): the threshold lies at or beyond the sweep's edge and `threshold` is that edge.
+   */
+  thresholdAtEdge?: boolean;
   /** peak.x / threshold, null when either is missing. */
   ratio: number | null;
   /** Where the noise scale came from: seeds (≥ 2 per cell) or the curve itself (single seed). */

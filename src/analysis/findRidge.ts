@@ -1,7 +1,7 @@
 import type { Cell } from '../cells/Cell.js';
 import type { SweepMap } from '../grid/SweepMap.js';
 import { axisTransform } from './axisTransform.js';
-import { findThreshold } from './findThreshold.js';
+import { thresholdCrossing } from './findThreshold.js';
 import { localPeaks } from './localPeaks.js';
 import type { LocalPeak } from './localPeaks.js';
 import { parabolaVertex } from './parabolaVertex.js';
@@ -77,18 +77,18 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
 
   const rows: RidgeRow[] = ys.map((y, rowIndex) => {
     const all = (byY.get(y) ?? []).filter((p) => Number.isFinite(tx.to(p.x))).sort((a, b) => a.x - b.x);
-    const threshU = findThreshold(
+    const crossing = thresholdCrossing(
       all.map((p) => tx.to(p.x)),
       all.map((p) => p.cell.train?.mean ?? NaN),
       { epsilon, direction },
     );
-    const threshold = threshU === null ? null : tx.from(threshU);
+    const threshold = crossing === null ? null : tx.from(crossing.u);
     const pts = all.filter((p) => p.cell.stats.n > 0 && Number.isFinite(p.cell.stats.mean));
     const u = pts.map((p) => tx.to(p.x));
     const cells = pts.map((p) => p.cell);
     const means = cells.map((c) => c.stats.mean);
     const noise = seriesNoise(cells, u);
-    const row: RidgeRow = { y, peak: null, others: [], threshold, ratio: null, noiseFrom: noise.from, noiseSd: noise.sd, insideNoise: null };
+    const row: RidgeRow = { y, peak: null, others: [], threshold, thresholdAtEdge: crossing?.atEdge ?? false, ratio: null, noiseFrom: noise.from, noiseSd: noise.sd, insideNoise: null };
     if (pts.length < 3) return row;
 
     const zOf = (lp: LocalPeak): number => {

@@ -11,14 +11,23 @@ export function findThreshold(
   train: readonly number[],
   opts: { epsilon: number; direction: 'first-below' | 'last-below' },
 ): number | null {
+  return thresholdCrossing(u, train, opts)?.u ?? null;
+}
+
+/** As findThreshold, also saying whether the crossing is only bounded by the sweep's edge. */
+export function thresholdCrossing(
+  u: readonly number[],
+  train: readonly number[],
+  opts: { epsilon: number; direction: 'first-below' | 'last-below' },
+): { u: number; atEdge: boolean } | null {
   const pts: { u: number; e: number }[] = [];
   for (let i = 0; i < u.length; i++) if (Number.isFinite(train[i]) && Number.isFinite(u[i])) pts.push({ u: u[i], e: train[i] });
   if (opts.direction === 'last-below') pts.reverse();
   const k = pts.findIndex((p) => p.e <= opts.epsilon);
   if (k < 0) return null;
-  if (k === 0) return pts[0].u;
+  if (k === 0) return { u: pts[0].u, atEdge: true };
   const a = pts[k - 1];
   const b = pts[k];
   const f = (a.e - opts.epsilon) / (a.e - b.e);
-  return a.u + f * (b.u - a.u);
+  return { u: a.u + f * (b.u - a.u), atEdge: false };
 }

@@ -1,0 +1,87 @@
+import type { Argv } from 'yargs';
+import type { RidgeResult } from '../analysis/Ridge.js';
+import type { MapKind, SweepMap } from '../grid/SweepMap.js';
+import { analysisText as t } from '../messages.js';
+import type { Metric } from '../store/RowTable.js';
+import { usageError } from '../UserError.js';
+import type { CommandSpec } from './CommandSpec.js';
+import { parseAt } from './parseAt.js';
+
+interface RidgeArgs {
+  kind: MapKind;
+  at?: string[];
+  metric?: Metric;
+  minProminence: number;
+  boot: number;
+  epsilon: number;
+  alpha: number;
+  seed: number;
+  store: string;
+}
+
+/** Rejects non-finite or out-of-range numbers with a usage error naming the flag. */
+export function checkNumber(flag: string, v: number, ok: (v: number) => boolean, what: string): void {
+  if (!Number.isFinite(v) || !ok(v)) throw usageError(t.badNumber(flag, String(v), what));
+}
+
+/** The ridge as DESIGN.md §6 JSON (plus notes and the choices made). */
+function ridgeJson(r: RidgeResult, map: SweepMap) {
+  return { ...r, picked: map.picked, notes: map.notes ?? [] };
+}
+
+function ridgeText(r: RidgeResult): string {
+  const lines = [t.ridgeHeader(r.map, r.metric, r.x, r.y, r.fixed)];
+  for (const row of r.rows) {
+    if (row.peak) {
+      const p = row.peak;
+      lines.push(t.ridgePeak({ y: r.y, yv: row.y, x: r.x, px: p.x, low: p.low, high: p.high, level: r.level ?? 0.95, metric: r.metric, error: p.error, prominence: p.prominence, z: p.prominenceSe }));
+      for (const o of row.others) lines.push(t.ridgeOther(r.x, o.x, o.prominence, o.prominenceSe));
+      if (row.noiseFrom === 'curve') lines.push(t.ridgeCurveNoise(row.noiseSd ?? NaN));
+    } else {
+      const bump = row.insideNoise;
+      lines.push(t.ridgeNone(r.y, row.y) + (bump ? t.ridgeInsideNoise(r.x, bump.cellX, bump.prominence, bump.prominenceSe, r.minProminence, bump.p, r.alpha) : ''));
+    }
+    lines.push(t.ridgeThreshold(r.x, row.threshold, r.epsilon, row.ratio, row.thresholdAtEdge));
+  }
+  lines.push(t.ridgeSummary(r.rows.filter((x) => x.peak).length, r.rows.length));
+  return lines.join('\n');
+}
+
+export const command: CommandSpec<RidgeArgs> = {
+  usage: 'ridge',
+  describe: 'locate the double-descent peak per map row, with interval, prominence and interpolation threshold',
+  example: ['ridge --kind model --at label_noise=0.2', 'per epoch budget, the width where test error peaks (with a bootstrap interval over seeds)'],
+  builder: (y: Argv) =>
+    y
+      .option('kind', { type: 'string', choices: ['model', 'sample', 'epoch'], default: 'model', describe: 'model: x width, y epochs; sample: x train_size, y width; epoch: x epochs, y train_size' })
+      .option('at', { type: 'string', array: true, describe: 'fix an axis: axis=value (repeat, or comma-separate); unset axes take the value with most data' })
+      .option('metric', { type: 'string', choices: ['test_error', 'test_loss', 'train_error', 'train_loss'], describe: 'metric to find the peak of (default test_error, else test_loss)' })
+      .option('min-prominence', { type: 'number', default: 2, describe: 'peak height over the higher flanking dip, in pooled standard errors' })
+      .option('alpha', { type: 'number', default: 0.05, describe: 'search-wide level: a peak must beat the tallest bump pure noise makes along the row (1 = off)' })
+      .option('boot', { type: 'number', default: 1000, describe: 'bootstrap rounds for the location interval (resampling seeds per cell)' })
+      .option('seed', { type: 'number', default: 1, describe: 'random seed of the bootstrap' })
+      .option('epsilon', { type: 'number', default: 0.01, describe: 'train error at or below which the interpolation threshold is reached' })
+      .option('store', { type: 'string', default: 'atlas-store', describe: 'store directory' }),
+  async run(args) {
+    checkNumber('--min-prominence', args.minProminence, (v) => v >= 0, 'a number >= 0');
+    checkNumber('--alpha', args.alpha, (v) => v > 0 && v <= 1, 'a level in (0, 1]');
+    checkNumber('--boot', args.boot, (v) => v >= 0 && v <= 1e6 && Number.isInteger(v), 'a whole number of rounds (0 to 1,000,000)');
+    checkNumber('--epsilon', args.epsilon, (v) => v >= 0, 'a train error >= 0');
+    checkNumber('--seed', args.seed, Number.isInteger, 'a whole number');
+    const at = parseAt(args.at);
+    const { readStore } = await import('../store/readStore.js');
+    const { buildMap } = await import('../grid/buildMap.js');
+    const { findRidge } = await import('../analysis/findRidge.js');
+    const { table } = await readStore(args.store);
+    // The ridge reads the measured cells only: the cheapest interpolator on a small raster suffices.
+    const map = buildMap(table, { kind: args.kind, at, metric: args.metric, method: 'linear', raster: { nx: 16, ny: 16 } });
+    const ridge = findRidge(map, { minProminence: args.minProminence, boot: args.boot, seed: args.seed, epsilon: args.epsilon, alpha: args.alpha });
+    if (!args.quiet) {
+      if (map.picked.length) process.stderr.write(`${t.picked(map.picked, map.fixed)}\n`);
+      for (const note of map.notes ?? []) process.stderr.write(`${note}\n`);
+    }
+    if (args.json) process.stdout.write(`${JSON.stringify(ridgeJson(ridge, map))}\n`);
+    else process.stdout.write(`${ridgeText(ridge)}\n`);
+    return 0;
+  },
+};
