@@ -68,12 +68,12 @@ export function keySpec(entries: KeyEntry[], warnings: string[], width: number):
     },
     {
       transform: [only(['missing'])],
-      mark: { type: 'point', shape: 'cross', filled: true, size: 50, color: STYLE.missingCross, angle: 45 },
+      mark: { type: 'point', shape: 'cross', filled: true, opacity: 1, size: 50, color: STYLE.missingCross, angle: 45 },
       encoding: { x: x('xm'), y },
     },
     {
       transform: [only(['diverged'])],
-      mark: { type: 'point', shape: 'triangle-up', filled: true, size: 80, color: STYLE.diverged, stroke: STYLE.divergedStroke, strokeWidth: 1.2 },
+      mark: { type: 'point', shape: 'triangle-up', filled: true, opacity: 1, size: 80, color: STYLE.diverged, stroke: STYLE.divergedStroke, strokeWidth: 1.2 },
       encoding: { x: x('xm'), y },
     },
     {
@@ -88,7 +88,7 @@ export function keySpec(entries: KeyEntry[], warnings: string[], width: number):
     },
     {
       transform: [only(['ridge'])],
-      mark: { type: 'point', filled: true, size: 45, color: STYLE.casing, stroke: STYLE.ridge, strokeWidth: 1.5 },
+      mark: { type: 'point', filled: true, opacity: 1, size: 45, color: STYLE.casing, stroke: STYLE.ridge, strokeWidth: 1.5 },
       encoding: { x: x('xm'), y },
     },
     {

@@ -245,7 +245,7 @@ export function facetHeatmapSpec(panels: MapPanel[], opts: HeatmapOptions = {}):
     layers.push({
       name: 'missingMarks',
       transform: [only('missingMark')],
-      mark: { type: 'point', shape: 'cross', angle: 45, filled: true, size: 50, color: STYLE.missingCross },
+      mark: { type: 'point', shape: 'cross', angle: 45, filled: true, opacity: 1, size: 50, color: STYLE.missingCross },
       encoding: { x: X('xc'), y: Y('yc') },
     });
   }
@@ -264,7 +264,7 @@ export function facetHeatmapSpec(panels: MapPanel[], opts: HeatmapOptions = {}):
     layers.push({
       name: 'peaks',
       transform: [only('ridge')],
-      mark: { type: 'point', filled: true, size: 45, color: STYLE.casing, stroke: STYLE.ridge, strokeWidth: 1.5, clip: true },
+      mark: { type: 'point', filled: true, opacity: 1, size: 45, color: STYLE.casing, stroke: STYLE.ridge, strokeWidth: 1.5, clip: true },
       encoding: {
         x: X('xc'), y: Y('yc'),
         tooltip: [
@@ -281,7 +281,7 @@ export function facetHeatmapSpec(panels: MapPanel[], opts: HeatmapOptions = {}):
     layers.push({
       name: 'diverged',
       transform: [only('diverged')],
-      mark: { type: 'point', shape: 'triangle-up', filled: true, size: 80, color: STYLE.diverged, stroke: STYLE.divergedStroke, strokeWidth: 1.2 },
+      mark: { type: 'point', shape: 'triangle-up', filled: true, opacity: 1, size: 80, color: STYLE.diverged, stroke: STYLE.divergedStroke, strokeWidth: 1.2 },
       encoding: { x: X('xc'), y: Y('yc'), tooltip: [{ field: 'count', type: 'quantitative', title: 'diverged seeds' }] },
     });
   }

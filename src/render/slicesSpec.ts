@@ -82,6 +82,7 @@ export function slicesSpec(map: SweepMap, ridge: RidgeResult | null, opts: Slice
     field: 'row', type: 'ordinal', sort: labels, title: axisLabel(yName),
     // The light end of sequential schemes vanishes on white: stop short of it.
     scale: { domain: labels, scheme: { name: colors, extent: [0, 0.82] } },
+    legend: { symbolType: 'stroke', symbolOpacity: 1, symbolStrokeWidth: 3, symbolSize: 300 },
   };
   const only = (layer: string | string[]) => ({ filter: { field: 'layer', oneOf: Array.isArray(layer) ? layer : [layer] } });
   const layers: Record<string, unknown>[] = [
@@ -108,7 +109,7 @@ export function slicesSpec(map: SweepMap, ridge: RidgeResult | null, opts: Slice
     {
       name: 'points',
       transform: [only('test')],
-      mark: { type: 'point', filled: true, size: 22 },
+      mark: { type: 'point', filled: true, opacity: 1, size: 22 },
       encoding: {
         x: X('x'), y: Y('value'), color,
         tooltip: [
@@ -137,7 +138,7 @@ export function slicesSpec(map: SweepMap, ridge: RidgeResult | null, opts: Slice
     layers.push({
       name: 'diverged',
       transform: [only('diverged')],
-      mark: { type: 'point', shape: 'triangle-up', filled: true, size: 80, color: STYLE.diverged, stroke: STYLE.divergedStroke, strokeWidth: 1.2 },
+      mark: { type: 'point', shape: 'triangle-up', filled: true, opacity: 1, size: 80, color: STYLE.diverged, stroke: STYLE.divergedStroke, strokeWidth: 1.2 },
       encoding: { x: X('x'), y: Y('value') },
     });
   }

@@ -40,7 +40,7 @@ async function writeAtomic(path: string, data: Buffer | string): Promise<void> {
 async function writeFigure(spec: TopLevelSpec, base: string, opts: WriteMapImagesOptions): Promise<string[]> {
   const written: string[] = [];
   const specPath = `${base}.vl.json`;
-  await writeAtomic(specPath, `${JSON.stringify(spec, null, 1)}\n`);
+  await writeAtomic(specPath, `${JSON.stringify(spec)}\n`);
   for (const format of opts.formats) {
     const path = `${base}.${format}`;
     await writeAtomic(path, await renderSpec(spec, { format, scale: opts.scale ?? 2 }));
