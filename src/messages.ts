@@ -301,6 +301,8 @@ export const report = {
     `The static map images colour the plane between measured cells by ${method} interpolation (leave-one-out rmse ${rmse}); hatched areas were not measured. The interactive maps show measured cells only.`,
   hurtsMultiple: (slices: number, alpha: string) =>
     `${slices} train-size slices were each tested at α = ${alpha}: about ${alpha} × ${slices} rises could be significant by chance alone.`,
+  interpolatedPage:
+    'Colours between measured cells are interpolated, not measured: a feature that lies between cells (a narrow peak, an edge) can be missed or invented. Check the measured-cells page and the hatching before quoting a value from here.',
   picked: (kind: string, names: string) => `${kind}-wise map: ${names} chosen automatically (the value with the most data).`,
   skipAxis: (axis: string, n: number, need: number) => `the sweep has ${n} value${n === 1 ? '' : 's'} of ${axis}; this map needs at least ${need}`,
   skipNoCells: 'no cell of the sweep has data on this map',

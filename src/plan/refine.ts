@@ -24,7 +24,10 @@ export interface RefineOptions {
   table: RowTable;
   spec: SweepSpec;
   metric?: Metric;
-  /** A ridge interval wider than this many octaves (log2 units of width) is refined (default 0.5). */
+  /**
+   * Target resolution in octaves (log2 units of width; default 0.5): a ridge point is refined while
+   * the measured widths around its interval (its bracket) span more than this.
+   */
   resolution?: number;
   /** Significance rule of the analyses: peak prominence in pooled SEs (default 2), hurts alpha (default 0.05). */
   minProminence?: number;
@@ -49,9 +52,11 @@ const fmt = (v: number) => Number(v.toPrecision(4)).toLocaleString('en-US');
 /**
  * Refinement proposals from the analyses at the spec's target epoch (DESIGN.md §5 "Plan"):
  * - refine: for each significant ridge point along width (per condition, noise and train size)
- *   whose interval spans more than `resolution` octaves, the geometric midpoint (bisection in
- *   log space) of every measured width interval coarser than `resolution` that overlaps the
- *   interval. Value: the interval's octaves shared among its new widths.
+ *   whose bracket (largest measured width at or below its interval to the smallest at or above)
+ *   spans more than `resolution` octaves, the geometric midpoint (bisection in log space) of
+ *   every grid step in the bracket coarser than `resolution`: a parabola through cells far
+ *   apart pins the peak no better than the grid does. Value: the bracket's octaves shared
+ *   among its new widths.
  * - seeds: where a peak is borderline (prominence within a factor 1.5 of the minimum, either
  *   side) extra seeds at the peak cell and its two neighbours; where a hurts segment is
  *   borderline (p within a factor 4 of alpha, either side) extra seeds at its onset and peak.
@@ -134,12 +139,16 @@ export function proposeRefinements(opts: RefineOptions): RefineResult {
           addSeeds({ condition, label_noise, train_size, width: w }, k, value, msg.whyPeakSeeds(where, fmt(p.x), p.prominenceSe, minProminence));
       }
       if (!significant) continue;
-      const octaves = Math.log2(p.high / p.low);
+      // The grid resolves the peak only to the measured widths around its interval (the
+      // bracket); bisect every grid step inside the bracket that is coarser than `resolution`.
+      const lo = widths.filter((w) => w <= p.low).at(-1) ?? widths[0];
+      const hi = widths.find((w) => w >= p.high) ?? widths[widths.length - 1];
+      const octaves = Math.log2(hi / lo);
       if (!(octaves > resolution)) continue;
       const mids: number[] = [];
       for (let i = 0; i + 1 < widths.length; i++) {
         const a = widths[i], b = widths[i + 1];
-        if (!(b > p.low && a < p.high) || !(Math.log2(b / a) > resolution)) continue;
+        if (a < lo || b > hi || !(Math.log2(b / a) > resolution)) continue;
         let m = Math.sqrt(a * b);
         if (integerWidths) m = Math.round(m);
         if (m <= a || m >= b) continue;
@@ -153,7 +162,7 @@ export function proposeRefinements(opts: RefineOptions): RefineResult {
           reason: 'refine',
           runs: spec.seeds.map((s) => ({ ...cfg, seed: s })),
           value: octaves / fresh.length,
-          why: msg.whyRefine(where, fmt(p.x), fmt(p.low), fmt(p.high), fmt(widths.filter((w) => w < m).at(-1)!), fmt(widths.find((w) => w > m)!)),
+          why: msg.whyRefine(where, fmt(p.x), fmt(p.low), fmt(p.high), fmt(lo), fmt(hi)),
         });
       }
     }

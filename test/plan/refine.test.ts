@@ -1,0 +1,100 @@
+import { describe, expect, it } from 'vitest';
+import { featuresSweep } from '../../src/simulate/featuresSweep.js';
+import { concatTables } from '../../src/simulate/concatTables.js';
+import { buildMap } from '../../src/grid/buildMap.js';
+import { findRidge } from '../../src/analysis/findRidge.js';
+import { parseSpec } from '../../src/plan/parseSpec.js';
+import { proposeRefinements } from '../../src/plan/refine.js';
+import { coverage } from '../../src/plan/coverage.js';
+import { fitCostModel } from '../../src/plan/costModel.js';
+import { planRuns } from '../../src/plan/planRuns.js';
+import { tableFromRows } from '../../src/store/tableFromRows.js';
+import type { RowRecord } from '../../src/store/tableFromRows.js';
+import type { RowTable } from '../../src/store/RowTable.js';
+
+const n = 128;
+const EPOCHS = 1_000_000;
+const sim = (widths: number[]) => featuresSweep({ seeds: 4, widths, trainSizes: [n], labelNoise: [0.2], epochs: [EPOCHS], testSize: 600 });
+
+/** The ridge point at the target epoch, from the map as `datlas map` builds it. */
+function ridgePoint(table: RowTable) {
+  const map = buildMap(table, { kind: 'model', at: { train_size: n, label_noise: 0.2 }, method: 'linear' });
+  const row = findRidge(map, { boot: 400 }).rows.find((r) => r.y === EPOCHS)!;
+  expect(row.peak).not.toBeNull();
+  return row.peak!;
+}
+
+describe('refinement on a simulated random-features sweep', () => {
+  // Coarse widths, a factor 4 apart; the random-features peak sits near N = n (Belkin, Hsu, Ma &
+  // Mandal 2019; REFERENCES.md §4 and §7).
+  const widths = [8, 32, 128, 512];
+  const spec = parseSpec(`axes:\n  width: [${widths}]\n  train_size: [${n}]\n  label_noise: [0.2]\nseeds: 4\nepochs: ${EPOCHS}\n`, 'sweep.yaml');
+  const table = sim(widths);
+
+  it('proposes widths inside the ridge bracket, and re-simulating them narrows the ridge interval', () => {
+    const before = ridgePoint(table);
+    expect(before.cellX).toBe(128);
+    const lo = widths.filter((w) => w <= before.low).at(-1)!;
+    const hi = widths.find((w) => w >= before.high)!;
+    const ref = proposeRefinements({ table, spec });
+    const proposed = [...new Set(ref.candidates.filter((c) => c.reason === 'refine').map((c) => c.runs[0].width))].sort((a, b) => a - b);
+    expect(proposed.length).toBeGreaterThan(0);
+    for (const w of proposed) {
+      expect(w).toBeGreaterThan(lo);
+      expect(w).toBeLessThan(hi);
+      expect(widths).not.toContain(w);
+    }
+    // Bisection in log space: geometric midpoints of the grid steps in the bracket.
+    expect(proposed).toEqual([64, 256]);
+    // Every proposal carries the spec's seeds and reason 'refine' in the plan.
+    const plan = planRuns({
+      spec,
+      coverage: coverage(table, spec),
+      model: fitCostModel({ runs: [], reference: { width: 8, train_size: n, epochs: EPOCHS } }),
+      candidates: ref.candidates,
+    });
+    expect(plan.runs.filter((r) => r.reason === 'refine').map((r) => `${r.width}/${r.seed}`).sort()).toEqual(
+      ['256/0', '256/1', '256/2', '256/3', '64/0', '64/1', '64/2', '64/3'],
+    );
+
+    const after = ridgePoint(concatTables([table, sim(proposed)]));
+    expect(Math.log2(after.high / after.low)).toBeLessThan(Math.log2(before.high / before.low));
+    expect(after.low).toBeLessThan(n * 1.25);
+    expect(after.high).toBeGreaterThan(n / 1.25);
+  });
+});
+
+describe('extra seeds where a peak is borderline', () => {
+  // Means along width with a small peak at 32; seeds spread ±d around the mean.
+  const W = [4, 8, 16, 32, 64, 128, 256];
+  const mean = [0.3, 0.28, 0.3, 0.34, 0.3, 0.26, 0.24];
+  const make = (d: number) => {
+    const rows: Partial<RowRecord>[] = [];
+    W.forEach((w, i) => {
+      for (let s = 0; s < 4; s++)
+        rows.push({ run: `w${w}-s${s}`, seed: s, width: w, train_size: 1000, label_noise: 0.1, epochs: 100, test_error: mean[i] + (s % 2 ? -d : d) * (i % 2 ? -1 : 1), train_error: 0 });
+    });
+    return tableFromRows(rows);
+  };
+  const spec = parseSpec('axes:\n  width: [4, 8, 16, 32, 64, 128, 256]\n  train_size: [1000]\n  label_noise: [0.1]\nseeds: 4\nepochs: 100\n', 's.yaml');
+
+  it('asks for fresh seeds at the peak cell and its neighbours only when the prominence is near the minimum', () => {
+    for (const d of [0.001, 0.03, 0.2]) {
+      const ref = proposeRefinements({ table: make(d), spec, boot: 200 });
+      const seeds = ref.candidates.filter((c) => c.reason === 'seeds');
+      const near = ref.peaks.filter((p) => p.peak.prominenceSe >= 2 / 1.5 && p.peak.prominenceSe < 3);
+      if (near.length === 0) {
+        expect(seeds).toEqual([]);
+        continue;
+      }
+      // Seed ids continue after the ones used (0–3); cells: the peak (32) and its neighbours.
+      expect(seeds.map((c) => c.runs[0].width).sort((a, b) => a - b)).toEqual([16, 32, 64]);
+      for (const c of seeds) expect(c.runs.map((r) => r.seed)).toEqual(Array.from({ length: c.runs.length }, (_, i) => 4 + i));
+    }
+    // The borderline case must actually occur in this sweep of spreads.
+    const mid = proposeRefinements({ table: make(0.03), spec, boot: 200 });
+    expect(mid.candidates.some((c) => c.reason === 'seeds')).toBe(true);
+    // A clear peak (tiny spread) needs no seeds; pure noise (huge spread) shows no peak.
+    expect(proposeRefinements({ table: make(0.001), spec, boot: 200 }).candidates.filter((c) => c.reason === 'seeds')).toEqual([]);
+  });
+});
