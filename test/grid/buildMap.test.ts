@@ -1,0 +1,155 @@
+import { describe, expect, it } from 'vitest';
+import { buildMap } from '../../src/grid/buildMap.js';
+import { mapToJson } from '../../src/grid/mapJson.js';
+import { ORIGIN_INTERPOLATED, ORIGIN_MEASURED, ORIGIN_OUTSIDE } from '../../src/grid/SweepMap.js';
+import type { RowRecord } from '../../src/store/tableFromRows.js';
+import { tableFromRows } from '../../src/store/tableFromRows.js';
+import { UserError } from '../../src/UserError.js';
+
+const WIDTHS = [4, 8, 16, 32, 64, 128];
+const EPOCHS = [1, 10, 100, 1000];
+/** A smooth model-wise surface with a bump at width 16 that grows with epochs (own toy function). */
+const surface = (w: number, e: number, noise: number) => 0.4 - 0.03 * Math.log2(w) + (0.05 + noise) * Math.log10(e) * Math.exp(-((Math.log2(w) - 4) ** 2));
+
+function sweep(opts: { noises?: number[]; seeds?: number; skip?: (w: number, e: number) => boolean; sizes?: number[] } = {}): Partial<RowRecord>[] {
+  const rows: Partial<RowRecord>[] = [];
+  let r = 0;
+  for (const noise of opts.noises ?? [0, 0.2])
+    for (const n of opts.sizes ?? [1000])
+      for (const w of WIDTHS)
+        for (let s = 0; s < (opts.seeds ?? 3); s++) {
+          r++;
+          for (const e of EPOCHS) {
+            if (opts.skip?.(w, e)) continue;
+            rows.push({ run: `r${r}`, seed: s, width: w, epochs: e, train_size: n, label_noise: noise, test_error: surface(w, e, noise) + 0.004 * (s - 1), train_error: 0.01 });
+          }
+        }
+  return rows;
+}
+
+describe('buildMap', () => {
+  it('model map: axes, log2 scales, geometric edges, picked fixed values (most data, ties to the largest)', () => {
+    const map = buildMap(tableFromRows(sweep()), { kind: 'model', method: 'linear', raster: { nx: 20, ny: 10 } });
+    expect(map.kind).toBe('model');
+    expect(map.x).toMatchObject({ name: 'width', scale: 'log2', values: WIDTHS });
+    expect(map.y).toMatchObject({ name: 'epochs', scale: 'log2', values: EPOCHS });
+    expect(map.x.edges[1]).toBeCloseTo(Math.sqrt(4 * 8), 12);
+    expect(map.fixed).toEqual({ label_noise: 0.2, train_size: 1000 });
+    expect(map.picked).toEqual(['label_noise', 'train_size']);
+    expect(map.cells).toHaveLength(24);
+    expect(map.missing).toEqual([]);
+    expect(map.raster.value).toHaveLength(200);
+    expect(map.raster.xs[0]).toBeCloseTo(4, 12);
+    expect(map.raster.xs[19]).toBeCloseTo(128, 12);
+    // Every raster point of a complete grid lies in a measured cell.
+    expect([...map.raster.origin].every((o) => o === ORIGIN_MEASURED)).toBe(true);
+    const c = map.cells.find((m) => m.x === 16 && m.y === 1000)!;
+    expect(c.cell.stats.mean).toBeCloseTo(surface(16, 1000, 0.2), 12);
+    expect(c.cell.stats.n).toBe(3);
+  });
+
+  it('respects --at values, which are then not "picked"; prefers the value with most rows', () => {
+    const rows = sweep({ noises: [0, 0.2] }).filter((r) => !(r.label_noise === 0.2 && r.width === 4));
+    const t = tableFromRows(rows);
+    expect(buildMap(t, { method: 'linear' }).fixed.label_noise).toBe(0);
+    const given = buildMap(t, { method: 'linear', at: { label_noise: 0.2 } });
+    expect(given.fixed.label_noise).toBe(0.2);
+    expect(given.picked).toEqual(['train_size']);
+  });
+
+  it('lists missing grid points and diverged points, and marks the raster over them as interpolated', () => {
+    // Width-16 runs stopped at epoch 100: (16, 1000) is missing (a gap inside a run would be aligned instead).
+    const rows = sweep({ noises: [0.2], skip: (w, e) => w === 16 && e === 1000 });
+    rows.push({ run: 'bad', seed: 9, width: 32, epochs: 10, train_size: 1000, label_noise: 0.2, test_error: NaN, status: 'diverged' });
+    const map = buildMap(tableFromRows(rows), { kind: 'model', method: 'thin-plate', raster: { nx: 64, ny: 64 } });
+    expect(map.missing).toEqual([{ x: 16, y: 1000 }]);
+    // Divergence is terminal: the run counts as diverged at every later epoch of the map too.
+    expect(map.diverged).toEqual([
+      { x: 32, y: 10, count: 1 },
+      { x: 32, y: 100, count: 1 },
+      { x: 32, y: 1000, count: 1 },
+    ]);
+    const cell = map.cells.find((m) => m.x === 32 && m.y === 10)!;
+    expect(cell.cell.stats.n).toBe(3);
+    expect(cell.cell.diverged).toBe(1);
+    // The raster point nearest (16, 1000) is inside the missing cell: interpolated, with a finite value.
+    const i = map.raster.xs.reduce((b, x, k) => (Math.abs(Math.log2(x / 16)) < Math.abs(Math.log2(map.raster.xs[b] / 16)) ? k : b), 0);
+    const j = map.raster.ys.reduce((b, y, k) => (Math.abs(Math.log2(y / 1000)) < Math.abs(Math.log2(map.raster.ys[b] / 1000)) ? k : b), 0);
+    expect(map.raster.origin[j * 64 + i]).toBe(ORIGIN_INTERPOLATED);
+    expect(Number.isFinite(map.raster.value[j * 64 + i])).toBe(true);
+  });
+
+  it('linear leaves the raster outside the hull empty and says so in the origin codes', () => {
+    const rows = sweep({ noises: [0.2], skip: (w, e) => w === 128 && e === 1000 });
+    const map = buildMap(tableFromRows(rows), { method: 'linear', raster: { nx: 32, ny: 32 } });
+    const k = 31 * 32 + 31; // corner (128, 1000): the missing cell, outside the hull of the rest
+    expect(map.raster.value[k]).toBeNaN();
+    expect(map.raster.origin[k]).toBe(ORIGIN_OUTSIDE);
+  });
+
+  it('auto reports the leave-one-out error of every method tried and uses the lowest', () => {
+    const map = buildMap(tableFromRows(sweep({ noises: [0.2] })), { raster: { nx: 16, ny: 16 } });
+    const tried = map.loo.tried;
+    expect(Object.keys(tried).sort()).toEqual(['gp', 'linear', 'thin-plate']);
+    const best = Math.min(...Object.values(tried).map(Number));
+    expect(map.loo.rmse).toBe(best);
+    expect(tried[map.method]).toBe(best);
+    expect(map.raster.sd === null).toBe(map.method !== 'gp');
+  });
+
+  it('gp gives a standard-deviation field', () => {
+    const map = buildMap(tableFromRows(sweep({ noises: [0.2] })), { method: 'gp', raster: { nx: 16, ny: 16 } });
+    expect(map.raster.sd).not.toBeNull();
+    expect([...map.raster.sd!].every((s) => Number.isFinite(s) && s >= 0)).toBe(true);
+    expect(map.fit?.lx).toBeGreaterThan(0);
+  });
+
+  it('any pair of axes: width × label_noise with epochs picked, label_noise linear', () => {
+    const map = buildMap(tableFromRows(sweep({ noises: [0, 0.1, 0.2] })), { x: 'width', y: 'label_noise', method: 'linear', raster: { nx: 8, ny: 8 } });
+    expect(map.kind).toBe('custom');
+    expect(map.y).toMatchObject({ name: 'label_noise', scale: 'linear', values: [0, 0.1, 0.2] });
+    expect(map.fixed).toEqual({ train_size: 1000, epochs: 1000 });
+  });
+
+  it('aligns runs logged at different epochs to the map’s epochs, never past their ends', () => {
+    const rows = sweep({ noises: [0.2], seeds: 1 }).filter((r) => !(r.width === 64 && r.epochs === 1000));
+    const map = buildMap(tableFromRows(rows), { method: 'linear', at: { epochs: 1000 }, x: 'width', y: 'label_noise' });
+    expect(map.x.values).toEqual([4, 8, 16, 32, 128]);
+    const mid = buildMap(tableFromRows(rows), { method: 'linear', at: { epochs: 300 }, x: 'width', y: 'train_size' });
+    // 300 lies between logged 100 and 1000: log-epoch interpolation along each run.
+    const c = mid.cells.find((m) => m.x === 8)!;
+    const w = Math.log(3);
+    const expected = surface(8, 100, 0.2) + (w / Math.log(10)) * (surface(8, 1000, 0.2) - surface(8, 100, 0.2)) - 0.004;
+    expect(c.cell.stats.mean).toBeCloseTo(expected, 12);
+  });
+
+  it('keeps epoch 0 off a log2 epochs axis and says so', () => {
+    const rows = sweep({ noises: [0.2] });
+    for (const r of sweep({ noises: [0.2] }).filter((x) => x.epochs === 1)) rows.push({ ...r, epochs: 0, test_error: 0.5 });
+    const map = buildMap(tableFromRows(rows), { method: 'linear' });
+    expect(map.y.scale).toBe('log2');
+    expect(map.y.values[0]).toBe(1);
+    expect(map.notes!.join(' ')).toMatch(/epochs <= 0 left out/);
+  });
+
+  it('rejects bad requests with clear errors', () => {
+    const t = tableFromRows(sweep());
+    expect(() => buildMap(t, { at: { width: 8 } })).toThrow(/axis of this map/);
+    expect(() => buildMap(t, { at: { width: 8 } })).toThrow(UserError);
+    expect(() => buildMap(t, { at: { label_noise: 0.5 } })).toThrow(/no rows with label_noise=0.5; values present: 0, 0.2/);
+    expect(() => buildMap(t, { x: 'depth' })).toThrow(/unknown axis 'depth'/);
+    expect(() => buildMap(t, { x: 'epochs', y: 'epochs' })).toThrow(/two different axes/);
+    expect(() => buildMap(t, { metric: 'test_loss' })).toThrow(/no row has a finite test_loss/);
+  });
+
+  it('serialises to JSON with typed arrays as arrays and NaN as null (CONTRACTS.md map file)', () => {
+    const rows = sweep({ noises: [0.2], skip: (w, e) => w === 128 && e === 1000 });
+    const map = buildMap(tableFromRows(rows), { method: 'linear', raster: { nx: 8, ny: 8 } });
+    const back = JSON.parse(mapToJson(map, { ridge: null }));
+    expect(back.raster.value).toHaveLength(64);
+    expect(back.raster.value[63]).toBeNull();
+    expect(back.raster.origin[0]).toBe(ORIGIN_MEASURED);
+    expect(back.ridge).toBeNull();
+    expect(back.x.values).toEqual(WIDTHS);
+  });
+});
