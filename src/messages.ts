@@ -183,7 +183,8 @@ export const render = {
   keyMissing: (n: number) => `grey ×: missing cell, no finished run (${n})`,
   keyDiverged: (n: number) => `triangle: cell with diverged run(s), left out of the mean (${n})`,
   keyRidge: (from: string) => `ridge: error peak in each row; whiskers: its location interval (${from}); gap: no significant peak`,
-  keyThreshold: (x: string, eps: string) => `dashed: interpolation threshold, smallest ${x} with mean train error ≤ ${eps}`,
+  keyThreshold: (x: string, eps: string, dots: boolean) =>
+    `dashed: interpolation threshold, smallest ${x} with mean train error ≤ ${eps}${dots ? ' (square: a row whose neighbours have none)' : ''}`,
   keySlicesBand: (diverged: boolean) =>
     `band: 95% Student-t interval of the mean over seeds · ◆ ridge peak with its location interval${diverged ? ' · △ cell with diverged run(s)' : ''}`,
   warnNoRidge: 'ridge not computed: no peak or threshold drawn',

@@ -1,9 +1,8 @@
-import { scheme } from 'vega';
-
 /**
  * Sequential colour schemes we allow for error maps: perceptually uniform (equal steps in value
  * look like equal steps in colour) and readable in greyscale. Rainbow-like schemes are left out
  * on purpose: they invent boundaries that are not in the data.
+ * No imports here: the CLI lists these names in --help without loading vega.
  */
 export const COLOR_SCHEMES = ['viridis', 'magma', 'inferno', 'plasma', 'cividis'] as const;
 export type ColorScheme = (typeof COLOR_SCHEMES)[number];
@@ -11,19 +10,4 @@ export const DEFAULT_COLOR_SCHEME: ColorScheme = 'viridis';
 
 export function isColorScheme(name: string): name is ColorScheme {
   return (COLOR_SCHEMES as readonly string[]).includes(name);
-}
-
-/** 256 RGB triples sampled from a scheme, the same interpolator vega uses for the legend. */
-export function colorLut(name: ColorScheme): Uint8Array {
-  // vega's scheme() returns an interpolator t ∈ [0, 1] → "rgb(r, g, b)".
-  const interp = scheme(name) as (t: number) => string;
-  const lut = new Uint8Array(256 * 3);
-  for (let i = 0; i < 256; i++) {
-    const m = /rgb\((\d+),\s*(\d+),\s*(\d+)\)/.exec(interp(i / 255));
-    if (!m) throw new Error(`colour scheme ${name} gave no rgb() at ${i}`);
-    lut[i * 3] = Number(m[1]);
-    lut[i * 3 + 1] = Number(m[2]);
-    lut[i * 3 + 2] = Number(m[3]);
-  }
-  return lut;
 }

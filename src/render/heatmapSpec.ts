@@ -3,7 +3,8 @@ import type { RidgeResult } from '../analysis/Ridge.js';
 import type { MapAxis, SweepMap } from '../grid/SweepMap.js';
 import { render as msg } from '../messages.js';
 import { axisLabel, axisTicks, axisTitle, fixedLine, metricFormat, metricLabel, TICK_LABEL_EXPR } from './axisText.js';
-import { colorLut, DEFAULT_COLOR_SCHEME } from './colorSchemes.js';
+import { colorLut } from './colorLut.js';
+import { DEFAULT_COLOR_SCHEME } from './colorSchemes.js';
 import type { ColorScheme } from './colorSchemes.js';
 import { pngDataUrl } from './encodePng.js';
 import { keySpec, STYLE } from './figureKey.js';
@@ -174,8 +175,11 @@ export function facetHeatmapSpec(panels: MapPanel[], opts: HeatmapOptions = {}):
           error: p.error, prominenceSe: p.prominenceSe, noiseFrom: row.noiseFrom,
         });
       }
-      for (const { row, seg } of segments(rows, (r) => r.threshold !== null)) {
-        values.push({ layer: 'threshold', panel, seg, xc: row.threshold, yc: row.y });
+      const th = segments(rows, (r) => r.threshold !== null);
+      for (const { row, seg } of th) {
+        // A row whose neighbours have no threshold gets a dot: a one-point line draws nothing.
+        const alone = th.filter((t) => t.seg === seg).length === 1;
+        values.push({ layer: alone ? 'thresholdDot' : 'threshold', panel, seg, xc: row.threshold, yc: row.y });
       }
     }
   }
@@ -254,6 +258,14 @@ export function facetHeatmapSpec(panels: MapPanel[], opts: HeatmapOptions = {}):
     layers.push({ name: 'thresholdCasing', ...th, mark: { type: 'line', strokeWidth: 4, color: STYLE.thresholdCasing, clip: true } });
     layers.push({ name: 'threshold', ...th, mark: { type: 'line', strokeWidth: 2, color: STYLE.threshold, strokeDash: [...STYLE.thresholdDash], clip: true } });
   }
+  if (has('thresholdDot')) {
+    layers.push({
+      name: 'thresholdDots',
+      transform: [only('thresholdDot')],
+      mark: { type: 'point', shape: 'square', filled: true, opacity: 1, size: 40, color: STYLE.threshold, stroke: STYLE.thresholdCasing, strokeWidth: 1.5, clip: true },
+      encoding: { x: X('xc'), y: Y('yc') },
+    });
+  }
   if (has('ridge')) {
     const line = { transform: [only('ridge')], encoding: { x: X('xc'), y: Y('yc'), detail: { field: 'seg', type: 'nominal' }, order: { field: 'yc', type: 'quantitative' } } };
     const whisker = { transform: [only('ridge')], encoding: { x: X('low'), x2: { field: 'high' }, y: Y('yc') } };
@@ -301,11 +313,11 @@ export function facetHeatmapSpec(panels: MapPanel[], opts: HeatmapOptions = {}):
     const from = rows.every((r) => r.noiseFrom === 'curve') ? 'curve noise' : rows.some((r) => r.noiseFrom === 'curve') ? 'bootstrap over seeds or curve noise' : 'bootstrap over seeds';
     entries.push({ symbol: 'ridge', text: msg.keyRidge(from) });
   }
-  if (has('threshold')) {
+  if (has('threshold') || has('thresholdDot')) {
     const eps = panels.find((p) => p.ridge)!.ridge!.epsilon;
     // The threshold is on train error, a fraction: show it as percent.
     const epsText = `${Number((eps * 100).toPrecision(3))}%`;
-    entries.push({ symbol: 'threshold', text: msg.keyThreshold(axisLabel(first.x.name), epsText) });
+    entries.push({ symbol: 'threshold', text: msg.keyThreshold(axisLabel(first.x.name), epsText, has('thresholdDot')) });
   }
   const warnings = figureWarnings(panels.map((p) => ({ ridge: p.ridge, label: p.label })));
 

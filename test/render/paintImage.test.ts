@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { PNG } from 'pngjs';
 import { encodePng, pngDataUrl } from '../../src/render/encodePng.js';
-import { colorLut, COLOR_SCHEMES } from '../../src/render/colorSchemes.js';
+import { colorLut } from '../../src/render/colorLut.js';
+import { COLOR_SCHEMES } from '../../src/render/colorSchemes.js';
 import { MISSING_RGB, paintCells, paintRaster } from '../../src/render/paintImage.js';
 import { axisTicks } from '../../src/render/axisText.js';
 import { fixtureMap } from './mapFixture.js';
