@@ -282,7 +282,7 @@ export const report = {
   hurts: (fixed: string, onset: string, peak: string, rise: string, p: string, ratio: string | null, recovery: string | null, others: number) =>
     `More data hurts at ${fixed}: test error rises by ${rise} from train size ${onset} to ${peak}${ratio ? ` (${ratio} × the width)` : ''} (p ${p}), ` +
     `${recovery ? `and falls back to the onset level at ${recovery}` : 'and does not fall back to the onset level inside the sweep'}` +
-    `${others ? `; ${others} more slice${others === 1 ? '' : 's'} show a significant rise` : ''}.`,
+    `${others ? `; ${others} more slice${others === 1 ? ' shows' : 's show'} a significant rise` : ''}.`,
   hurtsNone: (slices: number, epochs: string) => `More data never significantly hurts at ${epochs} (${slices} train-size slices scanned).`,
   epochPeak: (parts: string, fixed: string) =>
     `Epoch-wise: test error rises and falls again with training time at ${parts}${fixed ? ` (${fixed})` : ''}.`,
