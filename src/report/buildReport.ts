@@ -222,7 +222,6 @@ export function buildReport(opts: BuildReportOptions): ReportModel {
   for (const sec of maps) {
     const main = sec.variants[sec.main];
     cautions.push(...main.cautions);
-    if (main.map.picked.length) cautions.push(msg.picked(sec.kind, main.map.picked.map((k) => `${k} ${main.map.fixed[k]}`).join(', ')));
   }
   const f = facts(table, opts, metric);
   if (f.seeds.perCellMin === 1) cautions.push(msg.oneSeed);

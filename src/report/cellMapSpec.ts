@@ -1,6 +1,7 @@
 import type { TopLevelSpec } from 'vega-lite';
 import type { RidgeResult } from '../analysis/Ridge.js';
 import type { MapAxis, SweepMap } from '../grid/SweepMap.js';
+import { STYLE } from '../render/figureKey.js';
 import { formatFixed } from './formatNumber.js';
 
 /** One measured cell as the page's hover read-out needs it. */
@@ -86,8 +87,8 @@ export interface CellMapSpecOptions {
 
 /**
  * The measured cells of a map as a heatmap (one rect per cell between its edges, viridis), with
- * missing grid points crossed, the ridge (peak and its interval per row, white) and the
- * interpolation threshold (dashed). Only measured values are drawn: nothing here is interpolated.
+ * missing grid points grey and crossed, the ridge (peak and its interval per row) and the
+ * interpolation threshold (dashed), in the render stage's mark styles. Only measured values are drawn: nothing here is interpolated.
  * Rects carry `cell`, the index into cellRecords(map), so a page can show the cell's numbers.
  */
 export function cellMapSpec(map: SweepMap, ridge: RidgeResult | null, opts: CellMapSpecOptions = {}): TopLevelSpec {
@@ -96,12 +97,21 @@ export function cellMapSpec(map: SweepMap, ridge: RidgeResult | null, opts: Cell
   const xScale = scaleOf(map.x);
   const yScale = scaleOf(map.y);
   const cells = cellRecords(map).map((c) => ({ cell: c.cell, x0: c.x0, x1: c.x1, y0: c.y0, y1: c.y1, mean: c.mean }));
-  const missing = map.missing.map((m) => ({ x: m.x, y: m.y }));
-  const peaks: { y: number; x: number; low: number; high: number }[] = [];
-  const thresholds: { y: number; t: number }[] = [];
-  for (const row of ridge?.rows ?? []) {
-    if (row.peak) peaks.push({ y: row.y, x: row.peak.x, low: row.peak.low, high: row.peak.high });
-    if (row.threshold !== null) thresholds.push({ y: row.y, t: row.threshold });
+  const missing = map.missing.map((m) => {
+    const [x0, x1] = edgesOf(map.x, m.x);
+    const [y0, y1] = edgesOf(map.y, m.y);
+    return { x: m.x, y: m.y, x0, x1, y0, y1 };
+  });
+  const peaks: { y: number; x: number; low: number; high: number; run: number }[] = [];
+  const thresholds: { y: number; t: number; run: number }[] = [];
+  // `run` numbers the unbroken stretches of rows: a row without a peak (or threshold) breaks the line.
+  let peakRun = 0;
+  let thrRun = 0;
+  for (const row of [...(ridge?.rows ?? [])].sort((a, b) => a.y - b.y)) {
+    if (row.peak) peaks.push({ y: row.y, x: row.peak.x, low: row.peak.low, high: row.peak.high, run: peakRun });
+    else peakRun++;
+    if (row.threshold !== null) thresholds.push({ y: row.y, t: row.threshold, run: thrRun });
+    else thrRun++;
   }
   const xEnc = { field: 'x', type: 'quantitative', scale: xScale, title: map.x.name };
   const yEnc = { field: 'y', type: 'quantitative', scale: yScale, title: map.y.name };
@@ -120,29 +130,37 @@ export function cellMapSpec(map: SweepMap, ridge: RidgeResult | null, opts: Cell
     },
   ];
   if (missing.length) {
-    layers.push({
-      data: { values: missing },
-      mark: { type: 'point', shape: 'cross', angle: 45, color: '#9a9a9a', size: 60, filled: true },
-      encoding: { x: xEnc, y: yEnc },
-    });
-  }
-  if (thresholds.length) {
-    layers.push({
-      data: { values: thresholds },
-      mark: { type: 'line', color: '#ff7f50', strokeDash: [5, 3], strokeWidth: 1.5, point: { color: '#ff7f50', size: 20 } },
-      encoding: { x: { field: 't', type: 'quantitative', scale: xScale, title: map.x.name }, y: { ...yEnc, sort: null }, order: { field: 'y' } },
-    });
-  }
-  if (peaks.length) {
     layers.push(
       {
-        data: { values: peaks },
-        mark: { type: 'rule', color: '#ffffff', strokeWidth: 2 },
-        encoding: { x: { field: 'low', type: 'quantitative', scale: xScale, title: map.x.name }, x2: { field: 'high' }, y: yEnc },
+        data: { values: missing },
+        mark: { type: 'rect', color: STYLE.missing },
+        encoding: { x: { field: 'x0', type: 'quantitative', scale: xScale, title: map.x.name }, x2: { field: 'x1' }, y: { field: 'y0', type: 'quantitative', scale: yScale, title: map.y.name }, y2: { field: 'y1' } },
       },
       {
+        data: { values: missing },
+        mark: { type: 'point', shape: 'cross', angle: 45, color: STYLE.missingCross, size: 60, filled: true },
+        encoding: { x: xEnc, y: yEnc },
+      },
+    );
+  }
+  if (thresholds.length) {
+    const thr = { x: { field: 't', type: 'quantitative', scale: xScale, title: map.x.name }, y: yEnc, order: { field: 'y' }, detail: { field: 'run', type: 'nominal' } };
+    layers.push(
+      { data: { values: thresholds }, mark: { type: 'line', color: STYLE.thresholdCasing, strokeWidth: 3.5 }, encoding: thr },
+      { data: { values: thresholds }, mark: { type: 'line', color: STYLE.threshold, strokeDash: STYLE.thresholdDash, strokeWidth: 1.5 }, encoding: thr },
+    );
+  }
+  if (peaks.length) {
+    const line = { x: xEnc, y: yEnc, order: { field: 'y' }, detail: { field: 'run', type: 'nominal' } };
+    const bar = { x: { field: 'low', type: 'quantitative', scale: xScale, title: map.x.name }, x2: { field: 'high' }, y: yEnc };
+    layers.push(
+      { data: { values: peaks }, mark: { type: 'line', color: STYLE.casing, strokeWidth: 4.5 }, encoding: line },
+      { data: { values: peaks }, mark: { type: 'line', color: STYLE.ridge, strokeWidth: 2 }, encoding: line },
+      { data: { values: peaks }, mark: { type: 'rule', color: STYLE.casing, strokeWidth: 4 }, encoding: bar },
+      { data: { values: peaks }, mark: { type: 'rule', color: STYLE.ridge, strokeWidth: 1.5 }, encoding: bar },
+      {
         data: { values: peaks },
-        mark: { type: 'point', shape: 'diamond', filled: true, color: '#ffffff', stroke: '#000000', strokeWidth: 0.7, size: 70 },
+        mark: { type: 'point', shape: 'circle', filled: true, color: STYLE.casing, stroke: STYLE.ridge, strokeWidth: 1.5, size: 60, opacity: 1 },
         encoding: { x: xEnc, y: yEnc },
       },
     );

@@ -58,7 +58,7 @@ function modelFindings(sec: MapSection): string[] {
   const byNoise = sec.variants
     .filter((v) => typeof v.map.fixed.label_noise === 'number' && others.every(([k, val]) => v.map.fixed[k] === val))
     .sort((a, b) => (a.map.fixed.label_noise as number) - (b.map.fixed.label_noise as number));
-  if (byNoise.length >= 2) {
+  if (byNoise.length >= 2 && byNoise.some((v) => lastPeak(v) !== null)) {
     const heights = byNoise.map((v) => {
       const r = lastPeak(v);
       return { noise: v.map.fixed.label_noise as number, prominence: r?.peak?.prominence ?? 0, row: r };

@@ -67,7 +67,7 @@ function mapSectionHtml(sec: MapSection, si: number, figures: PageFigure[]): str
 ${selector}
 <p class="meta" id="meta-${si}"></p>
 <div class="mapwrap"><div class="chart" id="map-${si}"></div><aside class="readout" id="readout-${si}" aria-live="polite"></aside></div>
-<p class="legend">Colour: measured mean per cell (nothing interpolated here). White diamond and bar: the double-descent peak of each row and its interval. Dashed orange: interpolation threshold (train error ≤ ε). Grey ×: grid point with no data.</p>
+<p class="legend">Colour: mean over seeds in each measured cell (nothing interpolated here). Circles joined by the black line: the double-descent peak of each row, whiskers its location interval; a gap means no significant peak. White dashed line: interpolation threshold (mean train error ≤ ε). Grey ×: grid point with no data.</p>
 <ul class="notes" id="notes-${si}"></ul>
 <table class="ridge"><thead><tr><th>${esc(sec.y)}</th><th>peak ${esc(sec.x)}</th><th>interval</th><th>error at peak</th><th>prominence</th><th>threshold</th><th>noise from</th></tr></thead><tbody id="ridge-${si}"></tbody></table>
 ${figs}

@@ -1,7 +1,7 @@
-import { mkdirSync, renameSync, writeFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { renderSpec } from '../render/renderSpec.js';
-import { cellMapSpec } from './cellMapSpec.js';
+import { report as msg } from '../messages.js';
+import { writeMapImages } from '../render/writeMapImages.js';
 import { composeDeck } from './composeDeck.js';
 import type { DeckBlock, DeckPage } from './composeDeck.js';
 import { formatFixed, formatNumber } from './formatNumber.js';
@@ -35,8 +35,6 @@ export interface WriteReportOptions {
   outDir: string;
   /** Pixel ratio of the PNGs (default 2). */
   scale?: number;
-  /** Extra pictures per map section from the render stage (interpolated field, slices), in model.maps order. */
-  figures?: { caption: string; png: Buffer; file: string }[][];
 }
 
 /** Writes beside, then renames: a reader never sees half a file. */
@@ -45,8 +43,6 @@ function writeAtomic(path: string, data: string | Buffer): void {
   writeFileSync(tmp, data);
   renameSync(tmp, path);
 }
-
-const slug = (s: string) => s.replace(/[^A-Za-z0-9._-]+/g, '_').replace(/^_+|_+$/g, '');
 
 /** Variants of a section that differ from the main one only in label noise (for the small multiples). */
 function noiseVariants(sec: MapSection) {
@@ -61,12 +57,6 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
   const pngDir = join(outDir, 'png');
   mkdirSync(pngDir, { recursive: true });
   const pngs: string[] = [];
-  const savePng = (name: string, buf: Buffer) => {
-    const p = join(pngDir, name);
-    writeAtomic(p, buf);
-    pngs.push(p);
-    return buf;
-  };
 
   const pages: DeckPage[] = [];
   const f = model.facts;
@@ -79,37 +69,67 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
     pages.push({ title: 'Read with care', subtitle: 'What the figures could make a reader believe wrongly', columns: [blocks] });
   }
 
-  for (const [si, sec] of model.maps.entries()) {
+  const figures: PageFigure[][] = [];
+  for (const sec of model.maps) {
     const main = sec.variants[sec.main];
-    const measured = savePng(`map-${sec.kind}.png`, (await renderSpec(cellMapSpec(main.map, main.ridge), { format: 'png', scale })) as Buffer);
-    const extra = opts.figures?.[si] ?? [];
-    for (const fig of extra) savePng(fig.file, fig.png);
+    const name = `map-${sec.kind}`;
+    // The render stage's figures: measured cells (with key and warnings), slices, the
+    // interpolated field, and the label-noise variants side by side on shared scales.
+    const read = async (paths: string[]) => {
+      const out: Buffer[] = [];
+      for (const p of paths.filter((x) => x.endsWith('.png'))) {
+        pngs.push(p);
+        out.push(readFileSync(p));
+      }
+      return out;
+    };
+    const [cells, slices] = await read(await writeMapImages({ map: main.map, ridge: main.ridge, outDir: pngDir, formats: ['png'], scale, name }));
+    const [field] = await read(await writeMapImages({ map: main.map, ridge: main.ridge, outDir: pngDir, formats: ['png'], scale, name: `${name}-field`, raster: true, withSlices: false }));
+    const byNoise = noiseVariants(sec).slice(0, 3);
+    const [noise] =
+      byNoise.length >= 2
+        ? await read(
+            await writeMapImages({
+              map: main.map,
+              ridge: main.ridge,
+              outDir: pngDir,
+              formats: ['png'],
+              scale,
+              name: `${name}-by-noise`,
+              withSlices: false,
+              facets: { panels: byNoise.map((v) => ({ map: v.map, ridge: v.ridge, label: `label_noise ${formatNumber(v.map.fixed.label_noise as number)}` })) },
+            }),
+          )
+        : [];
+    const figs: PageFigure[] = [];
+    const title = `${sec.kind[0].toUpperCase()}${sec.kind.slice(1)}-wise map: ${sec.x} × ${sec.y}`;
+    const picked = main.map.picked.length ? ` (chosen by most data: ${main.map.picked.join(', ')})` : '';
+    const mapSub = `at ${formatFixed(main.map.fixed)}${picked} · ${main.map.cells.length} measured cells, ${main.map.missing.length} missing`;
     const side: DeckBlock[] = [];
     if (main.ridge) {
-      side.push({ kind: 'heading', text: `Ridge: peak ${sec.x} per ${sec.y}` }, { kind: 'table', columns: RIDGE_COLUMNS(main.ridge), rows: ridgeRows(main.ridge), size: 9.5, align: ['right', 'right', 'right', 'right', 'left', 'right'] });
+      side.push(
+        { kind: 'heading', text: `Ridge: the peak's ${sec.x} in each ${sec.y} row` },
+        { kind: 'table', columns: RIDGE_COLUMNS(main.ridge), rows: ridgeRows(main.ridge), size: 9, align: ['right', 'right', 'right', 'right', 'right', 'right'] },
+      );
     }
     for (const c of main.cautions) side.push({ kind: 'note', text: c });
-    const title = `${sec.kind[0].toUpperCase()}${sec.kind.slice(1)}-wise map: ${sec.x} × ${sec.y}`;
-    const mapSub = `at ${formatFixed(main.map.fixed)} · ${main.map.cells.length} measured cells, ${main.map.missing.length} missing`;
-    // The interpolated field (render stage) when there is one, else the measured cells.
-    const lead = extra[0];
-    pages.push({ title, subtitle: mapSub, columns: [[{ kind: 'image', png: lead ? lead.png : measured }, ...(lead ? [{ kind: 'text', text: lead.caption, size: 9.5, color: '#5b6472' } as DeckBlock] : [])], side], widths: [3, 2] });
-    if (lead) {
-      pages.push({ title: `${title}: measured cells only`, subtitle: mapSub, columns: [[{ kind: 'image', png: measured }, { kind: 'text', text: 'Colour: mean over seeds per measured cell; nothing interpolated. White diamond and bar: peak and its interval; dashed orange: interpolation threshold; grey ×: no data.', size: 9.5, color: '#5b6472' }]] });
+    pages.push({ title, subtitle: mapSub, columns: [[{ kind: 'image', png: cells }], side], widths: [1.45, 1] });
+    pages.push({
+      title: `${title}, interpolated`,
+      subtitle: `${main.map.method} interpolation between measured cells (leave-one-out rmse ${formatNumber(main.map.loo.rmse)}); hatched areas had no run`,
+      columns: [[{ kind: 'image', png: field }, { kind: 'note', text: msg.interpolatedPage }]],
+    });
+    figs.push({ caption: `Interpolated field (${main.map.method}); hatched areas had no run.`, png: field });
+    if (slices) {
+      pages.push({ title: `${title}: slices`, subtitle: `test error along ${sec.x} at a few ${sec.y} values, with the seeds' 95% intervals`, columns: [[{ kind: 'image', png: slices }]] });
+      figs.push({ caption: `Slices along ${sec.x} with 95% intervals over seeds.`, png: slices });
     }
-    for (const fig of extra.slice(1)) pages.push({ title: `${title}: ${fig.caption}`, subtitle: mapSub, columns: [[{ kind: 'image', png: fig.png }]] });
-    // How the map changes with label noise: small multiples of the measured cells.
-    const byNoise = noiseVariants(sec);
-    if (byNoise.length >= 2) {
-      const shown = byNoise.slice(0, 3);
-      const cols: DeckBlock[][] = [];
-      for (const v of shown) {
-        const noise = v.map.fixed.label_noise;
-        const png = savePng(`map-${sec.kind}-noise-${slug(String(noise))}.png`, (await renderSpec(cellMapSpec(v.map, v.ridge, { width: 300, height: 260, title: `label_noise ${noise}` }), { format: 'png', scale })) as Buffer);
-        cols.push([{ kind: 'image', png }]);
-      }
-      pages.push({ title: `${title}: by label noise`, subtitle: `at ${formatFixed(Object.fromEntries(Object.entries(main.map.fixed).filter(([k]) => k !== 'label_noise')))}`, columns: cols });
+    if (noise) {
+      const rest = Object.fromEntries(Object.entries(main.map.fixed).filter(([k]) => k !== 'label_noise'));
+      pages.push({ title: `${title}: by label noise`, subtitle: `at ${formatFixed(rest)}; shared colour scale`, columns: [[{ kind: 'image', png: noise }]] });
+      figs.push({ caption: 'The same map at each label-noise level (shared colour scale).', png: noise });
     }
+    figures.push(figs);
   }
 
   const hurts = hurtsRows(model.hurts);
@@ -142,7 +162,6 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
   const pdfPath = join(outDir, 'report.pdf');
   writeAtomic(pdfPath, await composeDeck({ pages, footer: `${f.title} · store ${f.storeHash ?? 'unknown'} · made by datlas ${f.generatedAt}` }));
 
-  const figures: PageFigure[][] = model.maps.map((_, si) => (opts.figures?.[si] ?? []).map((x) => ({ caption: x.caption, png: x.png })));
   const htmlPath = join(outDir, 'report.html');
   writeAtomic(htmlPath, htmlPage({ model, runtime: readRuntime(), figures }));
 

@@ -17,6 +17,16 @@ if (!hasChromium && !process.env.CI) {
 }
 const EVIL = '<img src=x onerror=alert(1)>';
 
+// Browser globals used inside page.evaluate callbacks; the project's tsconfig has no DOM lib.
+interface BrowserElement {
+  getAttribute(name: string): string | null;
+  textContent: string | null;
+  getBoundingClientRect(): { left: number; top: number };
+  scrollIntoView(opts?: unknown): void;
+}
+declare const document: { querySelector(selector: string): BrowserElement | null };
+declare const window: unknown;
+
 describe.skipIf(!hasChromium && !process.env.CI)('report page in headless Chromium, network cut', () => {
   let browser: Browser;
   let page: Page;
