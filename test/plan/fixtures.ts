@@ -60,3 +60,22 @@ export function storeFor(s: SweepSpec, edits: StoreEdits = {}): RowTable {
   }
   return tableFromRows(rows);
 }
+
+/** The table as a CSV run log (canonical column names), for ingesting through the CLI. */
+export function tableCsv(t: RowTable): string {
+  const cols = ['run', 'condition', 'width', 'train_size', 'label_noise', 'seed', 'epochs', 'test_error', 'train_error', 'wall_seconds', 'status'] as const;
+  const lines: string[] = [cols.join(',')];
+  for (let i = 0; i < t.length; i++) {
+    lines.push(
+      cols
+        .map((c) => {
+          const v = (t[c] as ArrayLike<number | string>)[i];
+          // Diverged runs log NaN errors, as real training scripts print them.
+          if (typeof v === 'number' && Number.isNaN(v)) return c === 'test_error' || c === 'train_error' ? 'nan' : '';
+          return String(v);
+        })
+        .join(','),
+    );
+  }
+  return lines.join('\n') + '\n';
+}
