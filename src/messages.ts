@@ -148,8 +148,8 @@ export const analysisText = {
     z < min
       ? ` (a bump of ${fmtNum(prominence)} at ${x} ${fmtNum(cx)} sits inside the noise: ${fmtNum(z)} SE < ${min})`
       : ` (a bump of ${fmtNum(prominence)} at ${x} ${fmtNum(cx)}, ${fmtNum(z)} SE, is no taller than noise makes somewhere along the row: search-wide ${fmtP(p ?? 1)} >= ${alpha})`,
-  ridgeCurveNoise: (sd: number) =>
-    `    one seed per cell: significance and interval come from the curve's own noise (sd ≈ ${fmtNum(sd)}), not from seeds`,
+  ridgeCurveNoise: (rows: number, total: number) =>
+    `one seed per cell in ${rows} of ${total} rows (marked *): there, significance and intervals come from the curve's own noise, not from seeds`,
   ridgeThreshold: (x: string, t: number | null, epsilon: number, ratio: number | null, atEdge = false) =>
     t === null
       ? `    train error never reaches ${epsilon}: no interpolation threshold in this row`
@@ -198,6 +198,7 @@ export const render = {
   badSliceAxis: (axis: string, y: string) => `--slices names '${axis}' but this map's rows are ${y}`,
   badFacet: (name: string) => `--facet expects label_noise or condition, got '${name}'`,
   noCells: (kind: string) => `the ${kind} map has no measured cells: nothing to draw`,
+  badPngScale: (text: string) => `--png-scale expects a pixel ratio between 0 and 8 (e.g. 2), got '${text}'`,
 };
 
 

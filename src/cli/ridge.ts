@@ -31,15 +31,17 @@ function ridgeJson(r: RidgeResult, map: SweepMap) {
 
 function ridgeText(r: RidgeResult): string {
   const lines = [t.ridgeHeader(r.map, r.metric, r.x, r.y, r.fixed)];
+  const curveRows = r.rows.filter((row) => row.noiseFrom === 'curve').length;
+  if (curveRows > 0) lines.push(t.ridgeCurveNoise(curveRows, r.rows.length));
   for (const row of r.rows) {
+    const mark = row.noiseFrom === 'curve' ? '* ' : '';
     if (row.peak) {
       const p = row.peak;
-      lines.push(t.ridgePeak({ y: r.y, yv: row.y, x: r.x, px: p.x, low: p.low, high: p.high, level: r.level ?? 0.95, metric: r.metric, error: p.error, prominence: p.prominence, z: p.prominenceSe }));
+      lines.push(mark + t.ridgePeak({ y: r.y, yv: row.y, x: r.x, px: p.x, low: p.low, high: p.high, level: r.level ?? 0.95, metric: r.metric, error: p.error, prominence: p.prominence, z: p.prominenceSe }));
       for (const o of row.others) lines.push(t.ridgeOther(r.x, o.x, o.prominence, o.prominenceSe));
-      if (row.noiseFrom === 'curve') lines.push(t.ridgeCurveNoise(row.noiseSd ?? NaN));
     } else {
       const bump = row.insideNoise;
-      lines.push(t.ridgeNone(r.y, row.y) + (bump ? t.ridgeInsideNoise(r.x, bump.cellX, bump.prominence, bump.prominenceSe, r.minProminence, bump.p, r.alpha) : ''));
+      lines.push(mark + t.ridgeNone(r.y, row.y) + (bump ? t.ridgeInsideNoise(r.x, bump.cellX, bump.prominence, bump.prominenceSe, r.minProminence, bump.p, r.alpha) : ''));
     }
     lines.push(t.ridgeThreshold(r.x, row.threshold, r.epsilon, row.ratio, row.thresholdAtEdge));
   }
@@ -63,6 +65,7 @@ export const command: CommandSpec<RidgeArgs> = {
       .option('epsilon', { type: 'number', default: 0.01, describe: 'train error at or below which the interpolation threshold is reached' })
       .option('store', { type: 'string', default: 'atlas-store', describe: 'store directory' }),
   async run(args) {
+    if (!(['model', 'sample', 'epoch'] as string[]).includes(args.kind)) throw usageError(t.badKind(String(args.kind)));
     checkNumber('--min-prominence', args.minProminence, (v) => v >= 0, 'a number >= 0');
     checkNumber('--alpha', args.alpha, (v) => v > 0 && v <= 1, 'a level in (0, 1]');
     checkNumber('--boot', args.boot, (v) => v >= 0 && v <= 1e6 && Number.isInteger(v), 'a whole number of rounds (0 to 1,000,000)');
