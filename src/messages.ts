@@ -79,6 +79,23 @@ export const storeText = {
 };
 
 // ── simulate ─────────────────────────────────────────────────────────────────
+export const simulateMessages = {
+  badPreset: (name: string, names: readonly string[]) => `--preset must be one of ${names.join(', ')}, got '${name}'`,
+  badShape: (name: string, names: readonly string[]) => `--shape must be one of ${names.join(', ')}, got '${name}'`,
+  badCount: (flag: string, text: string) => `${flag} expects a whole number >= 1, got '${text}'`,
+  badRidge: (text: string) => `--ridge expects a number >= 0 or 'optimal', got '${text}'`,
+  ridgeNeedsLinear: (preset: string) => `--ridge applies to --preset linear only (preset is ${preset})`,
+  noiseNeedsFeatures: '--label-noise applies to the random-features presets, not --preset linear (its noise is sigma2)',
+  epochsNeedFeatures: '--epochs applies to the random-features presets; --preset linear logs one closed-form fit per run',
+  badValues: (flag: string, what: string) => `${flag}: ${what}`,
+  outNotEmpty: (dir: string) => `${dir} is not empty; choose another --out or pass --force (files of the same name are overwritten, nothing is deleted)`,
+  wrote: (runs: number, rows: number, files: number, dir: string, seconds: number, shape: string) =>
+    `wrote ${runs} runs (${rows} rows) as ${shape} to ${dir} (${files} files) in ${seconds.toFixed(1)} s`,
+  nextStep: (dir: string) => `next: datlas ingest ${dir}`,
+  linearNote: 'linear-Gaussian mode: test_loss is the risk on a fresh test set (σ² included); column risk is its exact expected value for the fit; compare their seed means with Belkin, Hsu & Xu (2019) Thm 1',
+  peakNote: 'test_loss is heavy-tailed near the interpolation threshold; prefer test_error or a median across seeds there',
+};
+
 
 // ── cells / grid / map ───────────────────────────────────────────────────────
 export const mapMessages = {

@@ -16,6 +16,7 @@ const COMMANDS: Record<string, { describe: string; load: () => Promise<{ command
   map: { describe: 'a map of test error over two axes, interpolated, with leave-one-out error', load: () => import('./map.js') },
   plan: { describe: 'rank the next runs (gaps, new widths, extra seeds) within a budget; export csv/json/shell/slurm', load: () => import('./plan.js') },
   ridge: { describe: 'the double-descent peak per map row, with interval and threshold', load: () => import('./ridge.js') },
+  simulate: { describe: 'simulate a double-descent sweep and write its run logs', load: () => import('./simulate.js') },
   // registry:end
 };
 

@@ -8,7 +8,8 @@ export class Rng {
   private b: number;
   private c: number;
   private d: number;
-  private spare = NaN;
+  private spare = 0;
+  private hasSpare = false;
 
   constructor(seed: number, stream = 0) {
     let x = (Math.imul(seed | 0, 0x9e3779b1) ^ Math.imul((stream | 0) + 0x7f4a7c15, 0x85ebca6b)) >>> 0;
@@ -44,18 +45,17 @@ export class Rng {
     return ((this.u32() >>> 5) * 67108864 + (this.u32() >>> 6)) / 9007199254740992;
   }
 
-  /** Standard normal (Box–Muller, both values used). */
+  /** Standard normal (Box–Muller on 32-bit uniforms, both values used; tails cut at 6.6σ). */
   normal(): number {
-    if (!Number.isNaN(this.spare)) {
-      const v = this.spare;
-      this.spare = NaN;
-      return v;
+    if (this.hasSpare) {
+      this.hasSpare = false;
+      return this.spare;
     }
-    let u = this.uniform();
-    while (u === 0) u = this.uniform();
+    const u = (this.u32() + 0.5) / 4294967296;
+    const th = (2 * Math.PI * this.u32()) / 4294967296;
     const r = Math.sqrt(-2 * Math.log(u));
-    const th = 2 * Math.PI * this.uniform();
     this.spare = r * Math.sin(th);
+    this.hasSpare = true;
     return r * Math.cos(th);
   }
 

@@ -33,7 +33,7 @@ export function symmetricEigen(a: Float64Array, n: number, opts: SymmetricEigenO
   const hh = new Float64Array(n);
   if (n === 0) return { n, values: d, vectors: new Float64Array(0) };
   tridiagonalise(A, n, d, e, hh);
-  let Z = new Float64Array(0);
+  let Z: Float64Array = new Float64Array(0);
   if (wantVectors) Z = accumulate(A, n, hh);
   implicitQl(d, e, n, wantVectors ? Z : null);
   sortAscending(d, Z, n, wantVectors);

@@ -1,0 +1,78 @@
+import { Worker } from 'node:worker_threads';
+import { createRequire } from 'node:module';
+import { pathToFileURL } from 'node:url';
+import { dirname, join } from 'node:path';
+import type { RowTable } from '../store/RowTable.js';
+import { concatTables } from './concatTables.js';
+import { featuresTask, featuresTasks, resolveFeaturesOptions } from './featuresSweep.js';
+import type { FeaturesSweepOptions } from './featuresSweep.js';
+
+/**
+ * featuresSweep across worker threads: the (seed, train size) tasks go to `workers` threads,
+ * largest first, and the rows come back in the same order as the in-process sweep, so the
+ * result is identical apart from the measured wall_seconds.
+ *
+ * From the compiled dist/ the worker loads sweepWorker.js directly; from the TypeScript sources
+ * (tsx) a small bootstrap registers tsx inside the worker first, since loader hooks of the main
+ * thread do not reach worker threads on Node 20.
+ */
+export async function featuresSweepParallel(opts: FeaturesSweepOptions & { workers: number }): Promise<RowTable> {
+  const r = resolveFeaturesOptions(opts);
+  const tasks = featuresTasks(r);
+  const workers = Math.max(1, Math.min(Math.floor(opts.workers), tasks.length));
+  if (workers === 1) return concatTables(tasks.map((t) => featuresTask(r, t, opts.onRun)));
+
+  const results: RowTable[] = new Array(tasks.length);
+  // Largest train size first: the longest tasks start early and the tail stays short.
+  const queue = tasks.map((t, i) => ({ t, i })).sort((a, b) => b.t.trainSize - a.t.trainSize || a.i - b.i);
+  const pool = Array.from({ length: workers }, () => startWorker());
+  try {
+    await new Promise<void>((resolve, reject) => {
+      let finished = 0;
+      let failed = false;
+      const feed = (w: Worker) => {
+        const next = queue.shift();
+        if (next) w.postMessage({ index: next.i, options: r, task: next.t });
+      };
+      for (const w of pool) {
+        w.on('message', (msg: { type: string; index: number; table?: RowTable; message?: string }) => {
+          if (msg.type === 'run') opts.onRun?.();
+          else if (msg.type === 'done') {
+            results[msg.index] = msg.table!;
+            if (++finished === tasks.length) resolve();
+            else feed(w);
+          } else if (msg.type === 'error' && !failed) {
+            failed = true;
+            reject(new Error(msg.message));
+          }
+        });
+        w.on('error', (err) => {
+          if (!failed) {
+            failed = true;
+            reject(err);
+          }
+        });
+        w.on('exit', (code) => {
+          if (code !== 0 && !failed && finished < tasks.length) {
+            failed = true;
+            reject(new Error(`simulation worker stopped with exit code ${code}`));
+          }
+        });
+        feed(w);
+      }
+    });
+  } finally {
+    await Promise.all(pool.map((w) => w.terminate()));
+  }
+  return concatTables(results);
+}
+
+function startWorker(): Worker {
+  const here = import.meta.url;
+  if (!here.endsWith('.ts')) return new Worker(new URL('./sweepWorker.js', here));
+  // The ESM build of tsx's API (its CommonJS build cannot register hooks from a worker).
+  const tsxApi = pathToFileURL(join(dirname(createRequire(here).resolve('tsx/package.json')), 'dist/esm/api/index.mjs')).href;
+  const entry = new URL('./sweepWorker.ts', here).href;
+  const boot = `import(${JSON.stringify(tsxApi)}).then((m) => { m.register(); return import(${JSON.stringify(entry)}); });`;
+  return new Worker(boot, { eval: true });
+}
