@@ -2,8 +2,16 @@
  * What a reader hands to normalisation: the columns of one source as read (strings, numbers or
  * nothing), before mapping and validation. Columnar so a million-row file costs no row objects.
  */
+import { NumTextColumn } from './NumTextColumn.js';
+
 export type RawValue = string | number | boolean | null | undefined;
-export type RawColumn = RawValue[] | Float64Array;
+export type RawColumn = RawValue[] | Float64Array | NumTextColumn;
+
+/** Cell i of a column, whatever its representation. */
+export function cellAt(col: RawColumn, i: number): RawValue {
+  if (col instanceof NumTextColumn) return col.at(i);
+  return col[i];
+}
 
 export interface RawTable {
   format: string;

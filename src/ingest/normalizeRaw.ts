@@ -1,5 +1,6 @@
 import { emptyTable, NUMERIC_COLUMNS } from '../store/RowTable.js';
 import type { NumericColumn, RowTable, RunStatus } from '../store/RowTable.js';
+import { cellAt } from './RawTable.js';
 import type { RawColumn, RawTable, RawValue } from './RawTable.js';
 import { CELL_BAD, CELL_MISSING, CELL_NONFINITE, isNumericColumn, parseColumn } from './parseNumbers.js';
 import type { ParsedColumn } from './parseNumbers.js';
@@ -163,7 +164,7 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     }
     if (NOT_CONDITION.has(nameKey(name))) return;
     const levels = new Set<string>();
-    for (let i = 0; i < n && levels.size <= MAX_CONDITION_LEVELS; i++) levels.add(text((col as RawValue[])[i]));
+    for (let i = 0; i < n && levels.size <= MAX_CONDITION_LEVELS; i++) levels.add(text(cellAt(col, i)));
     if (levels.size <= MAX_CONDITION_LEVELS) condCols.push({ key: name, j });
     else notes.push(ingestText.skippedColumn(source, name));
   });
@@ -195,17 +196,43 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     } else if (c && (forced === 'percent' || (!forced && c.value > 1 && c.value <= 100))) c.value /= 100;
   }
 
-  // 6. Per-row checks and output.
+  // 6. Per-row checks and output, column arrays only (no per-row objects on this path).
   const extraNames = extraCols.map((e) => e.name).filter((x) => !(NUMERIC_COLUMNS as readonly string[]).includes(x));
-  const extraParsed = extraCols.filter((e) => extraNames.includes(e.name)).map((e) => ({ name: e.name, p: parseColumn(raw.columns[e.j], n) }));
+  const extraParsed = extraCols.filter((e) => extraNames.includes(e.name)).map((e) => ({ name: e.name, j: e.j, p: parseColumn(raw.columns[e.j], n) }));
   const out = emptyTable(n, extraNames);
   const rejects: Reject[] = [];
   const fieldName = (t: Target) => (colOf[t] !== undefined ? raw.names[colOf[t]!] : mapping[t] ?? t);
-  const get = (t: Target, i: number): { value: number; kind: number } | null => {
+  // Every numeric target as full-length value and kind arrays (constants repeated, absent = missing).
+  const V = {} as Record<Target, Float64Array>;
+  const K = {} as Record<Target, Uint8Array>;
+  for (const t of numericTargets) {
     const p = parsed[t];
-    if (p) return { value: p.values[i], kind: p.kind[i] };
-    return constNum[t] ?? null;
+    if (p) {
+      V[t] = p.values;
+      K[t] = p.kind;
+    } else {
+      const c = constNum[t];
+      V[t] = new Float64Array(n).fill(c ? c.value : NaN);
+      K[t] = new Uint8Array(n).fill(c ? c.kind : CELL_MISSING);
+    }
+  }
+  // The first unparseable cell of each row, found column by column.
+  const badAt = new Int16Array(n).fill(-1);
+  const badSources: { field: string; j: number }[] = [];
+  const markBad = (kind: Uint8Array, field: string, j: number) => {
+    const id = badSources.length;
+    let any = false;
+    for (let i = 0; i < n; i++) {
+      if (kind[i] === CELL_BAD && badAt[i] < 0) {
+        badAt[i] = id;
+        any = true;
+      }
+    }
+    if (any) badSources.push({ field, j });
   };
+  for (const t of numericTargets) if (parsed[t]) markBad(parsed[t]!.kind, fieldName(t), colOf[t]!);
+  for (const e of extraParsed) markBad(e.p.kind, e.name, e.j);
+
   const condFixedText = [...condFixed.entries()];
   const fixedCondition = condCols.length === 0 ? formatCondition(condFixedText) : '';
   const runCol = colOf.run !== undefined ? (raw.columns[colOf.run] as RawColumn) : null;
@@ -219,130 +246,131 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     return digits ? Number(digits[0]) : NaN;
   })();
   if (Number.isFinite(seedFromPath)) mapping.seed = `path ${seedFrom ? '--seed-from' : 'seed<N>'}`;
-  const hasMetric = parsed.test_error || constNum.test_error || parsed.test_loss || constNum.test_loss || parsed.test_accuracy || constNum.test_accuracy;
+  const hasMetric = !!(parsed.test_error || constNum.test_error || parsed.test_loss || constNum.test_loss || parsed.test_accuracy || constNum.test_accuracy);
   const missingAxis = (['width', 'epochs', 'train_size'] as const).filter((t) => !parsed[t] && !constNum[t]);
   for (const t of missingAxis) notes.push(ingestText.missingAxis(source, t));
   if (!hasMetric) notes.push(ingestText.missingMetric(source));
+  const noMetricField = hasMetric ? fieldName(parsed.test_error ? 'test_error' : parsed.test_loss ? 'test_loss' : 'test_accuracy') : 'test_error';
 
+  const Vw = V.width, Kw = K.width, Ve = V.epochs, Ke = K.epochs, Vn = V.train_size, Kn = K.train_size;
+  const Vl = V.label_noise, Kl = K.label_noise, Vs = V.seed, Ks = K.seed;
+  const errPairs = [
+    { t: 'test_error' as const, acc: 'test_accuracy' as const, out: out.test_error, isTest: true },
+    { t: 'train_error' as const, acc: 'train_accuracy' as const, out: out.train_error, isTest: false },
+  ];
+  const lossCols = [
+    { t: 'test_loss' as const, out: out.test_loss, isTest: true },
+    { t: 'train_loss' as const, out: out.train_loss, isTest: false },
+  ];
   let k = 0;
+  const last = { run: '', width: NaN, train_size: NaN, label_noise: NaN, seed: NaN, condition: '' };
   const reject = (i: number, field: string, reason: string) => rejects.push({ source, line: raw.lines[i], field, reason });
   rows: for (let i = 0; i < n; i++) {
-    const err = raw.rowErrors.get(i);
+    const err = raw.rowErrors.size > 0 ? raw.rowErrors.get(i) : undefined;
     if (err) {
       reject(i, err.field, err.reason);
       continue;
     }
-    // Unparseable numbers first: name the column and the text.
-    for (const t of numericTargets) {
-      const p = parsed[t];
-      if (p && p.kind[i] === CELL_BAD) {
-        reject(i, fieldName(t), ingestText.notANumber(text((raw.columns[colOf[t]!] as RawValue[])[i])));
-        continue rows;
-      }
-    }
-    for (const e of extraParsed) {
-      if (e.p.kind[i] === CELL_BAD) {
-        reject(i, e.name, ingestText.notANumber(text((raw.columns[extraCols.find((x) => x.name === e.name)!.j] as RawValue[])[i])));
-        continue rows;
-      }
-    }
-    let status: RunStatus = 'ok';
-    const axes: Record<'width' | 'epochs' | 'train_size' | 'label_noise' | 'seed', number> = { width: NaN, epochs: NaN, train_size: NaN, label_noise: 0, seed: NaN };
-    for (const t of ['width', 'epochs', 'train_size'] as const) {
-      const c = get(t, i);
-      if (!c || c.kind === CELL_MISSING) {
-        reject(i, fieldName(t), ingestText.missing(t));
-        continue rows;
-      }
-      const v = c.value;
-      const okValue = t === 'width' ? v > 0 : t === 'epochs' ? v >= 0 : v > 0 && Number.isInteger(v);
-      if (!Number.isFinite(v) || !okValue) {
-        reject(i, fieldName(t), ingestText.badAxis(t, v));
-        continue rows;
-      }
-      axes[t] = v;
-    }
-    const noise = get('label_noise', i);
-    if (noise && noise.kind !== CELL_MISSING) {
-      if (!(noise.value >= 0 && noise.value <= 1)) {
-        reject(i, fieldName('label_noise'), ingestText.outOfRange('label_noise', noise.value));
-        continue;
-      }
-      axes.label_noise = noise.value;
-    }
-    const seed = get('seed', i);
-    if (seed && seed.kind !== CELL_MISSING) {
-      if (!Number.isInteger(seed.value)) {
-        reject(i, fieldName('seed'), ingestText.badSeed(seed.value));
-        continue;
-      }
-      axes.seed = seed.value;
-    } else axes.seed = seedFromPath;
-
-    // Metrics: errors are fractions in [0,1]; accuracy becomes 1 − accuracy; non-finite = diverged.
-    const metric: Record<'test_error' | 'train_error' | 'test_loss' | 'train_loss', number> = { test_error: NaN, train_error: NaN, test_loss: NaN, train_loss: NaN };
-    let anyTest = false;
-    for (const [t, acc] of [['test_error', 'test_accuracy'], ['train_error', 'train_accuracy']] as const) {
-      let c = get(t, i);
-      let from: Target = t;
-      if (!c || c.kind === CELL_MISSING) {
-        const a = get(acc, i);
-        if (a && a.kind !== CELL_MISSING) {
-          c = { value: 1 - a.value, kind: a.kind };
-          from = acc;
-        }
-      }
-      if (!c || c.kind === CELL_MISSING) continue;
-      if (t === 'test_error') anyTest = true;
-      if (c.kind === CELL_NONFINITE) {
-        status = 'diverged';
-        continue;
-      }
-      if (!(c.value >= -1e-12 && c.value <= 1 + 1e-12)) {
-        reject(i, fieldName(from), ingestText.outOfRange(from, from === t ? c.value : 1 - c.value));
-        continue rows;
-      }
-      metric[t] = Math.min(1, Math.max(0, c.value));
-    }
-    for (const t of ['test_loss', 'train_loss'] as const) {
-      const c = get(t, i);
-      if (!c || c.kind === CELL_MISSING) continue;
-      if (t === 'test_loss') anyTest = true;
-      if (c.kind === CELL_NONFINITE) {
-        status = 'diverged';
-        continue;
-      }
-      if (!(c.value >= 0)) {
-        reject(i, fieldName(t), ingestText.outOfRange(t, c.value));
-        continue rows;
-      }
-      metric[t] = c.value;
-    }
-    if (!anyTest) {
-      reject(i, hasMetric ? fieldName(parsed.test_error ? 'test_error' : parsed.test_loss ? 'test_loss' : 'test_accuracy') : 'test_error', ingestText.noMetric);
+    if (badAt[i] >= 0) {
+      const b = badSources[badAt[i]];
+      reject(i, b.field, ingestText.notANumber(text(cellAt(raw.columns[b.j], i))));
       continue;
     }
-    if (statusCol && /^(diverged|failed|nan|inf|crashed)$/i.test(text((statusCol as RawValue[])[i]))) status = 'diverged';
-    const wall = get('wall_seconds', i);
+    const width = Vw[i];
+    const epochs = Ve[i];
+    const trainSize = Vn[i];
+    if (Kw[i] === CELL_MISSING) { reject(i, fieldName('width'), ingestText.missing('width')); continue; }
+    if (!(width > 0) || width === Infinity) { reject(i, fieldName('width'), ingestText.badAxis('width', width)); continue; }
+    if (Ke[i] === CELL_MISSING) { reject(i, fieldName('epochs'), ingestText.missing('epochs')); continue; }
+    if (!(epochs >= 0) || epochs === Infinity) { reject(i, fieldName('epochs'), ingestText.badAxis('epochs', epochs)); continue; }
+    if (Kn[i] === CELL_MISSING) { reject(i, fieldName('train_size'), ingestText.missing('train_size')); continue; }
+    if (!(trainSize > 0) || !Number.isInteger(trainSize)) { reject(i, fieldName('train_size'), ingestText.badAxis('train_size', trainSize)); continue; }
+    let noise = 0;
+    if (Kl[i] !== CELL_MISSING) {
+      noise = Vl[i];
+      if (!(noise >= 0 && noise <= 1)) { reject(i, fieldName('label_noise'), ingestText.outOfRange('label_noise', noise)); continue; }
+    }
+    let seed = seedFromPath;
+    if (Ks[i] !== CELL_MISSING) {
+      seed = Vs[i];
+      if (!Number.isInteger(seed)) { reject(i, fieldName('seed'), ingestText.badSeed(seed)); continue; }
+    }
+
+    // Metrics: errors are fractions in [0,1]; accuracy becomes 1 − accuracy; non-finite = diverged.
+    let status: RunStatus = 'ok';
+    let anyTest = false;
+    for (const e of errPairs) {
+      let v = V[e.t][i];
+      let kind = K[e.t][i];
+      let from: Target = e.t;
+      if (kind === CELL_MISSING && K[e.acc][i] !== CELL_MISSING) {
+        v = 1 - V[e.acc][i];
+        kind = K[e.acc][i];
+        from = e.acc;
+      }
+      e.out[k] = NaN;
+      if (kind === CELL_MISSING) continue;
+      if (e.isTest) anyTest = true;
+      if (kind === CELL_NONFINITE) {
+        status = 'diverged';
+        continue;
+      }
+      if (!(v >= -1e-12 && v <= 1 + 1e-12)) {
+        reject(i, fieldName(from), ingestText.outOfRange(from, from === e.t ? v : 1 - v));
+        continue rows;
+      }
+      e.out[k] = v < 0 ? 0 : v > 1 ? 1 : v;
+    }
+    for (const l of lossCols) {
+      const kind = K[l.t][i];
+      const v = V[l.t][i];
+      l.out[k] = NaN;
+      if (kind === CELL_MISSING) continue;
+      if (l.isTest) anyTest = true;
+      if (kind === CELL_NONFINITE) {
+        status = 'diverged';
+        continue;
+      }
+      if (!(v >= 0)) {
+        reject(i, fieldName(l.t), ingestText.outOfRange(l.t, v));
+        continue rows;
+      }
+      l.out[k] = v;
+    }
+    if (!anyTest) {
+      reject(i, noMetricField, ingestText.noMetric);
+      continue;
+    }
+    if (statusCol && /^(diverged|failed|nan|inf|crashed)$/i.test(text(cellAt(statusCol, i)))) status = 'diverged';
 
     // Condition: fixed config keys plus per-row label columns, `key=value` sorted by key.
     let condition = fixedCondition;
     if (condCols.length > 0) {
       const pairs: [string, string][] = condFixedText.slice();
       for (const c of condCols) {
-        const v = text((raw.columns[c.j] as RawValue[])[i]);
+        const v = text(cellAt(raw.columns[c.j], i));
         if (v !== '') pairs.push([c.key, v]);
       }
       condition = formatCondition(pairs);
     }
     if (condCol) {
-      const v = text((condCol as RawValue[])[i]);
+      const v = text(cellAt(condCol, i));
       if (v !== '') condition = condition === '' ? v : `${v},${condition}`;
     }
-    let run = runCol ? text((runCol as RawValue[])[i]) : '';
+    let run = runCol ? text(cellAt(runCol, i)) : '';
     if (run === '') {
-      run = `${condition === '' ? '' : `${condition},`}width=${axes.width},train_size=${axes.train_size},label_noise=${axes.label_noise}`;
-      run += Number.isFinite(axes.seed) ? `,seed=${axes.seed}` : `,source=${source}`;
+      // Rows of one run are usually contiguous: reuse the id while the configuration repeats.
+      if (width !== last.width || trainSize !== last.train_size || noise !== last.label_noise ||
+          !(seed === last.seed || (seed !== seed && last.seed !== last.seed)) || condition !== last.condition || last.run === '') {
+        last.run = `${condition === '' ? '' : `${condition},`}width=${width},train_size=${trainSize},label_noise=${noise}` +
+          (Number.isFinite(seed) ? `,seed=${seed}` : `,source=${source}`);
+        last.width = width;
+        last.train_size = trainSize;
+        last.label_noise = noise;
+        last.seed = seed;
+        last.condition = condition;
+      }
+      run = last.run;
     }
 
     out.run[k] = run;
@@ -350,16 +378,13 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     out.source[k] = source;
     out.source_line[k] = raw.lines[i];
     out.status[k] = status;
-    out.seed[k] = axes.seed;
-    out.width[k] = axes.width;
-    out.epochs[k] = axes.epochs;
-    out.train_size[k] = axes.train_size;
-    out.label_noise[k] = axes.label_noise;
-    out.test_error[k] = metric.test_error;
-    out.train_error[k] = metric.train_error;
-    out.test_loss[k] = metric.test_loss;
-    out.train_loss[k] = metric.train_loss;
-    out.wall_seconds[k] = wall && wall.kind === 0 ? wall.value : NaN;
+    out.seed[k] = seed;
+    out.width[k] = width;
+    out.epochs[k] = epochs;
+    out.train_size[k] = trainSize;
+    out.label_noise[k] = noise;
+    const wall = V.wall_seconds[i];
+    out.wall_seconds[k] = K.wall_seconds[i] === 0 ? wall : NaN;
     for (const e of extraParsed) out.extra[e.name][k] = e.p.values[i];
     k++;
   }

@@ -1,4 +1,5 @@
 import type { RawColumn } from './RawTable.js';
+import { NumTextColumn } from './NumTextColumn.js';
 
 /** How a cell read as a number: a value, nothing, an explicit non-finite value, or not a number. */
 export const CELL_OK = 0;
@@ -20,9 +21,27 @@ export interface ParsedColumn {
 
 /** Parses one column into numbers in a single pass (cell kinds say why a value is NaN). */
 export function parseColumn(col: RawColumn, n: number): ParsedColumn {
-  const values = new Float64Array(n);
   const kind = new Uint8Array(n);
   let percentSign = false;
+  if (col instanceof NumTextColumn) {
+    // Takes over the column's own array (a raw table is read once).
+    const values = col.values.length === n ? col.values : col.values.slice(0, n);
+    for (let i = 0; i < n; i++) {
+      const v = values[i];
+      if (v === Infinity || v === -Infinity) kind[i] = CELL_NONFINITE;
+    }
+    if (col.texts.size > 0) {
+      const texts = [...col.texts.entries()];
+      const sub = parseColumn(texts.map(([, t]) => t), texts.length);
+      texts.forEach(([row], k) => {
+        values[row] = sub.values[k];
+        kind[row] = sub.kind[k];
+      });
+      percentSign = sub.percentSign;
+    }
+    return { values, kind, percentSign };
+  }
+  const values = new Float64Array(n);
   if (col instanceof Float64Array) {
     for (let i = 0; i < n; i++) {
       const v = col[i];
@@ -75,6 +94,11 @@ export function parseColumn(col: RawColumn, n: number): ParsedColumn {
 /** Whether every non-empty cell of a column reads as a number (so it is a metric, not a label). */
 export function isNumericColumn(col: RawColumn, n: number): boolean {
   if (col instanceof Float64Array) return true;
+  if (col instanceof NumTextColumn) {
+    if (col.texts.size === n) return isNumericColumn([...col.texts.values()], col.texts.size);
+    for (const t of col.texts.values()) if (t.trim() !== '' && !(t.trim().toLowerCase() in NONFINITE)) return false;
+    return true;
+  }
   let any = false;
   for (let i = 0; i < n; i++) {
     const c = col[i];

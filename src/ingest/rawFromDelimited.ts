@@ -1,6 +1,8 @@
 import { emptyRaw } from './RawTable.js';
-import type { RawTable } from './RawTable.js';
-import { tokenizeDelimited, tokenizeWhitespace } from './tokenizeDelimited.js';
+import type { RawTable, RawValue } from './RawTable.js';
+import { tokenizeWhitespace } from './tokenizeDelimited.js';
+import { tokenizeToColumns } from './tokenizeToColumns.js';
+
 import { ingestText } from '../messages.js';
 
 /**
@@ -11,28 +13,35 @@ import { ingestText } from '../messages.js';
 export function rawFromDelimited(text: string, delimiter: ',' | '\t' | 'whitespace'): RawTable {
   const format = delimiter === ',' ? 'csv' : delimiter === '\t' ? 'tsv' : 'text';
   const raw = emptyRaw(format);
-  let columns: string[][] = [];
+  if (delimiter !== 'whitespace') {
+    const t = tokenizeToColumns(text, delimiter);
+    raw.names = t.names;
+    raw.columns = t.columns;
+    raw.lines = t.lines;
+    raw.length = t.lines.length;
+    raw.rowErrors = t.rowErrors;
+    raw.pendingLine = t.pendingLine;
+    return raw;
+  }
+  let columns: RawValue[][] = [];
   let width = 0;
-  const onRow = (fields: string[], count: number, line: number) => {
+  const end = tokenizeWhitespace(text, (fields, count, line) => {
     if (width === 0) {
-      raw.names = fields.slice(0, count).map((f) => f.trim());
+      raw.names = fields.slice(0, count);
       width = count;
       columns = raw.names.map(() => []);
-      raw.columns = columns;
       return;
     }
     const row = raw.length;
     raw.lines.push(line);
     raw.length = row + 1;
-    if (count !== width) {
-      raw.rowErrors.set(row, { field: '', reason: ingestText.fieldCount(width, count) });
-      for (let j = 0; j < width; j++) columns[j][row] = '';
-      return;
-    }
-    for (let j = 0; j < width; j++) columns[j][row] = fields[j];
-  };
-  const end = delimiter === 'whitespace' ? tokenizeWhitespace(text, onRow) : tokenizeDelimited(text, delimiter, onRow);
+    if (count !== width) raw.rowErrors.set(row, { field: '', reason: ingestText.fieldCount(width, count) });
+    for (let j = 0; j < width; j++) columns[j][row] = j < count ? fields[j] : '';
+  });
+  raw.columns = columns;
   // A header still being written is not a row; only a data row can be pending.
   raw.pendingLine = width === 0 ? 0 : end.pendingLine;
   return raw;
 }
+
+
