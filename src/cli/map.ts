@@ -3,10 +3,12 @@ import { join } from 'node:path';
 import type { Argv } from 'yargs';
 import type { CommandSpec } from './CommandSpec.js';
 import { parseAt } from './parseAt.js';
-import { mapMessages as msg } from '../messages.js';
+import { mapMessages as msg, render as renderMsg } from '../messages.js';
 import { usageError } from '../UserError.js';
 import type { Metric } from '../store/RowTable.js';
 import type { AxisScale, MapKind, MethodName, SweepMap } from '../grid/SweepMap.js';
+import { COLOR_SCHEMES, DEFAULT_COLOR_SCHEME } from '../render/colorSchemes.js';
+import type { ColorScheme } from '../render/colorSchemes.js';
 
 interface MapArgs {
   kind: MapKind;
@@ -15,7 +17,11 @@ interface MapArgs {
   at?: string[];
   metric?: Metric;
   method: MethodName | 'auto';
-  raster: string;
+  raster?: string;
+  slices?: string;
+  facet?: 'label_noise' | 'condition';
+  colors: ColorScheme;
+  'png-scale': number;
   scale?: string[];
   store: string;
   out: string;
@@ -23,11 +29,8 @@ interface MapArgs {
   ridge: boolean;
 }
 
-/**
- * Output formats this command writes. Images (png, svg, pdf) join this list together with the
- * call to writeMapImages from the render stage; until then only the JSON map is written.
- */
-const FORMATS = ['json'] as const;
+/** Output formats this command writes: the map as JSON, and images (each with its vega-lite spec beside it). */
+const FORMATS = ['json', 'png', 'svg', 'pdf'] as const;
 type Format = (typeof FORMATS)[number];
 
 function parseFormats(text: string): Format[] {
@@ -93,15 +96,20 @@ export const command: CommandSpec<MapArgs> = {
       .option('at', { type: 'string', array: true, describe: 'fix an axis or the condition: axis=value (repeat, or comma-separate); unset ones take the value with most data' })
       .option('metric', { choices: ['test_error', 'test_loss', 'train_error', 'train_loss'], describe: 'value mapped (default test_error, or test_loss when the store has no error)' })
       .option('method', { choices: ['auto', 'linear', 'thin-plate', 'gp'], default: 'auto', describe: 'interpolation; auto = lowest leave-one-out error' })
-      .option('raster', { type: 'string', default: '256x256', describe: 'raster size NXxNY over the transformed plane' })
+      .option('raster', { type: 'string', describe: 'images show the interpolated raster (measured cells solid, interpolated hatched) instead of cells; optional size NXxNY over the transformed plane (default 256x256)' })
+      .option('slices', { type: 'string', describe: 'rows of the slices chart: y values, e.g. epochs=100,1000,4000 (default: 4 spread rows)' })
+      .option('facet', { choices: ['label_noise', 'condition'], describe: 'images: one panel per label noise level or condition, sharing scales and colours' })
+      .option('colors', { choices: [...COLOR_SCHEMES], default: DEFAULT_COLOR_SCHEME, describe: 'perceptually uniform colour scheme of the images' })
+      .option('png-scale', { type: 'number', default: 2, describe: 'pixel ratio of PNG images (2 = crisp on slides)' })
       .option('scale', { type: 'string', array: true, describe: 'axis=log2|linear, overriding the detected axis scale' })
       .option('ridge', { type: 'boolean', default: true, describe: 'also locate the double-descent ridge and put it in the file (--no-ridge skips)' })
       .option('store', { type: 'string', default: 'atlas-store', describe: 'store directory' })
       .option('out', { type: 'string', default: '.', describe: 'directory the map files go to' })
-      .option('format', { type: 'string', default: 'json', describe: `comma-separated output formats; available now: ${FORMATS.join(', ')} (images come with the render stage)` }),
+      .option('format', { type: 'string', default: 'json', describe: `comma-separated output formats; ${FORMATS.join(', ')}` }),
   async run(args) {
     const formats = parseFormats(args.format);
-    const raster = parseRaster(args.raster);
+    const raster = parseRaster(args.raster || '256x256');
+    if (!(args['png-scale'] > 0 && args['png-scale'] <= 8)) throw usageError(renderMsg.badPngScale(String(args['png-scale'])));
     const at = parseAt(args.at);
     const scales = parseScales(args.scale);
     const { readStore } = await import('../store/readStore.js');
@@ -123,6 +131,29 @@ export const command: CommandSpec<MapArgs> = {
       const path = join(args.out, `${base}.json`);
       writeFileSync(path, `${mapToJson(map, { ridge, store: args.store })}\n`);
       files.push(path);
+    }
+    const imageFormats = formats.filter((f): f is 'png' | 'svg' | 'pdf' => f !== 'json');
+    if (imageFormats.length) {
+      const { writeMapImages } = await import('../render/writeMapImages.js');
+      const { parseSlices } = await import('../render/parseSlices.js');
+      const { fixedValueText } = await import('../render/axisText.js');
+      const slices = parseSlices(args.slices, map.y.name) ?? undefined;
+      let facets;
+      if (args.facet) {
+        const { findRidge } = await import('../analysis/findRidge.js');
+        const col = args.facet === 'condition' ? table.condition : Array.from(table.label_noise);
+        const levels = [...new Set<number | string>(col)].filter((v) => v === v).sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
+        const panels = levels.map((v) => {
+          const m = v === map.fixed[args.facet!] ? map : buildMap(table, { kind: args.kind, x: args.x, y: args.y, at: { ...at, [args.facet!]: v }, metric: args.metric, method: args.method, raster, scales });
+          return { map: m, ridge: m === map ? ridge : args.ridge ? findRidge(m) : null, label: fixedValueText(args.facet!, v) };
+        });
+        facets = { panels };
+      }
+      const written = await writeMapImages({
+        map, ridge, outDir: args.out, formats: imageFormats, scale: args['png-scale'], slices, name: base,
+        raster: args.raster !== undefined, colors: args.colors, facets,
+      });
+      files.push(...written);
     }
 
     const ridgeRows = ridge ? { total: ridge.rows.length, withPeak: ridge.rows.filter((r) => r.peak).length } : null;
