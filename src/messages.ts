@@ -245,11 +245,13 @@ export const planText = {
   },
   whyRefine: (where: string, x: string, low: string, high: string, a: string, b: string) =>
     `ridge at width ${x} (${where}), interval ${low}–${high}, lies between measured widths ${a} and ${b}: bisects that bracket`,
+  whyThreshold: (where: string, threshold: string, a: string, b: string) =>
+    `no peak resolved (${where}); the interpolation threshold (width ${threshold}) lies between measured widths ${a} and ${b}: bisects that step`,
   whyPeakSeeds: (where: string, x: string, se: number, min: number) =>
     `peak at width ${x} (${where}) is borderline: prominence ${se.toFixed(1)} SE, minimum ${min}`,
   whyHurtsSeeds: (where: string, onset: string, peak: string, p: number, alpha: number) =>
     `more data hurts from n ${onset} to ${peak} (${where}) is borderline: p = ${p.toPrecision(2)}, alpha ${alpha}`,
-  noteNoRidge: () => 'no ridge point along width at the target epoch in any slice: no new widths proposed',
+  noteNoRidge: () => 'no ridge point along width resolved at the target epoch in any slice',
   noteDivergedRerun: (n: number) => `${n} diverged run${n === 1 ? '' : 's'} re-launched with the same seed (a deterministic run may diverge again: check the learning rate; --skip-diverged leaves them out)`,
   noteDivergedSkipped: (n: number) => `${n} diverged run${n === 1 ? '' : 's'} left out (--skip-diverged)`,
   noteNoResume: (n: number) => `${n} partial run${n === 1 ? '' : 's'} restart from epoch 0: the --command template has no {resume_from}`,
@@ -329,4 +331,8 @@ export const report = {
   wrote: (what: string, path: string) => `${what}: ${path}`,
   demoSweepMissing: (dir: string) => `no committed demo sweep at ${dir} (run with --fresh to simulate it)`,
   chromiumMissing: 'headless Chromium not found at /usr/bin/chromium',
+  findingsHead: 'Headline findings:',
+  cautionsHead: 'Read with care:',
+  skippedKind: (kind: string, reason: string) => `${kind}-wise map not drawn: ${reason}`,
+  defaultTitle: (store: string) => `Sweep report: ${store}`,
 };

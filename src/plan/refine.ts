@@ -125,6 +125,27 @@ export function proposeRefinements(opts: RefineOptions): RefineResult {
     const row = ridge.rows[0];
     const found = row ? [row.peak, ...row.others].filter((p): p is Peak => p !== null) : [];
     const where = `${condition ? `${condition}, ` : ''}noise ${label_noise}, n ${fmt(train_size)}`;
+    const propose = (m: number, value: number, why: string) => {
+      const k = `${condition}\u0000${label_noise}\u0000${train_size}\u0000${m}`;
+      if (proposedWidths.has(k)) return;
+      proposedWidths.add(k);
+      const cfg = { condition, label_noise, train_size, width: m };
+      candidates.push({ reason: 'refine', runs: spec.seeds.map((s) => ({ ...cfg, seed: s })), value, why });
+    };
+    const midpoint = (a: number, b: number): number | null => {
+      let m = Math.sqrt(a * b);
+      if (integerWidths) m = Math.round(m);
+      return m > a && m < b ? m : null;
+    };
+    // No peak resolved: the peak is expected near the interpolation threshold (Nakkiran et al.
+    // 2019, effective model complexity ≈ n), so bisect the grid step that holds the threshold.
+    if (found.length === 0 && row && row.threshold !== null && !row.thresholdAtEdge) {
+      const a = widths.filter((w) => w <= row.threshold!).at(-1);
+      const b = widths.find((w) => w >= row.threshold!);
+      const m = a !== undefined && b !== undefined && Math.log2(b / a) > resolution ? midpoint(a, b) : null;
+      // Half the value of a resolved ridge point: the peak is only expected there.
+      if (m !== null) propose(m, Math.log2(b! / a!) / 2, msg.whyThreshold(where, fmt(row.threshold), fmt(a!), fmt(b!)));
+    }
     for (const p of found) {
       const significant = p.prominenceSe >= minProminence;
       peaks.push({ fixed, peak: p, significant });
@@ -149,22 +170,10 @@ export function proposeRefinements(opts: RefineOptions): RefineResult {
       for (let i = 0; i + 1 < widths.length; i++) {
         const a = widths[i], b = widths[i + 1];
         if (a < lo || b > hi || !(Math.log2(b / a) > resolution)) continue;
-        let m = Math.sqrt(a * b);
-        if (integerWidths) m = Math.round(m);
-        if (m <= a || m >= b) continue;
-        mids.push(m);
+        const m = midpoint(a, b);
+        if (m !== null) mids.push(m);
       }
-      const fresh = mids.filter((m) => !proposedWidths.has(`${condition}\u0000${label_noise}\u0000${train_size}\u0000${m}`));
-      for (const m of fresh) {
-        proposedWidths.add(`${condition}\u0000${label_noise}\u0000${train_size}\u0000${m}`);
-        const cfg = { condition, label_noise, train_size, width: m };
-        candidates.push({
-          reason: 'refine',
-          runs: spec.seeds.map((s) => ({ ...cfg, seed: s })),
-          value: octaves / fresh.length,
-          why: msg.whyRefine(where, fmt(p.x), fmt(p.low), fmt(p.high), fmt(lo), fmt(hi)),
-        });
-      }
+      for (const m of mids) propose(m, octaves / mids.length, msg.whyRefine(where, fmt(p.x), fmt(p.low), fmt(p.high), fmt(lo), fmt(hi)));
     }
   }
 

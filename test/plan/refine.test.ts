@@ -64,6 +64,26 @@ describe('refinement on a simulated random-features sweep', () => {
   });
 });
 
+describe('refinement when the grid misses the peak', () => {
+  it('bisects the step holding the interpolation threshold, where the peak then appears', () => {
+    // n = 64 with widths a factor 4 apart: no measured width sits at the peak (N ≈ n).
+    const m = 64;
+    const widths = [8, 32, 128, 512];
+    const simAt = (ws: number[]) => featuresSweep({ seeds: 4, widths: ws, trainSizes: [m], labelNoise: [0.2], epochs: [EPOCHS], testSize: 600 });
+    const spec = parseSpec(`axes:\n  width: [${widths}]\n  train_size: [${m}]\n  label_noise: [0.2]\nseeds: 4\nepochs: ${EPOCHS}\n`, 's.yaml');
+    const table = simAt(widths);
+    const ref = proposeRefinements({ table, spec });
+    expect(ref.peaks).toEqual([]);
+    const proposed = [...new Set(ref.candidates.filter((c) => c.reason === 'refine').map((c) => c.runs[0].width))];
+    // Random features interpolate at N ≈ n (Belkin, Hsu, Ma & Mandal 2019): the threshold lies in 32–128.
+    expect(proposed).toEqual([64]);
+    const after = proposeRefinements({ table: concatTables([table, simAt(proposed)]), spec });
+    const sig = after.peaks.filter((p) => p.significant);
+    expect(sig).toHaveLength(1);
+    expect(sig[0].peak.cellX).toBe(64);
+  });
+});
+
 describe('extra seeds where a peak is borderline', () => {
   // Means along width with a small peak at 32; seeds spread ±d around the mean.
   const W = [4, 8, 16, 32, 64, 128, 256];
