@@ -35,8 +35,10 @@ export function tokenizeDelimited(text: string, delimiter: string, onRow: RowHan
   let i = text.charCodeAt(0) === 0xfeff ? 1 : 0;
   let line = 1;
   let rowLine = 1;
+  let quotedFirst = false;
   while (i < n) {
     let c = text.charCodeAt(i);
+    if (count === 0) quotedFirst = c === QUOTE;
     if (c === QUOTE) {
       let j = i + 1;
       let seg = j;
@@ -87,7 +89,7 @@ export function tokenizeDelimited(text: string, delimiter: string, onRow: RowHan
     // c is CR or LF here
     i++;
     if (c === CR && text.charCodeAt(i) === LF) i++;
-    if (!(count === 1 && fields[0] === '')) onRow(fields, count, rowLine);
+    if (!(count === 1 && fields[0] === '' && !quotedFirst)) onRow(fields, count, rowLine); // skip blank lines
     line++;
     rowLine = line;
     count = 0;

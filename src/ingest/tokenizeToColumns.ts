@@ -36,14 +36,14 @@ export function tokenizeToColumns(text: string, delimiter: string): DelimitedCol
   let rowLine = 1;
   let unterminated = false;
 
-  const putText = (s: string) => {
+  const putText = (s: string, quoted = false) => {
     if (width < 0) names.push(s.trim());
     else if (count < width) {
       const v = s.trim() === '' ? NaN : +s;
       if (v === v) columns[count].push(v);
       else columns[count].pushText(s);
     }
-    if (count === 0) firstEmpty = s === '';
+    if (count === 0) firstEmpty = s === '' && !quoted;
     count++;
   };
   const rollback = () => {
@@ -93,7 +93,7 @@ export function tokenizeToColumns(text: string, delimiter: string): DelimitedCol
       }
       if (j2 > i) value += text.slice(i, j2);
       i = j2;
-      putText(value);
+      putText(value, true);
     } else {
       let j = i;
       while (j < n) {
