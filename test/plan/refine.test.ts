@@ -3,6 +3,8 @@ import { featuresSweep } from '../../src/simulate/featuresSweep.js';
 import { concatTables } from '../../src/simulate/concatTables.js';
 import { buildMap } from '../../src/grid/buildMap.js';
 import { findRidge } from '../../src/analysis/findRidge.js';
+import { findHurts } from '../../src/analysis/findHurts.js';
+import { buildCells } from '../../src/cells/buildCells.js';
 import { parseSpec } from '../../src/plan/parseSpec.js';
 import { proposeRefinements } from '../../src/plan/refine.js';
 import { coverage } from '../../src/plan/coverage.js';
@@ -116,5 +118,36 @@ describe('extra seeds where a peak is borderline', () => {
     expect(mid.candidates.some((c) => c.reason === 'seeds')).toBe(true);
     // A clear peak (tiny spread) needs no seeds; pure noise (huge spread) shows no peak.
     expect(proposeRefinements({ table: make(0.001), spec, boot: 200 }).candidates.filter((c) => c.reason === 'seeds')).toEqual([]);
+  });
+});
+
+describe('extra seeds where a hurts segment is borderline', () => {
+  // Along train size at width 64: error rises from n 200 to 400 (by 0.04), then falls.
+  const N = [100, 200, 400, 800, 1600];
+  const mean = [0.3, 0.28, 0.32, 0.25, 0.2];
+  const spec = parseSpec('axes:\n  width: [64]\n  train_size: [100, 200, 400, 800, 1600]\n  label_noise: [0.1]\nseeds: 4\nepochs: 100\n', 's.yaml');
+  const make = (d: number) => {
+    const rows: Partial<RowRecord>[] = [];
+    N.forEach((n, i) => {
+      for (let s = 0; s < 4; s++)
+        rows.push({ run: `n${n}-s${s}`, seed: s, width: 64, train_size: n, label_noise: 0.1, epochs: 100, test_error: mean[i] + (s % 2 ? -d : d) * (i % 2 ? -1 : 1), train_error: 0 });
+    });
+    return tableFromRows(rows);
+  };
+
+  it('asks for seeds at the onset and peak sizes when p is near alpha, none when the rise is clear', () => {
+    const borderline = make(0.02);
+    const h = findHurts(buildCells(borderline), { alpha: 0.2, boot: 200 });
+    expect(h.segments).toHaveLength(1);
+    // The Welch p of this spread sits within a factor 4 of alpha = 0.05.
+    expect(h.segments[0].p).toBeGreaterThan(0.05 / 4);
+    expect(h.segments[0].p).toBeLessThan(0.05 * 4);
+    const seeds = proposeRefinements({ table: borderline, spec, boot: 200 }).candidates.filter((c) => c.reason === 'seeds');
+    expect(seeds.map((c) => c.runs[0].train_size).sort((a, b) => a - b)).toEqual([200, 400]);
+    for (const c of seeds) {
+      expect(c.runs[0].seed).toBe(4);
+      expect(c.runs.every((r) => r.width === 64)).toBe(true);
+    }
+    expect(proposeRefinements({ table: make(0.002), spec, boot: 200 }).candidates).toEqual([]);
   });
 });
