@@ -108,9 +108,9 @@ export const command: CommandSpec<PlanArgs> = {
       .option('force', { type: 'boolean', default: false, describe: 'let --init overwrite an existing file' })
       .option('refine', { type: 'boolean', default: true, describe: 'propose new widths and seeds from the ridge and hurts analyses (--no-refine: gaps only)' })
       .option('skip-diverged', { type: 'boolean', default: false, describe: 'do not re-launch diverged runs' })
-      .option('resolution', { type: 'number', default: 0.5, describe: 'refine ridge points whose interval spans more octaves of width than this' })
+      .option('resolution', { type: 'number', default: 0.5, describe: 'refine a ridge point until the measured widths around its interval are at most this many octaves apart' })
       .option('max-parallel', { type: 'number', default: 32, describe: 'slurm: tasks running at once (#SBATCH --array=0-N%P)' })
-      .option('sbatch', { type: 'string', array: true, describe: 'slurm: extra #SBATCH lines, e.g. --sbatch "--time=04:00:00" "--gres=gpu:1"' })
+      .option('sbatch', { type: 'string', array: true, describe: 'slurm: extra #SBATCH options without the leading dashes, e.g. --sbatch time=04:00:00 --sbatch gres=gpu:1' })
       .option('limit', { type: 'number', default: 40, describe: 'runs to print (0 = all)' }),
   async run(args) {
     if (args.init !== undefined) {
@@ -178,7 +178,7 @@ export const command: CommandSpec<PlanArgs> = {
         out ??= 'plan.sbatch';
         const csvPath = out.replace(/\.[^./]+$/, '') + '.csv';
         const { planSlurm } = await import('../plan/planSlurm.js');
-        text = planSlurm({ plan, template: template!, csvPath: resolve(csvPath), maxParallel: args.maxParallel, sbatch: args.sbatch, jobName: spec.name });
+        text = planSlurm({ plan, template: template!, csvPath: resolve(csvPath), maxParallel: args.maxParallel, sbatch: (args.sbatch ?? []).map((o) => (String(o).startsWith('-') ? String(o) : `--${o}`)), jobName: spec.name });
         writeOut(csvPath, planCsv(plan));
         if (!args.quiet) process.stderr.write(`${general.wroteFile(csvPath)}\n`);
       }

@@ -75,6 +75,8 @@ export function planSlurm(opts: { plan: PlanResult; template: CommandTemplate; c
     '  if [ -z "${col[$name]+x}" ]; then echo "datlas plan: column $name missing in $PLAN_CSV" >&2; exit 1; fi',
     '  printf -v "P_$name" \'%s\' "$(uninert "${FIELDS[${col[$name]}]}")"',
     'done',
+    '# A fresh run resumes from epoch 0 (as in the shell export).',
+    'if [ -z "$P_resume_from" ]; then P_resume_from=0; fi',
     'if [ "$P_index" != "$TASK" ]; then echo "datlas plan: line $((TASK + 2)) of $PLAN_CSV is run $P_index, not $TASK" >&2; exit 1; fi',
     `echo "datlas plan: task $TASK: run $P_run (reason $P_reason)" >&2`,
     '',

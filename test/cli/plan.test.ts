@@ -59,7 +59,7 @@ describe('datlas plan', () => {
       const cells = lines[k + 1].split(',');
       const get = (c: string) => cells[header.indexOf(c)];
       expect(out.stdout.trimEnd().split('\n')).toEqual(
-        [String(k), get('run'), get('width'), get('train_size'), get('seed'), get('resume_from')].map((v) => `<${v}>`),
+        [String(k), get('run'), get('width'), get('train_size'), get('seed'), get('resume_from') || '0'].map((v) => `<${v}>`),
       );
     }
   });

@@ -137,7 +137,7 @@ describe('Slurm array script', () => {
       const r = bashSafe(script, { SLURM_ARRAY_TASK_ID: String(k) });
       expect(r.status, r.stderr).toBe(0);
       const x = runs[k];
-      const expected = [k, x.run, x.condition, x.width, x.train_size, x.label_noise, x.seed, x.epochs, x.resume_from ?? ''].map((v) => `<${v}>`);
+      const expected = [k, x.run, x.condition, x.width, x.train_size, x.label_noise, x.seed, x.epochs, x.resume_from ?? 0].map((v) => `<${v}>`);
       expect(r.stdout.trimEnd().split('\n')).toEqual(expected);
     }
     for (const f of ['PWNED1', 'PWNED2', 'PWNED3']) expect(existsSync(join(dir, f))).toBe(false);
