@@ -85,19 +85,40 @@ export function buildCells(table: RowTable, opts: BuildCellsOptions = {}): Cell[
   const targets = opts.epochs ? [...new Set(opts.epochs.filter((e) => Number.isFinite(e)))].sort((a, b) => a - b) : null;
   const metricCol = table[metric];
 
-  // Rows of each run. The configuration is part of the key so a run id reused across configurations splits.
-  const runs = new Map<string, number[]>();
+  // Rows of each run: grouped by run id (strings are built once per run, not per row), then split
+  // by configuration in the rare case a run id was reused across configurations.
+  const byRun = new Map<string, number[]>();
   for (let i = 0; i < table.length; i++) {
-    const key = `${table.run[i]}\u0000${table.condition[i]}\u0000${table.label_noise[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}\u0000${table.run[i] === '' ? table.seed[i] : ''}`;
-    let rows = runs.get(key);
-    if (!rows) runs.set(key, (rows = []));
+    const id = table.run[i] === '' ? `\u0000seed${table.seed[i]}` : table.run[i];
+    let rows = byRun.get(id);
+    if (!rows) byRun.set(id, (rows = []));
     rows.push(i);
   }
+  const configKey = (i: number) => `${table.condition[i]}\u0000${table.label_noise[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}`;
+  const sameConfig = (i: number, j: number) =>
+    table.condition[i] === table.condition[j] &&
+    Object.is(table.label_noise[i], table.label_noise[j]) &&
+    Object.is(table.width[i], table.width[j]) &&
+    Object.is(table.train_size[i], table.train_size[j]);
+  const runs: number[][] = [];
+  for (const rows of byRun.values()) {
+    if (rows.every((i) => sameConfig(i, rows[0]))) runs.push(rows);
+    else {
+      const split = new Map<string, number[]>();
+      for (const i of rows) {
+        const k = configKey(i);
+        let g = split.get(k);
+        if (!g) split.set(k, (g = []));
+        g.push(i);
+      }
+      runs.push(...split.values());
+    }
+  }
 
-  const cells = new Map<string, Acc>();
-  const accFor = (i: number, epoch: number): Acc => {
-    const key = `${table.condition[i]}\u0000${table.label_noise[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}\u0000${epoch}`;
-    let acc = cells.get(key);
+  // Cells: configuration → epoch → accumulator (number keys inside, no per-row strings).
+  const configs = new Map<string, Map<number, Acc>>();
+  const accFor = (byEpoch: Map<number, Acc>, i: number, epoch: number): Acc => {
+    let acc = byEpoch.get(epoch);
     if (!acc) {
       acc = {
         condition: table.condition[i],
@@ -108,14 +129,17 @@ export function buildCells(table: RowTable, opts: BuildCellsOptions = {}): Cell[
         entries: [],
         divergedRuns: [],
       };
-      cells.set(key, acc);
+      byEpoch.set(epoch, acc);
     }
     return acc;
   };
 
-  for (const rows of runs.values()) {
+  for (const rows of runs) {
     rows.sort((a, b) => table.epochs[a] - table.epochs[b]);
     const first = rows[0];
+    const ck = configKey(first);
+    let byEpoch = configs.get(ck);
+    if (!byEpoch) configs.set(ck, (byEpoch = new Map()));
     let divergedAt = Infinity;
     const epochs: number[] = [];
     const values: number[] = [];
@@ -134,17 +158,17 @@ export function buildCells(table: RowTable, opts: BuildCellsOptions = {}): Cell[
     const runTargets = targets ?? [...new Set(rows.map((i) => table.epochs[i]).filter((e) => Number.isFinite(e)))];
     for (const t of runTargets) {
       if (t >= divergedAt) {
-        accFor(first, t).divergedRuns.push(table.run[first]);
+        accFor(byEpoch, first, t).divergedRuns.push(table.run[first]);
         continue;
       }
       const value = curveAt(curve, t);
       if (value === undefined) continue;
-      accFor(first, t).entries.push({ seed: table.seed[first], run: table.run[first], value, train: curveAt(trainCurve, t) ?? NaN });
+      accFor(byEpoch, first, t).entries.push({ seed: table.seed[first], run: table.run[first], value, train: curveAt(trainCurve, t) ?? NaN });
     }
   }
 
   const out: Cell[] = [];
-  for (const acc of cells.values()) {
+  for (const acc of [...configs.values()].flatMap((m) => [...m.values()])) {
     acc.entries.sort((a, b) => a.seed - b.seed || (a.run < b.run ? -1 : a.run > b.run ? 1 : 0));
     const trainValues = acc.entries.map((e) => e.train);
     const anyTrain = trainValues.some((x) => Number.isFinite(x));

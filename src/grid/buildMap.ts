@@ -194,10 +194,16 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
 
   const mapCells: MapCell[] = kept.map((cell) => ({ x: coord(cell, xName), y: coord(cell, yName), cell }));
   const measured = mapCells.filter((m) => m.cell.stats.n > 0);
-  const key = (x: number, y: number) => `${x}\u0000${y}`;
-  const measuredKeys = new Set(measured.map((m) => key(m.x, m.y)));
+  // Which (x value, y value) grid points hold a measured cell, by value index.
+  const xIndex = new Map(xAxis.values.map((v, k) => [v, k]));
+  const yIndex = new Map(yAxis.values.map((v, k) => [v, k]));
+  const nxv = xAxis.values.length;
+  const isMeasured = new Uint8Array(nxv * yAxis.values.length);
+  for (const m of measured) isMeasured[yIndex.get(m.y)! * nxv + xIndex.get(m.x)!] = 1;
   const missing: { x: number; y: number }[] = [];
-  for (const y of yAxis.values) for (const x of xAxis.values) if (!measuredKeys.has(key(x, y))) missing.push({ x, y });
+  yAxis.values.forEach((y, j) => xAxis.values.forEach((x, i) => {
+    if (!isMeasured[j * nxv + i]) missing.push({ x, y });
+  }));
   const diverged = mapCells.filter((m) => m.cell.diverged > 0).map((m) => ({ x: m.x, y: m.y, count: m.cell.diverged }));
 
   // Normalised transformed coordinates: each axis's [min, max] → [0, 1].
@@ -280,7 +286,7 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   for (let j = 0; j < ny; j++) {
     for (let i = 0; i < nx; i++) {
       const k = j * nx + i;
-      origin[k] = measuredKeys.has(key(xAxis.values[xi[i]], yAxis.values[yi[j]]))
+      origin[k] = isMeasured[yi[j] * nxv + xi[i]]
         ? ORIGIN_MEASURED
         : Number.isFinite(value[k])
           ? ORIGIN_INTERPOLATED

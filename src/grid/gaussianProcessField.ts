@@ -3,9 +3,9 @@ import { cholesky, choleskyInverseDiagonal, choleskyLogDet, choleskySolve, forwa
 import { nelderMead } from './nelderMead.js';
 
 /** Hyper-parameters are fitted on at most this many points (a fixed-seed random subset beyond it). */
-export const GP_FIT_SUBSET = 300;
+export const GP_FIT_SUBSET = 256;
 /** The sd field conditions each block of raster points on this many nearest cells (exact below it). */
-export const GP_SD_NEIGHBOURS = 80;
+export const GP_SD_NEIGHBOURS = 50;
 /** Raster points per side of a block sharing one neighbour set for the sd field. */
 const SD_BLOCK = 8;
 /** Diagonal jitter relative to the amplitude, for numerical stability only. */
@@ -128,7 +128,7 @@ function fitHyper(d: Data, ids: number[], fitNoise: boolean): GpHyper {
     if (d.dims === 2) x0.push(Math.log(l0));
     x0.push(0);
     if (fitNoise) x0.push(Math.log(0.05));
-    const r = nelderMead(objective, x0, { step: 0.7, maxEvals: 160, tol: 1e-5 });
+    const r = nelderMead(objective, x0, { step: 0.7, maxEvals: 120, tol: 1e-5 });
     if (!best || r.f < best.f) best = r;
   }
   return unpack(best!.x);
@@ -209,7 +209,26 @@ export function gaussianProcessField(p: ScatterPoints, opts: GpOptions = {}): Fi
     const nx = gx.length;
     const ny = gy.length;
     const value = new Float64Array(nx * ny);
-    for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) value[j * nx + i] = at(gx[i], gy[j]);
+    // Posterior mean row by row, the y part of each distance computed once per row; pairs beyond
+    // 20 length-scales (correlation < 1e-18) are skipped.
+    const ilx = 1 / h.lx;
+    const ily = 1 / h.ly;
+    const dy2 = new Float64Array(n);
+    for (let j = 0; j < ny; j++) {
+      for (let k = 0; k < n; k++) dy2[k] = d.dims === 2 ? ((gy[j] - d.y[k]) * ily) ** 2 : 0;
+      for (let i = 0; i < nx; i++) {
+        const x = gx[i];
+        let s = 0;
+        for (let k = 0; k < n; k++) {
+          const dx = (x - d.x[k]) * ilx;
+          const r2 = dx * dx + dy2[k];
+          if (r2 > 400) continue;
+          const r = Math.sqrt(5 * r2);
+          s += alpha[k] * (1 + r + (r * r) / 3) * Math.exp(-r);
+        }
+        value[j * nx + i] = mean + scale * h.amp2 * s;
+      }
+    }
     const sd = new Float64Array(nx * ny);
     const m = Math.min(n, GP_SD_NEIGHBOURS);
     const dist = new Float64Array(n);

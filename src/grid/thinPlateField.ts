@@ -1,10 +1,11 @@
 import type { FittedField, GridField, ScatterPoints } from './Interpolator.js';
+import { lowerBound } from './Interpolator.js';
 import { luFactor, luInverseDiagonal, luSolve } from './linalg.js';
 
 /** Up to this many points one global spline is solved (an (n+3)² LU); beyond, a partition of unity. */
 export const THIN_PLATE_GLOBAL_MAX = 400;
 /** Target points per tile core in the partition of unity. */
-const TILE_POINTS = 120;
+const TILE_POINTS = 60;
 /** Tile support half-width relative to the tile core half-width (overlap between neighbours). */
 const OVERLAP = 1.5;
 /** Smallest local system (more neighbours are pulled in for sparse tiles). */
@@ -181,10 +182,29 @@ export function thinPlateField(p: ScatterPoints): FittedField {
     if (sw > 0) loo[i] = p.v[i] - sr / sw;
   }
 
+  // Raster: each tile adds its weighted spline to the raster points inside its support only.
   const grid = (gx: Float64Array, gy: Float64Array): GridField => {
-    const value = new Float64Array(gx.length * gy.length);
-    for (let j = 0; j < gy.length; j++) for (let i = 0; i < gx.length; i++) value[j * gx.length + i] = at(gx[i], gy[j]);
-    return { value, sd: null };
+    const nx = gx.length;
+    const sv = new Float64Array(nx * gy.length);
+    const sw = new Float64Array(nx * gy.length);
+    for (const t of tiles) {
+      const i0 = lowerBound(gx, t.cx - t.hx);
+      const i1 = lowerBound(gx, t.cx + t.hx);
+      const j0 = lowerBound(gy, t.cy - t.hy);
+      const j1 = lowerBound(gy, t.cy + t.hy);
+      for (let j = j0; j < j1; j++) {
+        const wy = bump((gy[j] - t.cy) / t.hy);
+        if (wy === 0) continue;
+        for (let i = i0; i < i1; i++) {
+          const wt = wy * bump((gx[i] - t.cx) / t.hx);
+          if (wt === 0) continue;
+          sw[j * nx + i] += wt;
+          sv[j * nx + i] += wt * evalSpline(p, t.spline, gx[i], gy[j]);
+        }
+      }
+    }
+    for (let k = 0; k < sv.length; k++) sv[k] = sw[k] > 0 ? sv[k] / sw[k] : NaN;
+    return { value: sv, sd: null };
   };
   return { at, grid, loo, notes };
 }

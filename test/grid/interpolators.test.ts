@@ -53,6 +53,7 @@ describe('linear (Delaunay, barycentric) and thin-plate reproduce any affine fun
     it(name, () => {
       const f = fit(p);
       for (const [x, y] of probes) expect(f.at(x, y)).toBeCloseTo(affine(x, y), 9);
+      // The raster path (its own loops) agrees with point evaluation.
       const gx = Float64Array.from({ length: 17 }, (_, i) => 0.2 + (0.6 * i) / 16);
       const g = f.grid(gx, gx);
       for (let j = 0; j < 17; j++) {
@@ -69,6 +70,10 @@ describe('linear (Delaunay, barycentric) and thin-plate reproduce any affine fun
     const f = thinPlateField(big);
     expect(f.notes.join(' ')).toMatch(/partition of unity/);
     for (const [x, y] of insideHull(big, 100, 6)) expect(f.at(x, y)).toBeCloseTo(affine(x, y), 8);
+    // The raster path blends tile by tile; each local spline is affine-exact, so the blend is too.
+    const gx = Float64Array.from({ length: 33 }, (_, i) => i / 32);
+    const g = f.grid(gx, gx);
+    for (let j = 0; j < 33; j++) for (let i = 0; i < 33; i++) expect(g.value[j * 33 + i]).toBeCloseTo(affine(gx[i], gx[j]), 8);
   });
 
   it('one-dimensional maps: both reproduce a line', () => {
@@ -171,6 +176,8 @@ describe('gp standard deviation field', () => {
     const f = gaussianProcessField(p);
     const g = f.grid(Float64Array.from([p.x[0], 0.5]), Float64Array.from([p.y[0]]));
     expect(g.sd![0]).toBeLessThan(1e-3);
+    expect(g.value[0]).toBeCloseTo(f.at(p.x[0], p.y[0]), 12);
+    expect(g.value[1]).toBeCloseTo(f.at(0.5, p.y[0]), 12);
     expect(Number.isFinite(g.sd![1])).toBe(true);
     const far = f.grid(Float64Array.from([1e3]), Float64Array.from([1e3]));
     // Far from all data the posterior sd returns to the prior amplitude (R&W §2.2).
