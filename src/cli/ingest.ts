@@ -1,4 +1,4 @@
-import { readFileSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import type { Argv } from 'yargs';
 import type { CommandSpec } from './CommandSpec.js';
 import { progressBar } from './progress.js';
@@ -71,9 +71,12 @@ export const command: CommandSpec<IngestArgs> = {
       const vals = args[key];
       if (!vals) continue;
       args[key] = vals.filter((v) => {
-        const keep = String(v).includes('=');
-        if (!keep) stray.push(String(v));
-        return keep;
+        const text = String(v);
+        if (text.includes('=')) return true;
+        const bad = key === 'map' ? ingestText.badMap : key === 'set' ? ingestText.badSet : ingestText.badScale;
+        if (text !== '-' && !existsSync(text)) throw usageError(bad(text));
+        stray.push(text);
+        return false;
       });
     }
     const file = args.mapping ? readMappingFile(args.mapping) : { map: {}, set: {}, scale: {}, seedFrom: undefined };

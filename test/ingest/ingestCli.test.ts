@@ -1,0 +1,72 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { cpSync, existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { runCli } from '../helpers/runCli.js';
+
+const FIXTURE = fileURLToPath(new URL('../fixtures/ingest/messy', import.meta.url));
+let dir = '';
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'datlas-cli-'));
+  cpSync(FIXTURE, join(dir, 'messy'), { recursive: true });
+  writeFileSync(join(dir, 'garbage.json'), '{"width": 4, "epoch":');
+});
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+const noStack = (s: string) => expect(s).not.toMatch(/\n\s+at .*:\d+:\d+/);
+
+// Exit codes and one-line errors: DESIGN.md §6 and issue 2.
+describe('datlas ingest', () => {
+  it('exits 0 with rejections in the summary; --json has the contract shape and the identity holds', () => {
+    const r = runCli(['ingest', 'messy', '--store', 's1', '--json', '--quiet'], { cwd: dir });
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.stdout);
+    for (const k of ['read', 'accepted', 'duplicates', 'rejected', 'pending', 'conflicts', 'sources']) expect(typeof j[k]).toBe('number');
+    expect(j.read).toBe(j.accepted + j.duplicates + j.rejected + j.pending);
+    expect(j).toMatchObject({ read: 14, sources: 2, conflicts: 1 });
+    expect(r.stderr).toBe('');
+  });
+
+  it('prints a human summary naming file, line and field of rejections', () => {
+    const r = runCli(['ingest', 'messy', '--store', 's2'], { cwd: dir });
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/^read 14 rows = \d+ accepted \+ \d+ duplicates \+ \d+ rejected \+ 1 pending/);
+    expect(r.stdout).toContain('line 5 field test_err: not a number');
+    const again = runCli(['ingest', 'messy', '--store', 's2'], { cwd: dir });
+    expect(again.stdout).toContain('nothing new');
+  });
+
+  it('exits 1 with one line when nothing could be read', () => {
+    const r = runCli(['ingest', 'garbage.json', '--store', 's3'], { cwd: dir });
+    expect(r.code).toBe(1);
+    expect(r.stderr.trim().split('\n').at(-1)).toBe('datlas: nothing could be read; see the reasons above');
+    expect(r.stdout).toContain('garbage.json: not valid JSON');
+    noStack(r.stderr);
+  });
+
+  it('exits 1 for a missing path, and under --strict with any rejection (store untouched)', () => {
+    const missing = runCli(['ingest', 'no-such-dir', '--store', 's4'], { cwd: dir });
+    expect(missing.code).toBe(1);
+    expect(missing.stderr.trim().split('\n').at(-1)).toBe('datlas: cannot open no-such-dir: no such file or folder');
+    const strict = runCli(['ingest', 'messy', '--store', 's5', '--strict'], { cwd: dir });
+    expect(strict.code).toBe(1);
+    expect(strict.stderr).toContain('--strict: 5 rows rejected, store left unchanged');
+    expect(existsSync(join(dir, 's5', 'manifest.json'))).toBe(false);
+  });
+
+  it('exits 2 on usage errors with one line', () => {
+    for (const args of [['ingest', 'messy', '--map', 'widht'], ['ingest', 'messy', '--map', 'depth=x'], ['ingest'], ['ingest', 'messy', '--scale', 'test_error=half']]) {
+      const r = runCli([...args, '--store', 's6'], { cwd: dir });
+      expect(r.code, args.join(' ')).toBe(2);
+      expect(r.stderr.trim().split('\n')).toHaveLength(1);
+      noStack(r.stderr);
+    }
+  });
+
+  it('has --help with an example', () => {
+    const r = runCli(['ingest', '--help']);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain('datlas ingest runs/');
+  });
+});
