@@ -6,6 +6,7 @@ import { localPeaks } from './localPeaks.js';
 import { searchWideP } from './searchWideP.js';
 import { deriveSeed, seededRng } from './seededRng.js';
 import { seriesNoise } from './seriesNoise.js';
+import type { SeriesView } from './seriesNoise.js';
 import { welchTest } from './welchTest.js';
 
 export interface HurtsOptions {
@@ -88,9 +89,9 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
     };
     const found: (HurtsSegment & { i0: number; i1: number })[] = [];
     // Rise of a candidate in pair standard errors: the statistic the search-wide check compares.
-    const zOf = (mm: ArrayLike<number>, i0: number, i1: number): number => {
-      const se = noise.pairSe(i1, i0);
-      const d = mm[i1] - mm[i0];
+    const zOf = (v: SeriesView, i0: number, i1: number): number => {
+      const se = v.pairSe(i1, i0);
+      const d = v.means[i1] - v.means[i0];
       return se > 0 ? d / se : d > 0 ? Infinity : 0;
     };
     let pSearchOf: ((z: number) => number) | null = null;
@@ -121,19 +122,18 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
       }
       if (!(p < alpha)) continue;
       let pSearch: number | undefined;
-      if (nullRounds > 0 && Number.isFinite(noise.sd) && noise.sd > 0) {
+      if (nullRounds > 0 && Number.isFinite(noise.sd)) {
         pSearchOf ??= searchWideP({
           noise,
-          u,
           rounds: nullRounds,
           rng,
-          maxStat: (mm, scale) => {
+          maxStat: (v) => {
             let best = 0;
-            for (const q of localPeaks(mm, { allowRightEnd: true })) best = Math.max(best, zOf(mm, q.leftBase, q.index) * scale);
+            for (const q of localPeaks(v.means, { allowRightEnd: true })) best = Math.max(best, zOf(v, q.leftBase, q.index));
             return best;
           },
         });
-        pSearch = pSearchOf(zOf(m, i0, i1));
+        pSearch = pSearchOf(zOf(noise, i0, i1));
         if (!(pSearch < alpha)) continue;
       }
       let recovery: number | null = null;

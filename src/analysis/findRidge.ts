@@ -10,6 +10,7 @@ import { searchWideP } from './searchWideP.js';
 import type { Peak, RidgeResult, RidgeRow } from './Ridge.js';
 import { deriveSeed, seededRng } from './seededRng.js';
 import { seriesNoise } from './seriesNoise.js';
+import type { SeriesView } from './seriesNoise.js';
 
 export interface RidgeOptions {
   /** Smallest prominence, in pooled standard errors of the peak-minus-base difference, that counts as a peak (default 2). */
@@ -91,26 +92,27 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
     const row: RidgeRow = { y, peak: null, others: [], threshold, thresholdAtEdge: crossing?.atEdge ?? false, ratio: null, noiseFrom: noise.from, noiseSd: noise.sd, insideNoise: null };
     if (pts.length < 3) return row;
 
-    const zOf = (lp: LocalPeak): number => {
-      const se = noise.pairSe(lp.index, lp.keyBase);
+    // Prominence in standard errors of the peak-minus-base difference.
+    const zIn = (v: SeriesView, lp: LocalPeak): number => {
+      const se = v.pairSe(lp.index, lp.keyBase);
       return se > 0 ? lp.prominence / se : lp.prominence > 0 ? Infinity : 0;
     };
+    const zOf = (lp: LocalPeak) => zIn(noise, lp);
     const scored = localPeaks(means).map((lp) => ({ lp, z: zOf(lp), p: NaN }));
     // One random stream per row: the same seed gives the same answer whatever other rows exist.
     const rng = seededRng(deriveSeed(seed, rowIndex));
     const rep = new Float64Array(means.length);
     const tall = scored.filter((s) => s.z >= minProminence);
-    if (tall.length > 0 && alpha < 1 && nullRounds > 0 && Number.isFinite(noise.sd) && noise.sd > 0) {
+    if (tall.length > 0 && alpha < 1 && nullRounds > 0 && Number.isFinite(noise.sd)) {
       // Look-elsewhere check: the tallest of a row's several noise bumps clears 2 SE far more
       // often than one comparison would; compare with the tallest bump of simulated flat rows.
       const pOf = searchWideP({
         noise,
-        u,
         rounds: nullRounds,
         rng,
-        maxStat: (m, scale) => {
+        maxStat: (v) => {
           let best = 0;
-          for (const lp of localPeaks(m)) best = Math.max(best, zOf(lp) * scale);
+          for (const lp of localPeaks(v.means)) best = Math.max(best, zIn(v, lp));
           return best;
         },
       });

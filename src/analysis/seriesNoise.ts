@@ -2,65 +2,118 @@ import type { Cell } from '../cells/Cell.js';
 import { curveNoise } from './curveNoise.js';
 import type { Rng } from './seededRng.js';
 
+/** Means of a series and the standard error of a difference between two of them. */
+export interface SeriesView {
+  means: Float64Array;
+  /** Standard error of means[i] − means[j]. */
+  pairSe(i: number, j: number): number;
+}
+
 /** The noise model of one 1-D series of cells (a map row or a train-size slice). */
-export interface SeriesNoise {
-  /** seeds: from the spread across seeds (pooled over the series); curve: from the curve's own roughness. */
+export interface SeriesNoise extends SeriesView {
+  /** seeds: from the spread across seeds; curve: from the curve's own roughness. */
   from: 'seeds' | 'curve';
   /** Pooled per-seed standard deviation (seeds) or the noise of one point of the curve (curve). */
   sd: number;
   /** Degrees of freedom behind `sd` when it comes from seeds (0 for curve). */
   df: number;
-  /** Standard error of mean[i] − mean[j]. */
-  pairSe(i: number, j: number): number;
   /** Writes one bootstrap replicate of the series means into `out`. */
   replicate(rng: Rng, out: Float64Array): void;
-  /** Writes one replicate of pure noise (a flat curve at 0) with the same per-cell noise into `out`. */
-  nullReplicate(rng: Rng, out: Float64Array): void;
+  /**
+   * A simulated series of pure noise with the same seeds per cell, analysed exactly like the
+   * observed one (its own sds, floor and pair SEs, or its own curve-noise estimate), so a
+   * statistic in SE units computed on it has the null distribution of the observed statistic.
+   */
+  nullSeries(rng: Rng): SeriesView;
+}
+
+function median(sorted: readonly number[]): number {
+  const k = sorted.length;
+  return k % 2 ? sorted[k >> 1] : (sorted[k / 2 - 1] + sorted[k / 2]) / 2;
+}
+
+/** Per-cell n, mean, sd → pooled sd, df and the pair standard error rule. */
+function seedView(n: ArrayLike<number>, means: Float64Array, sds: ArrayLike<number>): SeriesView & { sd: number; df: number; floor: number } {
+  let ss = 0;
+  let df = 0;
+  const withSd: number[] = [];
+  for (let i = 0; i < n.length; i++) {
+    if (n[i] >= 2 && Number.isFinite(sds[i])) {
+      ss += (n[i] - 1) * sds[i] ** 2;
+      df += n[i] - 1;
+      withSd.push(sds[i]);
+    }
+  }
+  withSd.sort((a, b) => a - b);
+  // The floor for any one cell's sd is the median cell sd, not the pooled one: near the
+  // interpolation threshold errors are heavy-tailed, and one wild cell must not swamp the rest.
+  const floor = withSd.length ? median(withSd) : NaN;
+  const f2 = floor * floor;
+  return {
+    means,
+    sd: Math.sqrt(ss / df),
+    df,
+    floor,
+    pairSe(i, j) {
+      const dfPair = (n[i] >= 2 ? n[i] - 1 : 0) + (n[j] >= 2 ? n[j] - 1 : 0);
+      const pair = dfPair > 0 ? ((n[i] >= 2 ? (n[i] - 1) * sds[i] ** 2 : 0) + (n[j] >= 2 ? (n[j] - 1) * sds[j] ** 2 : 0)) / dfPair : 0;
+      return Math.sqrt(Math.max(pair, f2) * (1 / n[i] + 1 / n[j]));
+    },
+  };
+}
+
+function curveView(u: ArrayLike<number>, means: Float64Array): SeriesView & { sd: number } {
+  const sd = curveNoise(u, means);
+  return { means, sd, pairSe: () => sd * Math.SQRT2 };
 }
 
 /**
  * Builds the noise model of a series of cells (ordered along the axis, finite means only; `u`
- * its transformed coordinates). With at least two degrees of freedom across seeds, the pooled
- * within-cell variance of the series is used: two cells are compared with their own pooled
- * variance but never less than the series' (two or three seeds alone can look deceptively
- * tight). Otherwise (single-seed curves, typical of epoch-wise logs) the noise comes from the
- * curve itself (curveNoise). Bootstrap replicates resample seeds within each cell; a single-seed
- * cell (or every point, for a curve estimate) gets Gaussian noise of the estimated size instead.
+ * its transformed coordinates). With at least two degrees of freedom across seeds, two cells are
+ * compared with their own pooled variance, but never less than the series' median cell variance
+ * (two or three seeds alone can look deceptively tight). Otherwise (single-seed curves, typical
+ * of epoch-wise logs) the noise comes from the curve itself (curveNoise). Bootstrap replicates
+ * resample seeds within each cell; a single-seed cell (or every point, for a curve estimate)
+ * gets Gaussian noise of the estimated size instead.
  */
-export function seriesNoise(cells: readonly Cell[], u: readonly number[]): SeriesNoise {
-  let ss = 0;
+export function seriesNoise(cells: readonly Cell[], u: ArrayLike<number>): SeriesNoise {
+  const L = cells.length;
+  const n = cells.map((c) => c.stats.n);
+  const means = Float64Array.from(cells, (c) => c.stats.mean);
   let df = 0;
-  for (const c of cells) {
-    if (c.stats.n >= 2 && Number.isFinite(c.stats.sd)) {
-      ss += (c.stats.n - 1) * c.stats.sd ** 2;
-      df += c.stats.n - 1;
-    }
-  }
-  const means = cells.map((c) => c.stats.mean);
+  for (const k of n) if (k >= 2) df += k - 1;
   if (df >= 2) {
-    const s2 = ss / df;
-    const sd = Math.sqrt(s2);
+    const view = seedView(n, means, cells.map((c) => c.stats.sd));
     const finiteValues = cells.map((c) => c.values.filter((v) => Number.isFinite(v)));
     const inflate = finiteValues.map((v) => (v.length >= 2 ? Math.sqrt(v.length / (v.length - 1)) : 1));
     return {
       from: 'seeds',
-      sd,
-      df,
-      pairSe(i, j) {
-        const a = cells[i].stats;
-        const b = cells[j].stats;
-        const dfPair = (a.n >= 2 ? a.n - 1 : 0) + (b.n >= 2 ? b.n - 1 : 0);
-        const pair = dfPair > 0 ? ((a.n >= 2 ? (a.n - 1) * a.sd ** 2 : 0) + (b.n >= 2 ? (b.n - 1) * b.sd ** 2 : 0)) / dfPair : 0;
-        return Math.sqrt(Math.max(pair, s2) * (1 / a.n + 1 / b.n));
-      },
-      nullReplicate(rng, out) {
-        for (let i = 0; i < cells.length; i++) out[i] = (Math.max(sd, cells[i].stats.n >= 2 ? cells[i].stats.sd : 0) / Math.sqrt(cells[i].stats.n)) * rng.normal();
+      sd: view.sd,
+      df: view.df,
+      means,
+      pairSe: view.pairSe,
+      nullSeries(rng) {
+        // Homoscedastic unit Gaussian seeds: the SE-scaled statistics are scale-free.
+        const m = new Float64Array(L);
+        const s = new Float64Array(L);
+        for (let i = 0; i < L; i++) {
+          let a = 0;
+          let b = 0;
+          for (let k = 0; k < n[i]; k++) {
+            const z = rng.normal();
+            a += z;
+            b += z * z;
+          }
+          m[i] = a / n[i];
+          s[i] = n[i] >= 2 ? Math.sqrt(Math.max(0, (b - n[i] * m[i] * m[i]) / (n[i] - 1))) : NaN;
+        }
+        return seedView(n, m, s);
       },
       replicate(rng, out) {
-        for (let i = 0; i < cells.length; i++) {
+        for (let i = 0; i < L; i++) {
           const v = finiteValues[i];
           if (v.length < 2) {
-            out[i] = means[i] + sd * rng.normal();
+            out[i] = means[i] + view.floor * rng.normal();
             continue;
           }
           let s = 0;
@@ -72,17 +125,20 @@ export function seriesNoise(cells: readonly Cell[], u: readonly number[]): Serie
       },
     };
   }
-  const sd = curveNoise(u, means);
+  const view = curveView(u, means);
   return {
     from: 'curve',
-    sd,
+    sd: view.sd,
     df: 0,
-    pairSe: () => sd * Math.SQRT2,
-    nullReplicate(rng, out) {
-      for (let i = 0; i < cells.length; i++) out[i] = sd * rng.normal();
+    means,
+    pairSe: view.pairSe,
+    nullSeries(rng) {
+      const m = new Float64Array(L);
+      for (let i = 0; i < L; i++) m[i] = rng.normal();
+      return curveView(u, m);
     },
     replicate(rng, out) {
-      for (let i = 0; i < cells.length; i++) out[i] = means[i] + sd * rng.normal();
+      for (let i = 0; i < L; i++) out[i] = means[i] + view.sd * rng.normal();
     },
   };
 }

@@ -1,0 +1,33 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { findRidge } from '../../src/analysis/findRidge.js';
+import type { RidgeResult } from '../../src/analysis/Ridge.js';
+import { buildMap } from '../../src/grid/buildMap.js';
+import { featuresSweep } from '../../src/simulate/featuresSweep.js';
+import { presets } from '../../src/simulate/presets.js';
+
+// Random-features regression trained by gradient descent (the built-in simulator, `quick` preset:
+// n = 200, 14 widths, 3 seeds, epochs 1..1e6). The ridgeless peak sits at N ≈ n features
+// (Belkin, Hsu, Ma & Mandal 2019; Mei & Montanari 2019 — REFERENCES §4), and it only emerges late
+// in training: none while the noise is not yet fitted (REFERENCES §7, our own prototype).
+let ridge: RidgeResult;
+beforeAll(() => {
+  const table = featuresSweep(presets.quick());
+  const map = buildMap(table, { kind: 'model', at: { label_noise: 0.2 }, method: 'linear', raster: { nx: 8, ny: 8 } });
+  ridge = findRidge(map, { boot: 500 });
+}, 120_000);
+
+describe('ridge on a random-features sweep', () => {
+  it('puts the peak at the largest epoch budget within a factor 1.5 of the train size', () => {
+    const last = ridge.rows[ridge.rows.length - 1];
+    expect(last.y).toBe(1e6);
+    expect(last.peak).not.toBeNull();
+    expect(last.peak!.x / 200).toBeGreaterThan(1 / 1.5);
+    expect(last.peak!.x / 200).toBeLessThan(1.5);
+  });
+
+  it('reports no peak at early epochs (up to 100), before the label noise is fitted', () => {
+    const early = ridge.rows.filter((r) => r.y <= 100);
+    expect(early.length).toBeGreaterThanOrEqual(5);
+    for (const r of early) expect(r.peak).toBeNull();
+  });
+});
