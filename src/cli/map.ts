@@ -7,7 +7,7 @@ import { mapMessages as msg, render as renderMsg } from '../messages.js';
 import { usageError } from '../UserError.js';
 import type { Metric } from '../store/RowTable.js';
 import type { AxisScale, MapKind, MethodName, SweepMap } from '../grid/SweepMap.js';
-import { COLOR_SCHEMES, DEFAULT_COLOR_SCHEME } from '../render/colorSchemes.js';
+import { COLOR_SCHEMES, DEFAULT_COLOR_SCHEME, isColorScheme } from '../render/colorSchemes.js';
 import type { ColorScheme } from '../render/colorSchemes.js';
 
 interface MapArgs {
@@ -105,10 +105,12 @@ export const command: CommandSpec<MapArgs> = {
       .option('ridge', { type: 'boolean', default: true, describe: 'also locate the double-descent ridge and put it in the file (--no-ridge skips)' })
       .option('store', { type: 'string', default: 'atlas-store', describe: 'store directory' })
       .option('out', { type: 'string', default: '.', describe: 'directory the map files go to' })
-      .option('format', { type: 'string', default: 'json', describe: `comma-separated output formats; ${FORMATS.join(', ')}` }),
+      .option('format', { type: 'string', default: 'json', describe: `comma-separated output formats; available now: ${FORMATS.join(', ')} (images come with their vega-lite spec, .vl.json)` }),
   async run(args) {
     const formats = parseFormats(args.format);
     const raster = parseRaster(args.raster || '256x256');
+    // Checked here too: yargs reports bad choices only after the handler ran.
+    if (!isColorScheme(String(args.colors))) throw usageError(renderMsg.badColors(String(args.colors), COLOR_SCHEMES));
     if (!(args['png-scale'] > 0 && args['png-scale'] <= 8)) throw usageError(renderMsg.badPngScale(String(args['png-scale'])));
     const at = parseAt(args.at);
     const scales = parseScales(args.scale);
