@@ -282,6 +282,9 @@ export const planText = {
     `cost model: a = 2 assumed (common practice for convolutional width; the store logs no wall_seconds); costs relative, 1 = one run at ${ref}`,
   badResolution: (text: string) => `--resolution expects a positive number of octaves, got '${text}'`,
   badParallel: (text: string) => `--max-parallel expects a whole number >= 1, got '${text}'`,
+  slurmBigArray: (n: number) =>
+    `the Slurm array has ${n} tasks; clusters often cap arrays at MaxArraySize (1001 by default, common practice): split with --budget or ask your admins`,
+  extraWidthsHint: (n: number) => `${n} of the extra runs sit at widths outside the spec (e.g. from refinement): add those widths to the spec to track them`,
   refinePeaks: (n: number, sig: number) => `analyses at the target epoch: ${n} ridge point${n === 1 ? '' : 's'} along width (${sig} significant)`,
 };
 

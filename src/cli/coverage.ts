@@ -134,6 +134,8 @@ export const command: CommandSpec<CoverageArgs> = {
       const parts = [...by].slice(0, 6).map(([w, n]) => `${w}: ${n}`);
       if (by.size > 6) parts.push('…');
       lines.push(planText.extraRuns(cov.extra.length, parts.join('; ')));
+      const widthOnly = cov.extra.filter((e) => e.outside.length === 1 && e.outside[0] === 'width').length;
+      if (widthOnly) lines.push(planText.extraWidthsHint(widthOnly));
     }
     if (cov.superseded) lines.push(planText.supersededRuns(cov.superseded));
     process.stdout.write(`${lines.join('\n')}\n`);

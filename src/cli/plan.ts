@@ -180,6 +180,7 @@ export const command: CommandSpec<PlanArgs> = {
         const { planSlurm } = await import('../plan/planSlurm.js');
         text = planSlurm({ plan, template: template!, csvPath: resolve(csvPath), maxParallel: args.maxParallel, sbatch: (args.sbatch ?? []).map((o) => (String(o).startsWith('-') ? String(o) : `--${o}`)), jobName: spec.name });
         writeOut(csvPath, planCsv(plan));
+        if (plan.runs.length > 1001 && !args.quiet) process.stderr.write(`note: ${planText.slurmBigArray(plan.runs.length)}\n`);
         if (!args.quiet) process.stderr.write(`${general.wroteFile(csvPath)}\n`);
       }
       if (out) {
