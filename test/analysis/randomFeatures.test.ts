@@ -31,3 +31,22 @@ describe('ridge on a random-features sweep', () => {
     for (const r of early) expect(r.peak).toBeNull();
   });
 });
+
+// Epoch-wise double descent from the simulator's `epochs` preset with one seed (REFERENCES §7,
+// our own prototype: noise 0.2, error .427 at epoch 1e3, .441 at 1e4, .392 at 1e5): the
+// single-seed curve gives its own noise estimate, and the peak lies between 1e3 and 3e4 epochs.
+describe('ridge on a single-seed epoch-wise curve', () => {
+  it('finds the epoch-wise peak with the noise taken from the curve, and says so', () => {
+    const table = featuresSweep({ ...presets.epochs(), seeds: 1, labelNoise: [0.2] });
+    const map = buildMap(table, { kind: 'epoch', method: 'linear', raster: { nx: 8, ny: 8 } });
+    const r = findRidge(map, { boot: 500 });
+    expect(r.rows).toHaveLength(1);
+    const row = r.rows[0];
+    expect(row.noiseFrom).toBe('curve');
+    expect(row.peak).not.toBeNull();
+    expect(row.peak!.x).toBeGreaterThan(1e3);
+    expect(row.peak!.x).toBeLessThan(3e4);
+    expect(row.peak!.low).toBeLessThanOrEqual(row.peak!.x);
+    expect(row.peak!.high).toBeGreaterThanOrEqual(row.peak!.x);
+  }, 60_000);
+});
