@@ -151,6 +151,8 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
     const peaks = significant.map((s, j) => {
       const d = draws[j].sort();
       const est = refine(u, means, s.lp.index);
+      // Percentile interval, widened if need be to hold the estimate itself (a skewed bootstrap
+      // can leave it outside, which would read as a contradiction).
       const low = boot > 0 ? Math.min(est, quantileSorted(d, (1 - level) / 2)) : est;
       const high = boot > 0 ? Math.max(est, quantileSorted(d, 1 - (1 - level) / 2)) : est;
       return toPeak(s.lp, s.z, s.p, low, high);
