@@ -197,13 +197,14 @@ export const render = {
   keyCells: (n: number) => `colour: mean over seeds in a measured cell (${n} cells)`,
   keyRaster: (method: string, rmse: string) =>
     `solid: measured cell · hatched: interpolated by ${method} (leave-one-out rmse ${rmse}), no run there`,
-  keyMissing: (n: number) => `grey ×: missing cell, no finished run (${n})`,
+  keyMissing: (n: number, raster: boolean) =>
+    raster ? `×: missing cell, no finished run; its colour is interpolated (${n})` : `grey ×: missing cell, no finished run (${n})`,
   keyDiverged: (n: number) => `triangle: cell with diverged run(s), left out of the mean (${n})`,
   keyRidge: (from: string) => `ridge: error peak in each row; whiskers: its location interval (${from}); gap: no significant peak`,
   keyThreshold: (x: string, eps: string, dots: boolean) =>
     `dashed: interpolation threshold, smallest ${x} with mean train error ≤ ${eps}${dots ? ' (square: a row whose neighbours have none)' : ''}`,
-  keySlicesBand: (diverged: boolean) =>
-    `band: 95% Student-t interval of the mean over seeds · ◆ ridge peak with its location interval${diverged ? ' · △ cell with diverged run(s)' : ''}`,
+  keySlicesBand: (diverged: boolean, peaks: boolean) =>
+    `band: 95% Student-t interval of the mean over seeds${peaks ? ' · ◆ ridge peak with its location interval' : ''}${diverged ? ' · △ cell with diverged run(s)' : ''}`,
   warnNoRidge: 'ridge not computed: no peak or threshold drawn',
   warnNoPeak: (k: number) => `no significant peak in any row (prominence ≥ ${k} standard errors): no ridge drawn`,
   warnWeakPeaks: (where: string, k: number) => `not significant (prominence < ${k} standard errors): peak at ${where}`,
@@ -285,6 +286,8 @@ export const planText = {
   slurmBigArray: (n: number) =>
     `the Slurm array has ${n} tasks; clusters often cap arrays at MaxArraySize (1001 by default, common practice): split with --budget or ask your admins`,
   extraWidthsHint: (n: number) => `${n} of the extra runs sit at widths outside the spec (e.g. from refinement): add those widths to the spec to track them`,
+  extraSeedsHint: (n: number, store: string, spec: string) =>
+    `${n} of the extra runs differ from the spec only in their seed id (store seeds ${store}; spec seeds ${spec}): list the ids in the spec, e.g. seeds: [${store}]`,
   refinePeaks: (n: number, sig: number) => `analyses at the target epoch: ${n} ridge point${n === 1 ? '' : 's'} along width (${sig} significant)`,
 };
 
@@ -338,4 +341,10 @@ export const report = {
   cautionsHead: 'Read with care:',
   skippedKind: (kind: string, reason: string) => `${kind}-wise map not drawn: ${reason}`,
   defaultTitle: (store: string) => `Sweep report: ${store}`,
+  demoTitle: 'Demo sweep: random features trained by gradient descent over width, train size, label noise and epochs',
+  demoSimulating: (dir: string) => `simulating the demo sweep into ${dir} (600 runs; about a minute on 2 cores)`,
+  demoIngestFailed: (dir: string) => `the demo sweep at ${dir} could not be ingested (run datlas ingest ${dir} to see why)`,
+  demoHead: (logs: string, rows: number, seconds: number) => `demo: ${rows} logged rows from ${logs}, report and plan in ${seconds.toFixed(1)} s`,
+  demoNext: (html: string, store: string, spec: string) =>
+    `next: open ${html} in a browser; try datlas map --store ${store} --kind model --at label_noise=0.1, or datlas plan --store ${store} --spec ${spec} --budget 100`,
 };

@@ -136,6 +136,11 @@ export const command: CommandSpec<CoverageArgs> = {
       lines.push(planText.extraRuns(cov.extra.length, parts.join('; ')));
       const widthOnly = cov.extra.filter((e) => e.outside.length === 1 && e.outside[0] === 'width').length;
       if (widthOnly) lines.push(planText.extraWidthsHint(widthOnly));
+      const seedOnly = cov.extra.filter((e) => e.outside.length === 1 && e.outside[0] === 'seed');
+      if (seedOnly.length) {
+        const ids = [...new Set(seedOnly.map((e) => e.seed))].sort((a, b) => a - b).slice(0, 12);
+        lines.push(planText.extraSeedsHint(seedOnly.length, ids.join(', '), spec.seeds.join(', ')));
+      }
     }
     if (cov.superseded) lines.push(planText.supersededRuns(cov.superseded));
     process.stdout.write(`${lines.join('\n')}\n`);

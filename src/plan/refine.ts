@@ -44,6 +44,12 @@ export interface RefineResult {
   notes: string[];
 }
 
+/**
+ * Grid steps within 10% of the resolution count as resolved: integer rounding makes a √2 grid's
+ * steps 0.49–0.51 octaves, and those should not be split unevenly.
+ */
+const SLACK = 1.1;
+
 /** One-sided normal quantile through Student t with very many degrees of freedom. */
 const zOf = (p: number) => tQuantile(1 - p, 1e7);
 
@@ -142,7 +148,7 @@ export function proposeRefinements(opts: RefineOptions): RefineResult {
     if (found.length === 0 && row && row.threshold !== null && !row.thresholdAtEdge) {
       const a = widths.filter((w) => w <= row.threshold!).at(-1);
       const b = widths.find((w) => w >= row.threshold!);
-      const m = a !== undefined && b !== undefined && Math.log2(b / a) > resolution ? midpoint(a, b) : null;
+      const m = a !== undefined && b !== undefined && Math.log2(b / a) > resolution * SLACK ? midpoint(a, b) : null;
       // Half the value of a resolved ridge point: the peak is only expected there.
       if (m !== null) propose(m, Math.log2(b! / a!) / 2, msg.whyThreshold(where, fmt(row.threshold), fmt(a!), fmt(b!)));
     }
@@ -165,11 +171,11 @@ export function proposeRefinements(opts: RefineOptions): RefineResult {
       const lo = widths.filter((w) => w <= p.low).at(-1) ?? widths[0];
       const hi = widths.find((w) => w >= p.high) ?? widths[widths.length - 1];
       const octaves = Math.log2(hi / lo);
-      if (!(octaves > resolution)) continue;
+      if (!(octaves > resolution * SLACK)) continue;
       const mids: number[] = [];
       for (let i = 0; i + 1 < widths.length; i++) {
         const a = widths[i], b = widths[i + 1];
-        if (a < lo || b > hi || !(Math.log2(b / a) > resolution)) continue;
+        if (a < lo || b > hi || !(Math.log2(b / a) > resolution * SLACK)) continue;
         const m = midpoint(a, b);
         if (m !== null) mids.push(m);
       }
