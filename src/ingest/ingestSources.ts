@@ -215,7 +215,7 @@ function readOne(
       stamp = { path: '-', size: bytes.byteLength, mtime: Date.now(), sha256: hash };
     } else {
       const prev = manifest.sources[key];
-      const st = statSync(src.given);
+      const st = src.size !== undefined && src.mtime !== undefined ? { size: src.size, mtimeMs: src.mtime } : statSync(src.given);
       const cst = src.config ? statSync(src.config) : null;
       const sameConfig = !src.config || (prev?.config && cst && prev.config.size === cst.size && prev.config.mtime === cst.mtimeMs);
       // Fast path: same size and mtime as stored means unchanged (no read, no hash).

@@ -69,43 +69,69 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
     return { t: tables[ti], i: slot - offset[ti] };
   };
 
-  const index = new Map<string, Map<number, number>>();
+  // Run id → its rows. A run seen once in one contiguous block with increasing epochs (the usual
+  // layout) needs no per-epoch map; one is built only when the run shows up again.
+  interface RunEntry {
+    blocks: [number, number][];
+    byEpoch: Map<number, number> | null;
+  }
+  const index = new Map<string, RunEntry>();
   const rejects: Reject[] = [];
   let conflicts = 0;
+  const place = (byEpoch: Map<number, number>, run: string, slot: number, ti: number, ep: number) => {
+    const holder = byEpoch.get(ep);
+    if (holder === undefined) {
+      byEpoch.set(ep, slot);
+      return;
+    }
+    if (equal(holder, slot)) {
+      disposition[slot] = DUPLICATE;
+      return;
+    }
+    conflicts++;
+    const newer = ti === 0 ? false : mtimeOf(slot) >= mtimeOf(holder);
+    const loser = newer ? holder : slot;
+    const winner = newer ? slot : holder;
+    disposition[loser] = LOST;
+    if (newer) byEpoch.set(ep, slot);
+    const l = rowOf(loser);
+    const w = rowOf(winner);
+    rejects.push({ source: l.t.source[l.i], line: l.t.source_line[l.i], field: 'run', reason: ingestText.conflict(run, ep, w.t.source[w.i], w.t.source_line[w.i]) });
+  };
+  const materialize = (entry: RunEntry): Map<number, number> => {
+    if (entry.byEpoch) return entry.byEpoch;
+    const m = new Map<number, number>();
+    for (const [s0, s1] of entry.blocks) {
+      const { t, i } = rowOf(s0);
+      for (let s = s0; s < s1; s++) m.set(t.epochs[i + s - s0], s);
+    }
+    entry.byEpoch = m;
+    return m;
+  };
   // Older sources first, so a newer one arriving later in the same ingest wins its conflicts.
   const order = [0, ...incoming.map((_, k) => k + 1).sort((a, b) => mtimes[a] - mtimes[b] || a - b)];
   for (const ti of order) {
     const t = tables[ti];
     const base = offset[ti];
-    let lastRun = '';
-    let byEpoch: Map<number, number> | undefined;
-    for (let i = 0; i < t.length; i++) {
+    let i = 0;
+    while (i < t.length) {
       const run = t.run[i];
-      if (run !== lastRun || byEpoch === undefined) {
-        byEpoch = index.get(run);
-        if (!byEpoch) index.set(run, (byEpoch = new Map()));
-        lastRun = run;
+      let j = i + 1;
+      let increasing = true;
+      while (j < t.length && t.run[j] === run) {
+        if (!(t.epochs[j] > t.epochs[j - 1])) increasing = false;
+        j++;
       }
-      const slot = base + i;
-      const ep = t.epochs[i];
-      const holder = byEpoch.get(ep);
-      if (holder === undefined) {
-        byEpoch.set(ep, slot);
-        continue;
+      const entry = index.get(run);
+      if (!entry && increasing) {
+        index.set(run, { blocks: [[base + i, base + j]], byEpoch: null });
+      } else {
+        let e = entry;
+        if (!e) index.set(run, (e = { blocks: [], byEpoch: new Map() }));
+        const byEpoch = materialize(e);
+        for (let r = i; r < j; r++) place(byEpoch, run, base + r, ti, t.epochs[r]);
       }
-      if (equal(holder, slot)) {
-        disposition[slot] = DUPLICATE;
-        continue;
-      }
-      conflicts++;
-      const newer = ti === 0 ? false : mtimeOf(slot) >= mtimeOf(holder);
-      const loser = newer ? holder : slot;
-      const winner = newer ? slot : holder;
-      disposition[loser] = LOST;
-      if (newer) byEpoch.set(ep, slot);
-      const l = rowOf(loser);
-      const w = rowOf(winner);
-      rejects.push({ source: l.t.source[l.i], line: l.t.source_line[l.i], field: 'run', reason: ingestText.conflict(run, ep, w.t.source[w.i], w.t.source_line[w.i]) });
+      i = j;
     }
   }
 
@@ -128,18 +154,36 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
   }
   const out = emptyTable(kept, extraNames);
   let k = 0;
-  for (let s = 0; s < total; s++) {
-    if (disposition[s] !== KEPT) continue;
-    const { t, i } = rowOf(s);
-    out.run[k] = t.run[i];
-    out.condition[k] = t.condition[i];
-    out.source[k] = t.source[i];
-    out.source_line[k] = t.source_line[i];
-    out.status[k] = t.status[i];
-    for (const c of NUMERIC_COLUMNS) out[c][k] = t[c][i];
-    for (const e of extraNames) out.extra[e][k] = t.extra[e]?.[i] ?? NaN;
-    k++;
-  }
+  tables.forEach((t, ti) => {
+    const base = offset[ti];
+    let all = true;
+    for (let i = 0; i < t.length && all; i++) if (disposition[base + i] !== KEPT) all = false;
+    if (all) {
+      // Whole table kept: copy column by column.
+      for (const c of NUMERIC_COLUMNS) out[c].set(t[c], k);
+      out.source_line.set(t.source_line, k);
+      for (const e of extraNames) if (t.extra[e]) out.extra[e].set(t.extra[e], k);
+      for (let i = 0; i < t.length; i++) {
+        out.run[k + i] = t.run[i];
+        out.condition[k + i] = t.condition[i];
+        out.source[k + i] = t.source[i];
+        out.status[k + i] = t.status[i];
+      }
+      k += t.length;
+      return;
+    }
+    for (let i = 0; i < t.length; i++) {
+      if (disposition[base + i] !== KEPT) continue;
+      out.run[k] = t.run[i];
+      out.condition[k] = t.condition[i];
+      out.source[k] = t.source[i];
+      out.source_line[k] = t.source_line[i];
+      out.status[k] = t.status[i];
+      for (const c of NUMERIC_COLUMNS) out[c][k] = t[c][i];
+      for (const e of extraNames) out.extra[e][k] = t.extra[e]?.[i] ?? NaN;
+      k++;
+    }
+  });
   return { table: out, accepted, duplicates, conflictLost, rejects, conflicts, displaced };
 }
 

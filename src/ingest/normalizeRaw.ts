@@ -257,11 +257,13 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
   const errPairs = [
     { t: 'test_error' as const, acc: 'test_accuracy' as const, out: out.test_error, isTest: true },
     { t: 'train_error' as const, acc: 'train_accuracy' as const, out: out.train_error, isTest: false },
-  ];
+  ].map((e) => ({ ...e, v: V[e.t], kd: K[e.t], va: V[e.acc], ka: K[e.acc] }));
   const lossCols = [
     { t: 'test_loss' as const, out: out.test_loss, isTest: true },
     { t: 'train_loss' as const, out: out.train_loss, isTest: false },
-  ];
+  ].map((l) => ({ ...l, v: V[l.t], kd: K[l.t] }));
+  const Vwall = V.wall_seconds;
+  const Kwall = K.wall_seconds;
   let k = 0;
   const last = { run: '', width: NaN, train_size: NaN, label_noise: NaN, seed: NaN, condition: '' };
   const reject = (i: number, field: string, reason: string) => rejects.push({ source, line: raw.lines[i], field, reason });
@@ -300,12 +302,12 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     let status: RunStatus = 'ok';
     let anyTest = false;
     for (const e of errPairs) {
-      let v = V[e.t][i];
-      let kind = K[e.t][i];
+      let v = e.v[i];
+      let kind = e.kd[i];
       let from: Target = e.t;
-      if (kind === CELL_MISSING && K[e.acc][i] !== CELL_MISSING) {
-        v = 1 - V[e.acc][i];
-        kind = K[e.acc][i];
+      if (kind === CELL_MISSING && e.ka[i] !== CELL_MISSING) {
+        v = 1 - e.va[i];
+        kind = e.ka[i];
         from = e.acc;
       }
       e.out[k] = NaN;
@@ -322,8 +324,8 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
       e.out[k] = v < 0 ? 0 : v > 1 ? 1 : v;
     }
     for (const l of lossCols) {
-      const kind = K[l.t][i];
-      const v = V[l.t][i];
+      const kind = l.kd[i];
+      const v = l.v[i];
       l.out[k] = NaN;
       if (kind === CELL_MISSING) continue;
       if (l.isTest) anyTest = true;
@@ -383,8 +385,7 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     out.epochs[k] = epochs;
     out.train_size[k] = trainSize;
     out.label_noise[k] = noise;
-    const wall = V.wall_seconds[i];
-    out.wall_seconds[k] = K.wall_seconds[i] === 0 ? wall : NaN;
+    out.wall_seconds[k] = Kwall[i] === 0 ? Vwall[i] : NaN;
     for (const e of extraParsed) out.extra[e.name][k] = e.p.values[i];
     k++;
   }

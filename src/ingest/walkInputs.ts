@@ -11,6 +11,9 @@ export interface InputSource {
   kind: 'file' | 'rundir' | 'stdin';
   /** A run directory's config file (as given). */
   config?: string;
+  /** Size and mtime from the walk's stat (saves a second stat on the unchanged-file check). */
+  size?: number;
+  mtime?: number;
 }
 
 export interface WalkResult {
@@ -46,6 +49,7 @@ export function walkInputs(paths: readonly string[], opts: { skip?: readonly str
     if (names.includes('manifest.json') && names.includes('rows.arrow')) return; // a store, not logs
     const files: string[] = [];
     const dirs: string[] = [];
+    const stats = new Map<string, { size: number; mtimeMs: number }>();
     for (const name of names) {
       if (name.startsWith('.')) continue;
       const p = join(dir, name);
@@ -56,15 +60,23 @@ export function walkInputs(paths: readonly string[], opts: { skip?: readonly str
         continue;
       }
       if (st.isDirectory()) dirs.push(name);
-      else if (st.isFile()) files.push(name);
+      else if (st.isFile()) {
+        files.push(name);
+        stats.set(name, st);
+      }
     }
     const rd = runDirectoryFiles(files);
     if (rd) {
       const metrics = join(dir, rd.metrics);
-      add({ key: resolve(metrics), given: metrics, kind: 'rundir', config: join(dir, rd.config) });
+      const st = stats.get(rd.metrics)!;
+      add({ key: resolve(metrics), given: metrics, kind: 'rundir', config: join(dir, rd.config), size: st.size, mtime: st.mtimeMs });
       return;
     }
-    for (const name of files) if (formatOfName(name) !== null) add({ key: resolve(join(dir, name)), given: join(dir, name), kind: 'file' });
+    for (const name of files) {
+      if (formatOfName(name) === null) continue;
+      const st = stats.get(name)!;
+      add({ key: resolve(join(dir, name)), given: join(dir, name), kind: 'file', size: st.size, mtime: st.mtimeMs });
+    }
     for (const name of dirs) walkDir(join(dir, name));
   };
   for (const p of paths) {
