@@ -187,6 +187,8 @@ export const analysisText = {
       : '    (a compared cell has one seed: p from a bootstrap with the pooled seed noise)',
   hurtsNone: (metric: string, slices: number, alpha: number) =>
     `no significant rise of ${metricName(metric)} with more data in ${slices} slice${slices === 1 ? '' : 's'} scanned (alpha ${alpha})`,
+  hurtsOneSize: (slices: number) =>
+    `each of the ${slices} width/epochs/label-noise slice${slices === 1 ? '' : 's'} holds a single train size: hurts needs runs over two or more train sizes`,
   hurtsMore: (n: number) => `... and ${n} more segment${n === 1 ? '' : 's'} (all in --json)`,
 };
 

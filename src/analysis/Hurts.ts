@@ -35,7 +35,9 @@ export interface HurtsResult {
   metric: Metric;
   fixed: Record<string, number | string>;
   segments: HurtsSegment[];
-  /** Significance level used, and how many train-size slices were scanned. */
+  /** Significance level used, and how many train-size slices (two or more sizes) were scanned. */
   alpha?: number;
   slices?: number;
+  /** Slices matching `at` that hold a single train size (nothing to scan). */
+  singleSize?: number;
 }

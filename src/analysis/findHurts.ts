@@ -73,9 +73,11 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
   const keys = [...slices.keys()].sort();
 
   const segments: HurtsSegment[] = [];
+  let scanned = 0;
   keys.forEach((key, sliceIndex) => {
     const series = slices.get(key)!.sort((a, b) => a.train_size - b.train_size);
     if (series.length < 2) return;
+    scanned++;
     const u = series.map((c) => Math.log2(c.train_size));
     const m = series.map((c) => c.stats.mean);
     const noise = seriesNoise(series, u);
@@ -170,5 +172,5 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
     for (const { i0: _i0, i1: _i1, ...s } of kept) segments.push(s);
   });
   segments.sort((a, b) => b.rise - a.rise || a.p - b.p);
-  return { metric, fixed: { ...at }, segments, alpha, slices: keys.length };
+  return { metric, fixed: { ...at }, segments, alpha, slices: scanned, singleSize: keys.length - scanned };
 }

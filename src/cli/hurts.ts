@@ -58,7 +58,7 @@ export const command: CommandSpec<HurtsArgs> = {
     const epochs = typeof at.epochs === 'number' ? [at.epochs] : undefined;
     const cells = buildCells(table, { metric, epochs });
     const result = findHurts(cells, { at, alpha: args.alpha, boot: args.boot, seed: args.seed });
-    if (result.slices === 0) throw new UserError(t.noCells(at));
+    if (result.slices === 0) throw new UserError(result.singleSize ? t.hurtsOneSize(result.singleSize) : t.noCells(at));
     if (args.json) process.stdout.write(`${JSON.stringify(result)}\n`);
     else process.stdout.write(`${hurtsText(result, args.limit)}\n`);
     return 0;
