@@ -121,6 +121,7 @@ export const mapMessages = {
   gpSkipped: (n: number, max: number) => `gp not tried: ${n} cells (auto tries gp up to ${max}; ask for --method gp to force it)`,
   triedFailed: (method: string, why: string) => `${method} not usable here: ${why}`,
   wroteMap: (path: string) => `wrote ${path}`,
+  runsEndBefore: (n: number, epochs: number) => `${n} run(s) end before epoch ${epochs} and are left out there (runs are never extrapolated)`,
 };
 
 

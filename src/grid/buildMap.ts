@@ -165,6 +165,16 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   const epochTargets =
     fixed.epochs !== undefined ? [fixed.epochs as number] : xName === 'epochs' || yName === 'epochs' ? (opts.epochs ?? chooseEpochs(table, rows, opts.maxEpochs ?? 100, notes)) : undefined;
   const cells = buildCells(selectRows(table, rows), { metric, epochs: epochTargets });
+  if (fixed.epochs !== undefined) {
+    // Runs that stopped before the fixed epoch: say how many, since they silently thin the cells.
+    const last = new Map<string, number>();
+    for (const i of rows) {
+      const id = `${table.run[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}\u0000${table.seed[i]}`;
+      last.set(id, Math.max(last.get(id) ?? -Infinity, table.epochs[i]));
+    }
+    const short = [...last.values()].filter((e) => e < (fixed.epochs as number)).length;
+    if (short > 0) notes.push(msg.runsEndBefore(short, fixed.epochs as number));
+  }
   const fixedText = Object.entries(fixed).map(([k, v]) => `${k}=${v}`).join(', ') || 'the whole sweep';
   if (cells.length === 0) throw new UserError(msg.noCells(fixedText));
 

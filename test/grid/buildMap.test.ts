@@ -115,6 +115,7 @@ describe('buildMap', () => {
     const rows = sweep({ noises: [0.2], seeds: 1 }).filter((r) => !(r.width === 64 && r.epochs === 1000));
     const map = buildMap(tableFromRows(rows), { method: 'linear', at: { epochs: 1000 }, x: 'width', y: 'label_noise' });
     expect(map.x.values).toEqual([4, 8, 16, 32, 128]);
+    expect(map.notes!.join(' ')).toMatch(/1 run\(s\) end before epoch 1000/);
     const mid = buildMap(tableFromRows(rows), { method: 'linear', at: { epochs: 300 }, x: 'width', y: 'train_size' });
     // 300 lies between logged 100 and 1000: log-epoch interpolation along each run.
     const c = mid.cells.find((m) => m.x === 8)!;
