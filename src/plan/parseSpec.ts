@@ -8,11 +8,20 @@ import { SPEC_SCHEMA } from './specSchema.js';
 import { expandAxis } from './expandAxis.js';
 import type { AxisDef } from './expandAxis.js';
 import type { SweepSpec } from './SweepSpec.js';
+import { formatCondition } from '../ingest/normalizeRaw.js';
+
+/** Conditions as the store spells them: key=value pairs sorted by key and joined by commas (as ingest writes them). */
+function conditions(list: RawSpec['conditions']): string[] {
+  if (!list) return [''];
+  return list.map((c) =>
+    typeof c === 'object' ? formatCondition(Object.entries(c).map(([k, v]) => [k, String(v)] as [string, string])) : String(c),
+  );
+}
 
 interface RawSpec {
   name?: string;
   axes: { width: AxisDef; train_size: AxisDef; label_noise?: AxisDef };
-  conditions?: string[];
+  conditions?: (string | number | Record<string, string | number | boolean>)[];
   seeds: number | number[];
   epochs: number;
 }
@@ -90,7 +99,7 @@ export function parseSpec(text: string, file: string): SweepSpec {
       train_size: axis('train_size', raw.axes.train_size, 'log'),
       label_noise: raw.axes.label_noise === undefined ? [0] : axis('label_noise', raw.axes.label_noise, 'linear'),
     },
-    conditions: raw.conditions ?? [''],
+    conditions: conditions(raw.conditions),
     seeds,
     epochs: raw.epochs,
   };

@@ -13,7 +13,9 @@ axes:
   # Fraction of training labels flipped; linear spacing by default. Omit for [0].
   label_noise: [0, 0.1, 0.2]
 
-# Other settings that split the sweep (optimizer, weight decay, ...). Omit when there are none.
+# Other settings that split the sweep, as the store names them ("adam") or as key: value pairs
+# ({optimizer: adam, weight_decay: 0.0005} matches ingest's "optimizer=adam,weight_decay=0.0005").
+# Omit when there are none.
 conditions: [adam]
 
 # Seeds per cell: a count (ids 0, 1, 2, ...) or an explicit list of seed ids, e.g. [1, 2, 3].

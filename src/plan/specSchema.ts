@@ -37,7 +37,17 @@ export const SPEC_SCHEMA = {
         label_noise: axisDef(fraction, 'linear'),
       },
     },
-    conditions: { type: 'array', minItems: 1, uniqueItems: true, items: { type: 'string' } },
+    // A condition as the store spells it ("adam", "optimizer=adam,wd=0.01") or as key: value pairs.
+    conditions: {
+      type: 'array',
+      minItems: 1,
+      uniqueItems: true,
+      items: {
+        type: ['string', 'number', 'object'],
+        if: { type: 'object' },
+        then: { minProperties: 1, additionalProperties: { type: ['string', 'number', 'boolean'] } },
+      },
+    },
     seeds: {
       type: ['integer', 'array'],
       if: { type: 'integer' },

@@ -41,6 +41,12 @@ describe('parseSpec', () => {
     expect(f.axes.width).toEqual([0.5, 1, 2]);
   });
 
+  it('spells conditions as the store does', () => {
+    const s = parseSpec('axes:\n  width: [4]\n  train_size: [10]\nconditions: [sgd, {weight_decay: 0.0005, optimizer: adam}, 0.1]\nseeds: 1\nepochs: 1\n', 's.yaml');
+    // Ingest joins config keys sorted by name as key=value with commas (src/ingest/normalizeRaw.ts formatCondition).
+    expect(s.conditions).toEqual(['sgd', 'optimizer=adam,weight_decay=0.0005', '0.1']);
+  });
+
   it('names file, line and key of the first problem', () => {
     expect(fail('axes:\n  width: {from: 4, to: 8}\n  train_size: [10]\nseeds: 2\nepochs: 5\n')).toBe('sweep.yaml line 2: axes.width.count: is required');
     expect(fail('axes:\n  width: [4, 8]\n  train_size: [10]\n  depth: 3\nseeds: 2\nepochs: 5\n')).toBe(
