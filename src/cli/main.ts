@@ -11,10 +11,12 @@ import type { CommandSpec } from './CommandSpec.js';
 const COMMANDS: Record<string, { describe: string; load: () => Promise<{ command: CommandSpec<any> }> }> = {
   // registry:start (one line per command, keep alphabetical)
   coverage: { describe: 'which planned runs are complete, partial, missing or diverged', load: () => import('./coverage.js') },
+  demo: { describe: 'the whole pipeline on the built-in demo sweep: ingest, spec with gaps, report, plan', load: () => import('./demo.js') },
   hurts: { describe: 'train-size ranges where more data raises test error', load: () => import('./hurts.js') },
   ingest: { describe: 'merge run logs into the store', load: () => import('./ingest.js') },
   map: { describe: 'a map of test error over two axes, interpolated, with leave-one-out error', load: () => import('./map.js') },
   plan: { describe: 'rank the next runs (gaps, new widths, extra seeds) within a budget; export csv/json/shell/slurm', load: () => import('./plan.js') },
+  report: { describe: 'group-meeting report: PDF deck, self-contained HTML page and PNGs', load: () => import('./report.js') },
   ridge: { describe: 'the double-descent peak per map row, with interval and threshold', load: () => import('./ridge.js') },
   simulate: { describe: 'simulate a double-descent sweep and write its run logs', load: () => import('./simulate.js') },
   // registry:end

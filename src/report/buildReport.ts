@@ -101,8 +101,15 @@ function variantLabel(fixed: Record<string, number | string>, selector: string[]
   return formatFixed({ ...first, ...fixed });
 }
 
-function mapSection(table: RowTable, kind: MapKind, o: { metric: Metric; perAxis: number; boot: number; seed: number; onStep?: () => void }): MapSection | null {
-  const main = buildMap(table, { kind, metric: o.metric, method: 'auto' });
+/** Variants only feed the interactive measured-cell maps, ridges and facets: no field is drawn from them, so a cheap one will do. */
+const VARIANT_FIELD = { method: 'linear', raster: { nx: 8, ny: 8 } } as const;
+
+function mapSection(
+  table: RowTable,
+  kind: MapKind,
+  o: { metric: Metric; perAxis: number; boot: number; seed: number; onStep?: () => void; at?: Record<string, number | string> },
+): MapSection | null {
+  const main = buildMap(table, { kind, metric: o.metric, method: 'auto', ...(o.at ? { at: o.at } : {}) });
   if (main.cells.length === 0) return null;
   const ridgeOf = (map: SweepMap): RidgeResult | null =>
     map.cells.length >= 3 ? findRidge(map, { boot: o.boot, seed: o.seed, nullRounds: o.boot }) : null;
@@ -120,7 +127,7 @@ function mapSection(table: RowTable, kind: MapKind, o: { metric: Metric; perAxis
     for (const v of chosen) {
       if (v === main.fixed[key]) continue;
       try {
-        const m = buildMap(table, { kind, metric: o.metric, method: main.method, at: { ...main.fixed, [key]: v } });
+        const m = buildMap(table, { kind, metric: o.metric, ...VARIANT_FIELD, at: { ...main.fixed, [key]: v } });
         if (m.cells.length >= 3) {
           maps.push(m);
           added++;
@@ -151,6 +158,18 @@ function mapSection(table: RowTable, kind: MapKind, o: { metric: Metric; perAxis
   });
   const sorted = order.map((i) => variants[i]);
   return { kind, x: MAP_AXES[kind].x, y: MAP_AXES[kind].y, selector, variants: sorted, main: order.indexOf(0) };
+}
+
+/** `{ width, train_size, label_noise }` of the model-wise peak at its latest epoch, width snapped to a measured one. */
+function nearPeakWidth(model: MapSection | undefined, widths: number[]): Record<string, number | string> | undefined {
+  const main = model?.variants[model.main];
+  const rows = (main?.ridge?.rows ?? []).filter((r) => r.peak !== null).sort((a, b) => b.y - a.y);
+  if (!main || rows.length === 0 || widths.length === 0) return undefined;
+  const x = rows[0].peak!.x;
+  const width = widths.reduce((best, w) => (Math.abs(Math.log(w / x)) < Math.abs(Math.log(best / x)) ? w : best), widths[0]);
+  const at: Record<string, number | string> = { width };
+  if (typeof main.map.fixed.label_noise === 'number') at.label_noise = main.map.fixed.label_noise;
+  return at;
 }
 
 function coverageSummary(c: CoverageResult): CoverageSummary {
@@ -199,7 +218,10 @@ export function buildReport(opts: BuildReportOptions): ReportModel {
       skipped.push({ kind, reason: why });
       continue;
     }
-    const sec = mapSection(table, kind, o);
+    // Epoch-wise double descent shows best near the interpolation threshold: draw the epoch map
+    // at the measured width nearest the model-wise peak (latest epoch), when there is one.
+    const at = kind === 'epoch' ? nearPeakWidth(maps.find((m) => m.kind === 'model'), distinct(table.width)) : undefined;
+    const sec = mapSection(table, kind, { ...o, at });
     if (sec) maps.push(sec);
     else skipped.push({ kind, reason: msg.skipNoCells });
   }

@@ -37,7 +37,7 @@ function sectionData(sec: MapSection) {
     main: sec.main,
     variants: sec.variants.map((v) => ({
       label: v.label,
-      meta: variantMeta(v.map),
+      meta: variantMeta(v.map, v === sec.variants[sec.main]),
       spec: cellMapSpec(v.map, v.ridge, { width: 520, height: 340 }),
       cells: cellRecords(v.map),
       ridge: (v.ridge?.rows ?? []).map((r) => ({ y: r.y, peak: r.peak, threshold: r.threshold, noiseFrom: r.noiseFrom })),
@@ -46,9 +46,11 @@ function sectionData(sec: MapSection) {
   };
 }
 
-function variantMeta(map: MapSection['variants'][number]['map']): string {
+function variantMeta(map: MapSection['variants'][number]['map'], main: boolean): string {
   const picked = map.picked.length ? ` · chosen by most data: ${map.picked.join(', ')}` : '';
-  return `${map.cells.length} measured cells · ${map.missing.length} missing · interpolation ${map.method} (leave-one-out rmse ${formatNumber(map.loo.rmse)})${picked}`;
+  // Only the main variant has an interpolated field on the page (the pictures below the map).
+  const field = main ? ` · pictures below: ${map.method} interpolation (leave-one-out rmse ${formatNumber(map.loo.rmse)})` : '';
+  return `${map.cells.length} measured cells · ${map.missing.length} missing${field}${picked}`;
 }
 
 function mapSectionHtml(sec: MapSection, si: number, figures: PageFigure[]): string {

@@ -1,0 +1,132 @@
+import { createHash } from 'node:crypto';
+import { basename, dirname, resolve } from 'node:path';
+import type { Argv } from 'yargs';
+import type { CommandSpec } from './CommandSpec.js';
+import { report as msg } from '../messages.js';
+import type { Manifest } from '../store/Manifest.js';
+import type { RowTable } from '../store/RowTable.js';
+import type { SweepSpec } from '../plan/SweepSpec.js';
+import type { PlanResult } from '../plan/Plan.js';
+import type { CoverageResult } from '../plan/coverage.js';
+import type { ReportModel } from '../report/ReportModel.js';
+import type { ReportFiles } from '../report/writeReport.js';
+import { DEFAULT_STORE, loadSpec } from './coverage.js';
+
+interface ReportArgs {
+  store?: string;
+  spec?: string;
+  out: string;
+  title?: string;
+  budget?: string;
+}
+
+/** Short content hash of the store: sha256 over its sources' hashes (sorted), 12 hex digits. */
+export function storeHash(manifest: Manifest): string | null {
+  const hashes = Object.values(manifest.sources)
+    .map((s) => s.sha256)
+    .sort();
+  if (hashes.length === 0) return null;
+  return createHash('sha256').update(hashes.join('\n')).digest('hex').slice(0, 12);
+}
+
+/** Modification time of the newest source, ISO; null when the store lists none. */
+export function dataDate(manifest: Manifest): string | null {
+  const times = Object.values(manifest.sources).map((s) => s.mtime).filter((t) => Number.isFinite(t));
+  return times.length ? new Date(Math.max(...times)).toISOString() : null;
+}
+
+/** Coverage and plan of a spec against a table, composed like `datlas plan` (gaps first, then refinement). */
+export async function coverageAndPlan(opts: { table: RowTable; spec: SweepSpec; budget?: string }): Promise<{ coverage: CoverageResult; plan: PlanResult }> {
+  const [{ coverage }, { storeRuns }, { fitCostModel }, { planRuns }, { proposeRefinements }, { parseBudget }] = await Promise.all([
+    import('../plan/coverage.js'),
+    import('../plan/storeRuns.js'),
+    import('../plan/costModel.js'),
+    import('../plan/planRuns.js'),
+    import('../plan/refine.js'),
+    import('./plan.js'),
+  ]);
+  const { table, spec } = opts;
+  const cov = coverage(table, spec);
+  const model = fitCostModel({ runs: storeRuns(table), reference: { width: spec.axes.width[0], train_size: spec.axes.train_size[0], epochs: spec.epochs } });
+  const candidates = table.length ? proposeRefinements({ table, spec }).candidates : [];
+  const plan = planRuns({ spec, coverage: cov, model, candidates, budget: parseBudget(opts.budget, model) });
+  return { coverage: cov, plan };
+}
+
+export interface MakeReportOptions {
+  table: RowTable;
+  manifest: Manifest;
+  spec: SweepSpec | null;
+  out: string;
+  title: string;
+  budget?: string;
+  quiet: boolean;
+}
+
+/** Analyses, figures and files of a report (shared by `datlas report` and `datlas demo`). */
+export async function makeReport(opts: MakeReportOptions): Promise<{ model: ReportModel; files: ReportFiles; plan: PlanResult | null }> {
+  const [{ buildReport }, { writeReport }, { progressBar }] = await Promise.all([
+    import('../report/buildReport.js'),
+    import('../report/writeReport.js'),
+    import('./progress.js'),
+  ]);
+  const cp = opts.spec ? await coverageAndPlan({ table: opts.table, spec: opts.spec, budget: opts.budget }) : null;
+  // Roughly: 3 maps × (1 + variants); the bar is a guide, not a count of work.
+  const bar = await progressBar({ label: 'report', total: 30, quiet: opts.quiet, minTotal: 1 });
+  const model = buildReport({
+    table: opts.table,
+    title: opts.title,
+    dataDate: dataDate(opts.manifest),
+    storeHash: storeHash(opts.manifest),
+    coverage: cp?.coverage ?? null,
+    plan: cp?.plan ?? null,
+    onStep: () => bar.tick(),
+  });
+  bar.done();
+  const files = await writeReport({ model, outDir: opts.out });
+  return { model, files, plan: cp?.plan ?? null };
+}
+
+/** Human summary: where the files went, then the findings and what to read with care. */
+export function reportSummary(model: ReportModel, files: ReportFiles): string[] {
+  const lines = [
+    msg.wrote('PDF deck', files.pdf),
+    msg.wrote('HTML page (self-contained)', files.html),
+    msg.wrote(`PNG images (${files.png.length})`, files.png.length ? dirname(files.png[0]) : '-'),
+    msg.wrote('JSON summary', files.json),
+    '',
+    msg.findingsHead,
+    ...model.findings.map((f) => `  • ${f}`),
+  ];
+  if (model.cautions.length) lines.push('', msg.cautionsHead, ...model.cautions.map((c) => `  ! ${c}`));
+  if (model.skipped.length) lines.push('', ...model.skipped.map((s) => `  ${msg.skippedKind(s.kind, s.reason)}`));
+  return lines;
+}
+
+export const command: CommandSpec<ReportArgs> = {
+  usage: 'report',
+  describe: 'group-meeting report: PDF deck, self-contained HTML page and PNGs with maps, ridges, hurts, coverage and plan',
+  example: ['report --store atlas-store --spec sweep.yaml --out report --title "Width sweep, CIFAR-10"', 'writes report/report.pdf, report/report.html and report/png/'],
+  builder: (y: Argv) =>
+    y
+      .option('store', { type: 'string', describe: `store directory (default ./${DEFAULT_STORE})` })
+      .option('spec', { type: 'string', describe: 'sweep spec (YAML or JSON): adds coverage and the proposed next runs' })
+      .option('out', { type: 'string', default: 'report', describe: 'output directory' })
+      .option('title', { type: 'string', describe: 'title of the deck and page (default: the spec name or the store folder)' })
+      .option('budget', { type: 'string', describe: 'cost cap for the proposed runs (as in datlas plan --budget)' }),
+  async run(args) {
+    const { readStore } = await import('../store/readStore.js');
+    const storeDir = args.store ?? DEFAULT_STORE;
+    const { table, manifest } = await readStore(storeDir);
+    const spec = args.spec ? await loadSpec(args.spec) : null;
+    const title = args.title ?? spec?.name ?? msg.defaultTitle(basename(resolve(storeDir)));
+    const { model, files } = await makeReport({ table, manifest, spec, out: args.out, title, budget: args.budget, quiet: args.quiet || args.json });
+    if (args.json) {
+      const { reportJson } = await import('../report/reportJson.js');
+      process.stdout.write(`${JSON.stringify({ files, ...reportJson(model) })}\n`);
+      return 0;
+    }
+    process.stdout.write(`${reportSummary(model, files).join('\n')}\n`);
+    return 0;
+  },
+};

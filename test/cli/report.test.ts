@@ -1,0 +1,154 @@
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { runCli } from '../helpers/runCli.js';
+
+const EVIL = '<img src=x onerror=alert(1)>';
+const WIDTHS = [8, 16, 32, 64, 128, 256, 512];
+const SIZES = [32, 64, 128];
+const NOISE = [0.1, 0.2];
+const EPOCHS = [1, 10, 100, 1000];
+const SEEDS = [0, 1, 2];
+
+/**
+ * A synthetic sweep with a known answer: test error has a bump centred at width = train size
+ * (the interpolation threshold of random-features models; REFERENCES.md §4, Belkin et al. 2019)
+ * that appears only from epoch 100 on and grows with label noise; along train size the same bump
+ * makes more data hurt up to n = width. Seeds differ by ±0.004 (deterministic).
+ */
+function sweepCsv(skip: (w: number, n: number, q: number, s: number) => boolean): string {
+  const lines = ['run,seed,width,train_size,label_noise,epochs,test_error,train_error'];
+  for (const q of NOISE)
+    for (const n of SIZES)
+      for (const w of WIDTHS)
+        for (const s of SEEDS) {
+          if (skip(w, n, q, s)) continue;
+          const run = w === 64 && n === 64 && q === 0.2 && s === 0 ? `"${EVIL}"` : `w${w}-n${n}-q${q}-s${s}`;
+          for (const e of EPOCHS) {
+            const amp = e < 100 ? 0 : (e === 100 ? 0.12 : 0.2) * (1 + q * 2);
+            const bump = amp * Math.exp(-((Math.log2(w / n)) ** 2) / 0.5);
+            const base = 0.35 - 0.02 * Math.log2(w / 8) - 0.015 * Math.log2(n / 32) + (e === 1 ? 0.05 : 0);
+            const err = base + bump + (s - 1) * 0.004;
+            const train = e >= 100 ? Math.max(0, 0.3 * (1 - w / n)) : 0.3;
+            lines.push(`${run},${s},${w},${n},${q},${e},${err.toFixed(5)},${train.toFixed(5)}`);
+          }
+        }
+  return `${lines.join('\n')}\n`;
+}
+
+let dir: string;
+let store: string;
+
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'datlas-report-cli-'));
+  store = join(dir, 'store');
+  // Two planned runs never ran: width 512, n 128, noise 0.1, seeds 1 and 2.
+  writeFileSync(join(dir, 'sweep.csv'), sweepCsv((w, n, q, s) => w === 512 && n === 128 && q === 0.1 && s > 0));
+  writeFileSync(
+    join(dir, 'spec.yaml'),
+    `name: synthetic\naxes:\n  width: [${WIDTHS.join(', ')}]\n  train_size: [${SIZES.join(', ')}]\n  label_noise: [${NOISE.join(', ')}]\nseeds: 3\nepochs: 1000\n`,
+  );
+  const ingest = runCli(['ingest', join(dir, 'sweep.csv'), '--store', store, '--quiet']);
+  expect(ingest.code, ingest.stderr).toBe(0);
+}, 60_000);
+
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+describe('datlas report', () => {
+  let json: {
+    files: { pdf: string; html: string; json: string; png: string[] };
+    findings: string[];
+    cautions: string[];
+    maps: { map: string; fixed: Record<string, number>; rows: { y: number; peak: { x: number; low: number; high: number } | null }[] }[];
+    hurts: { segments: { fixed: Record<string, number>; onset: number; peak: number }[] }[];
+    coverage: { counts: { complete: number; missing: number } };
+    plan: { runs: { reason: string }[] };
+  };
+  let out: string;
+
+  beforeAll(() => {
+    out = join(dir, 'report');
+    const r = runCli(['report', '--store', store, '--spec', join(dir, 'spec.yaml'), '--out', out, '--title', `Synthetic ${EVIL}`, '--json']);
+    expect(r.code, r.stderr).toBe(0);
+    json = JSON.parse(r.stdout);
+  }, 120_000);
+
+  it('finds the model-wise peak at width = train size, only from epoch 100 on', () => {
+    const model = json.maps.find((m) => m.map === 'model')!;
+    const n = model.fixed.train_size;
+    for (const row of model.rows) {
+      if (row.y < 100) expect(row.peak).toBeNull();
+      else {
+        expect(row.peak).not.toBeNull();
+        // The synthetic bump is centred at width = n exactly.
+        expect(row.peak!.low).toBeLessThanOrEqual(n * 1.25);
+        expect(row.peak!.high).toBeGreaterThanOrEqual(n / 1.25);
+      }
+    }
+    const ratio = Number(/, ([\d.]+) × the train size/.exec(json.findings[0])?.[1]);
+    expect(ratio).toBeGreaterThan(0.8);
+    expect(ratio).toBeLessThan(1.25);
+    expect(json.findings[1]).toMatch(/appears at epochs 100 \(no significant peak earlier\)/);
+  });
+
+  it('finds more data hurting up to n = width', () => {
+    const segs = json.hurts[0].segments;
+    expect(segs.length).toBeGreaterThan(0);
+    const at64 = segs.find((s) => s.fixed.width === 64);
+    expect(at64).toBeDefined();
+    expect(at64!.peak).toBe(64);
+    expect(at64!.onset).toBe(32);
+    expect(json.findings.some((f) => f.startsWith('More data hurts at width'))).toBe(true);
+  });
+
+  it('counts the two runs the spec planned but the store lacks, and plans them first', () => {
+    // 7 widths × 3 sizes × 2 noise levels × 3 seeds = 126 planned runs.
+    expect(json.coverage.counts.missing).toBe(2);
+    expect(json.coverage.counts.complete).toBe(124);
+    expect(json.plan.runs.slice(0, 2).map((r) => r.reason)).toEqual(['missing', 'missing']);
+    expect(json.findings.some((f) => f.includes('2 of 126 planned runs have no data'))).toBe(true);
+  });
+
+  it('writes the PDF deck, the HTML page, PNGs and JSON', () => {
+    expect(existsSync(json.files.pdf)).toBe(true);
+    expect(readFileSync(json.files.pdf).subarray(0, 5).toString()).toBe('%PDF-');
+    expect(json.files.png.length).toBeGreaterThanOrEqual(6);
+    for (const p of json.files.png) expect(readFileSync(p).subarray(1, 4).toString()).toBe('PNG');
+    expect(readdirSync(join(out, 'png')).some((f) => f.endsWith('.vl.json'))).toBe(true);
+    expect(JSON.parse(readFileSync(json.files.json, 'utf8')).findings).toEqual(json.findings);
+  });
+
+  it('the HTML page loads nothing from the network and shows user labels as text', () => {
+    const html = readFileSync(json.files.html, 'utf8');
+    expect(html).not.toMatch(/<(script|img|link)[^>]+(src|href)="?(https?:)?\/\//i);
+    // The run name and the title never appear as markup anywhere in the file.
+    expect(html).not.toContain(EVIL);
+    expect(html).toContain('<h1>Synthetic &lt;img src=x onerror=alert(1)&gt;</h1>');
+    expect(html).toContain('\\u003cimg src=x onerror=alert(1)\\u003e');
+  });
+
+  it.skipIf(!existsSync('/usr/bin/pdftotext') && !process.env.CI)('the PDF text can be selected and carries the findings', () => {
+    const text = spawnSync('pdftotext', [json.files.pdf, '-'], { encoding: 'utf8' }).stdout.replace(/\s+/g, ' ');
+    expect(text).toContain(`Synthetic ${EVIL}`);
+    expect(text).toContain('Headline findings');
+    expect(text).toContain('Coverage against the spec');
+    expect(text).toContain('Proposed next runs');
+  });
+});
+
+describe('datlas report errors and help', () => {
+  it('fails with one line when there is no store', () => {
+    const r = runCli(['report', '--store', join(dir, 'nowhere'), '--out', join(dir, 'x')]);
+    expect(r.code).toBe(1);
+    expect(r.stderr.trim().split('\n')).toHaveLength(1);
+    expect(r.stderr).toMatch(/no store at/);
+  });
+  it('has help with an example', () => {
+    const r = runCli(['report', '--help']);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/--spec/);
+    expect(r.stdout).toMatch(/Examples:/);
+  });
+});
