@@ -1,7 +1,7 @@
 import type { TopLevelSpec } from 'vega-lite';
 
 /** One line of a figure's key: a sample of the mark, then what it means. */
-export type KeySymbol = 'swatch' | 'hatch' | 'missing' | 'diverged' | 'ridge' | 'threshold' | 'none';
+export type KeySymbol = 'swatch' | 'hatch' | 'missing' | 'cross' | 'diverged' | 'ridge' | 'threshold' | 'none';
 export interface KeyEntry {
   symbol: KeySymbol;
   text: string;
@@ -69,6 +69,11 @@ export function keySpec(entries: KeyEntry[], warnings: string[], width: number):
     {
       transform: [only(['missing'])],
       mark: { type: 'point', shape: 'cross', filled: true, opacity: 1, size: 50, color: STYLE.missingCross, angle: 45 },
+      encoding: { x: x('xm'), y },
+    },
+    {
+      transform: [only(['cross'])],
+      mark: { type: 'point', shape: 'cross', filled: true, opacity: 1, size: 60, color: STYLE.casing, stroke: STYLE.ridge, strokeWidth: 0.8, angle: 45 },
       encoding: { x: x('xm'), y },
     },
     {

@@ -249,7 +249,10 @@ export function facetHeatmapSpec(panels: MapPanel[], opts: HeatmapOptions = {}):
     layers.push({
       name: 'missingMarks',
       transform: [only('missingMark')],
-      mark: { type: 'point', shape: 'cross', angle: 45, filled: true, opacity: 1, size: 50, color: STYLE.missingCross },
+      // Over an image the cross needs a light fill and dark edge to show on any colour.
+      mark: image
+        ? { type: 'point', shape: 'cross', angle: 45, filled: true, opacity: 1, size: 60, color: STYLE.casing, stroke: STYLE.ridge, strokeWidth: 0.8 }
+        : { type: 'point', shape: 'cross', angle: 45, filled: true, opacity: 1, size: 50, color: STYLE.missingCross },
       encoding: { x: X('xc'), y: Y('yc') },
     });
   }
@@ -306,7 +309,7 @@ export function facetHeatmapSpec(panels: MapPanel[], opts: HeatmapOptions = {}):
   } else {
     entries.push({ symbol: 'swatch', color: `rgb(${lut[128 * 3]},${lut[128 * 3 + 1]},${lut[128 * 3 + 2]})`, text: msg.keyCells(cellCount) });
   }
-  if (missingCount) entries.push({ symbol: 'missing', text: msg.keyMissing(missingCount) });
+  if (missingCount) entries.push({ symbol: raster ? 'cross' : 'missing', text: msg.keyMissing(missingCount, raster) });
   if (divergedCount) entries.push({ symbol: 'diverged', text: msg.keyDiverged(divergedCount) });
   if (has('ridge')) {
     const rows = panels.flatMap((p) => p.ridge?.rows ?? []).filter((r) => r.peak);

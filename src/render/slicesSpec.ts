@@ -47,17 +47,21 @@ export function slicesSpec(map: SweepMap, ridge: RidgeResult | null, opts: Slice
     const byX = new Map(map.cells.filter((c) => c.y === y).map((c) => [c.x, c]));
     let segTest = 0;
     let segTrain = 0;
+    // A cell without an interval (one seed) breaks the band instead of bridging it.
+    let segBand = 0;
     for (const x of map.x.values) {
       const c = byX.get(x);
       const s = c?.cell.stats;
       if (!c || !s || !Number.isFinite(s.mean)) {
         segTest++;
         segTrain++;
+        segBand++;
         continue;
       }
       lo = Math.min(lo, s.low ?? s.mean, s.mean);
       hi = Math.max(hi, s.high ?? s.mean, s.mean);
-      values.push({ layer: 'test', row: label(y), series: metric, x, value: s.mean, low: s.low, high: s.high, n: s.n, seg: segTest });
+      if (s.low === null || s.high === null) segBand++;
+      values.push({ layer: 'test', row: label(y), series: metric, x, value: s.mean, low: s.low, high: s.high, n: s.n, seg: segTest, bandSeg: segBand });
       const tr = c.cell.train;
       if (tr && Number.isFinite(tr.mean)) {
         values.push({ layer: 'train', row: label(y), series: 'train error', x, value: tr.mean, seg: segTrain });
@@ -90,7 +94,7 @@ export function slicesSpec(map: SweepMap, ridge: RidgeResult | null, opts: Slice
       name: 'band',
       transform: [only('test'), { filter: 'isValid(datum.low) && isValid(datum.high)' }],
       mark: { type: 'area', opacity: 0.18 },
-      encoding: { x: X('x'), y: Y('low'), y2: { field: 'high' }, color, detail: { field: 'seg', type: 'nominal' } },
+      encoding: { x: X('x'), y: Y('low'), y2: { field: 'high' }, color, detail: { field: 'bandSeg', type: 'nominal' } },
     },
     {
       name: 'lines',
@@ -145,7 +149,7 @@ export function slicesSpec(map: SweepMap, ridge: RidgeResult | null, opts: Slice
   const chosen = ridge ? { ...ridge, rows: ridge.rows.filter((r) => rows.includes(r.y)) } : null;
   const warnings = figureWarnings([{ ridge: chosen, label: '' }]);
   const diverged = values.some((v) => v.layer === 'diverged');
-  const key = keySpec([{ symbol: 'none', text: msg.keySlicesBand(diverged) }], warnings, width + 140);
+  const key = keySpec([{ symbol: 'none', text: msg.keySlicesBand(diverged, values.some((v) => v.layer === 'peak')) }], warnings, width + 140);
   const spec = {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     title: { text: msg.slicesTitle(metric, axisLabel(map.x.name), axisLabel(yName)), subtitle: fixedLine(map, { method: false }) },
