@@ -62,7 +62,9 @@ const fmt = (v: number) => Number(v.toPrecision(4)).toLocaleString('en-US');
  *   spans more than `resolution` octaves, the geometric midpoint (bisection in log space) of
  *   every grid step in the bracket coarser than `resolution`: a parabola through cells far
  *   apart pins the peak no better than the grid does. Value: the bracket's octaves shared
- *   among its new widths.
+ *   among its new widths. A slice with no peak resolved but an interpolation threshold gets
+ *   the midpoint of the grid step holding the threshold (the peak is expected near it), at
+ *   half that value.
  * - seeds: where a peak is borderline (prominence within a factor 1.5 of the minimum, either
  *   side) extra seeds at the peak cell and its two neighbours; where a hurts segment is
  *   borderline (p within a factor 4 of alpha, either side) extra seeds at its onset and peak.
