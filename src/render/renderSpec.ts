@@ -37,21 +37,35 @@ export async function compileSpec(spec: TopLevelSpec): Promise<CompiledSpec> {
  * PDF text is drawn as glyphs so it stays selectable.
  */
 export async function renderSpec(spec: TopLevelSpec, opts: RenderOptions): Promise<Buffer | string> {
-  const { format, scale = 2 } = opts;
+  const out = await renderFormats(spec, { formats: [opts.format], scale: opts.scale });
+  return out[opts.format]!;
+}
+
+/** Renders one spec to several formats, compiling and laying it out once. */
+export async function renderFormats(
+  spec: TopLevelSpec,
+  opts: { formats: readonly ImageFormat[]; scale?: number },
+): Promise<Partial<Record<ImageFormat, Buffer | string>>> {
+  const { formats, scale = 2 } = opts;
   const vega = await import('vega');
   const { vega: vgSpec } = await compileSpec(spec);
   const view = new vega.View(vega.parse(vgSpec as never), { renderer: 'none' });
+  const out: Partial<Record<ImageFormat, Buffer | string>> = {};
   try {
-    if (format === 'svg') return await view.toSVG();
-    if (format === 'png') {
-      const canvas = (await view.toCanvas(scale)) as unknown as { toBuffer(mime: string): Buffer };
-      return canvas.toBuffer('image/png');
+    for (const format of formats) {
+      if (format === 'svg') out.svg = await view.toSVG();
+      else if (format === 'png') {
+        const canvas = (await view.toCanvas(scale)) as unknown as { toBuffer(mime: string): Buffer };
+        out.png = canvas.toBuffer('image/png');
+      } else {
+        const canvas = (await view.toCanvas(1, {
+          type: 'pdf',
+          context: { textDrawingMode: 'glyph' },
+        } as never)) as unknown as { toBuffer(mime: string): Buffer };
+        out.pdf = canvas.toBuffer('application/pdf');
+      }
     }
-    const canvas = (await view.toCanvas(1, {
-      type: 'pdf',
-      context: { textDrawingMode: 'glyph' },
-    } as never)) as unknown as { toBuffer(mime: string): Buffer };
-    return canvas.toBuffer('application/pdf');
+    return out;
   } finally {
     view.finalize();
   }

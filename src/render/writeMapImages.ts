@@ -6,7 +6,7 @@ import type { SweepMap } from '../grid/SweepMap.js';
 import type { ColorScheme } from './colorSchemes.js';
 import { facetHeatmapSpec } from './heatmapSpec.js';
 import type { MapPanel } from './heatmapSpec.js';
-import { renderSpec } from './renderSpec.js';
+import { renderFormats } from './renderSpec.js';
 import type { ImageFormat } from './renderSpec.js';
 import { slicesSpec } from './slicesSpec.js';
 
@@ -41,9 +41,10 @@ async function writeFigure(spec: TopLevelSpec, base: string, opts: WriteMapImage
   const written: string[] = [];
   const specPath = `${base}.vl.json`;
   await writeAtomic(specPath, `${JSON.stringify(spec)}\n`);
+  const images = await renderFormats(spec, { formats: opts.formats, scale: opts.scale ?? 2 });
   for (const format of opts.formats) {
     const path = `${base}.${format}`;
-    await writeAtomic(path, await renderSpec(spec, { format, scale: opts.scale ?? 2 }));
+    await writeAtomic(path, images[format]!);
     written.push(path);
   }
   written.push(specPath);
