@@ -126,6 +126,11 @@ export const TICK_LABEL_EXPR =
   " : datum.value >= 1e4 ? format(datum.value, '.3~s')" +
   " : format(datum.value, '.4~g')";
 
+/** Tick label expression for an axis: label noise as percent, everything else by TICK_LABEL_EXPR. */
+export function tickLabelExpr(name: string): string {
+  return name === 'label_noise' ? "format(datum.value, '.0%')" : TICK_LABEL_EXPR;
+}
+
 /** Vega number format for a metric: error rates as percent, losses as plain numbers. */
 export function metricFormat(metric: Metric, domain: [number, number]): string {
   if (metric.endsWith('_error')) return domain[1] - domain[0] < 0.05 ? '.1%' : '.0%';

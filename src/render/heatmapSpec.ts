@@ -2,7 +2,7 @@ import type { TopLevelSpec } from 'vega-lite';
 import type { RidgeResult } from '../analysis/Ridge.js';
 import type { MapAxis, SweepMap } from '../grid/SweepMap.js';
 import { render as msg } from '../messages.js';
-import { axisLabel, axisTicks, axisTitle, fixedLine, metricFormat, metricLabel, TICK_LABEL_EXPR } from './axisText.js';
+import { axisLabel, axisTicks, axisTitle, fixedLine, metricFormat, metricLabel, tickLabelExpr } from './axisText.js';
 import { colorLut } from './colorLut.js';
 import { DEFAULT_COLOR_SCHEME } from './colorSchemes.js';
 import type { ColorScheme } from './colorSchemes.js';
@@ -191,8 +191,8 @@ export function facetHeatmapSpec(panels: MapPanel[], opts: HeatmapOptions = {}):
   const posScale = (log: boolean, d: [number, number]) =>
     log ? { type: 'log', base: 2, domain: d, nice: false } : { type: 'linear', domain: d, nice: false, zero: false };
   const ticks = (axes: MapAxis[]) => [...new Set(axes.flatMap((a) => axisTicks(a)))].sort((a, b) => a - b);
-  const axisX = { title: axisTitle(first.x), values: ticks(panels.map((p) => p.map.x)), labelExpr: TICK_LABEL_EXPR, grid: false, labelFlush: false };
-  const axisY = { title: axisTitle(first.y), values: ticks(panels.map((p) => p.map.y)), labelExpr: TICK_LABEL_EXPR, grid: false, labelFlush: false };
+  const axisX = { title: axisTitle(first.x), values: ticks(panels.map((p) => p.map.x)), labelExpr: tickLabelExpr(first.x.name), grid: false, labelFlush: false };
+  const axisY = { title: axisTitle(first.y), values: ticks(panels.map((p) => p.map.y)), labelExpr: tickLabelExpr(first.y.name), grid: false, labelFlush: false };
   const X = (field: string) => ({ field, type: 'quantitative', scale: posScale(logX, xDomain), axis: axisX });
   const Y = (field: string) => ({ field, type: 'quantitative', scale: posScale(logY, yDomain), axis: axisY });
   const only = (layer: string) => ({ filter: { field: 'layer', equal: layer } });

@@ -2,7 +2,7 @@ import type { TopLevelSpec } from 'vega-lite';
 import type { RidgeResult } from '../analysis/Ridge.js';
 import type { SweepMap } from '../grid/SweepMap.js';
 import { render as msg } from '../messages.js';
-import { axisLabel, axisTicks, axisTitle, fixedLine, fixedValueText, metricFormat, metricLabel, TICK_LABEL_EXPR } from './axisText.js';
+import { axisLabel, axisTicks, axisTitle, fixedLine, fixedValueText, metricFormat, metricLabel, tickLabelExpr } from './axisText.js';
 import { DEFAULT_COLOR_SCHEME } from './colorSchemes.js';
 import type { ColorScheme } from './colorSchemes.js';
 import { keySpec, STYLE } from './figureKey.js';
@@ -78,7 +78,7 @@ export function slicesSpec(map: SweepMap, ridge: RidgeResult | null, opts: Slice
   const X = (field: string) => ({
     field, type: 'quantitative',
     scale: logX ? { type: 'log', base: 2, domain: xDomain, nice: false } : { type: 'linear', domain: xDomain, nice: false, zero: false },
-    axis: { title: axisTitle(map.x), values: axisTicks(map.x), labelExpr: TICK_LABEL_EXPR, grid: true, gridColor: '#eee' },
+    axis: { title: axisTitle(map.x), values: axisTicks(map.x), labelExpr: tickLabelExpr(map.x.name), grid: true, gridColor: '#eee' },
   });
   const fmt = metricFormat(map.metric, [lo, hi]);
   const Y = (field: string) => ({ field, type: 'quantitative', scale: { zero: false, nice: true }, axis: { title: metric, format: fmt, gridColor: '#eee' } });
