@@ -45,6 +45,7 @@ export const ingestText = {
   badMap: (text: string) => `--map expects canonical=source (e.g. --map width=config.model.width), got '${text}'`,
   badMapTarget: (target: string, known: string) => `--map: unknown column '${target}'; known: ${known}`,
   badSet: (text: string) => `--set expects key=value (e.g. --set train_size=4000), got '${text}'`,
+  badSetValue: (key: string, value: string) => `--set ${key} expects a number, got '${value}'`,
   badScale: (text: string) => `--scale expects column=percent or column=fraction (e.g. --scale test_error=percent), got '${text}'`,
   badSeedFrom: (text: string, why: string) => `--seed-from is not a valid regular expression '${text}': ${why}`,
   badMappingFile: (path: string, why: string) => `--mapping ${path}: ${why}`,

@@ -22,6 +22,7 @@ interface IngestArgs {
 /** Targets --map may name (the canonical columns plus accuracies, converted to error). */
 const MAP_TARGETS = ['run', 'seed', 'width', 'epochs', 'train_size', 'label_noise', 'test_error', 'train_error', 'test_loss',
   'train_loss', 'test_accuracy', 'train_accuracy', 'wall_seconds', 'status', 'condition'];
+const NUMERIC_SET = ['seed', 'width', 'epochs', 'train_size', 'label_noise', 'wall_seconds'];
 const SCALE_TARGETS = ['test_error', 'train_error', 'test_accuracy', 'train_accuracy', 'label_noise'];
 
 function pairs(values: string[] | undefined, bad: (t: string) => string): [string, string][] {
@@ -83,6 +84,9 @@ export const command: CommandSpec<IngestArgs> = {
     const map: Record<string, string> = { ...file.map, ...Object.fromEntries(pairs(args.map, ingestText.badMap)) };
     for (const t of Object.keys(map)) if (!MAP_TARGETS.includes(t)) throw usageError(ingestText.badMapTarget(t, MAP_TARGETS.join(', ')));
     const set: Record<string, string> = { ...file.set, ...Object.fromEntries(pairs(args.set, ingestText.badSet)) };
+    for (const [k, v] of Object.entries(set)) {
+      if (NUMERIC_SET.includes(k) && !Number.isFinite(Number(v))) throw usageError(ingestText.badSetValue(k, v));
+    }
     const scale: Record<string, string> = { ...file.scale, ...Object.fromEntries(pairs(args.scale, ingestText.badScale)) };
     for (const [k, v] of Object.entries(scale)) if (!SCALE_TARGETS.includes(k) || (v !== 'percent' && v !== 'fraction')) throw usageError(ingestText.badScale(`${k}=${v}`));
     const seedText = args.seedFrom ?? file.seedFrom;

@@ -147,4 +147,17 @@ describe('ingest formats (DESIGN.md §4, issue 2)', () => {
     expect(rows[0].label_noise).toBe(0.1);
     expect(rows[0].condition).toBe('augment=none');
   });
+
+  it('percent detection is per column and can be overridden with scale', async () => {
+    // Percent → fraction (DESIGN.md §4); a forced 'fraction' makes 50 out of range (rejected, counted).
+    const p = write('pct.csv', 'width,epoch,n,test_error,train_error\n64,1,4000,50,0.4\n64,2,4000,25,0.2\n64,4,4000,12.5,0.1\n');
+    const auto = await ingest([p]);
+    expectPoints(auto.rows);
+    expect(auto.rows.map((r) => r.train_error)).toEqual([0.4, 0.2, 0.1]);
+    expect(auto.r.notes.join('\n')).toContain("column 'test_error' read as percent");
+    rmSync(join(dir, 'store'), { recursive: true });
+    const forced = await ingest([p], { scale: { test_error: 'fraction' } });
+    expect(forced.r).toMatchObject({ read: 3, accepted: 0, rejected: 3 });
+    expect(forced.r.rejects[0].reason).toBe('test_error must be between 0 and 1 (or a percent), got 50');
+  });
 });

@@ -70,3 +70,16 @@ describe('datlas ingest', () => {
     expect(r.stdout).toContain('datlas ingest runs/');
   });
 });
+
+describe('datlas ingest mapping options', () => {
+  it('--mapping FILE with map, set and scale; --set of a non-number axis is a usage error', () => {
+    writeFileSync(join(dir, 'pct.csv'), 'size,it,err\n64,1,0.5\n64,2,0.25\n');
+    writeFileSync(join(dir, 'map.json'), JSON.stringify({ map: { width: 'size', epochs: 'it', test_error: 'err' }, set: { train_size: 100 }, scale: { test_error: 'percent' } }));
+    const r = runCli(['ingest', 'pct.csv', '--mapping', 'map.json', '--store', 's7', '--json', '--quiet'], { cwd: dir });
+    expect(r.code).toBe(0);
+    expect(JSON.parse(r.stdout)).toMatchObject({ read: 2, accepted: 2 });
+    const bad = runCli(['ingest', 'pct.csv', '--set', 'train_size=lots', '--store', 's8'], { cwd: dir });
+    expect(bad.code).toBe(2);
+    expect(bad.stderr.trim()).toBe("datlas: --set train_size expects a number, got 'lots'");
+  });
+});
