@@ -1,13 +1,15 @@
 import type { FittedField, GridField, ScatterPoints } from './Interpolator.js';
-import { cholesky, choleskyInverseDiagonal, choleskyLogDet, choleskySolve, forwardSolve } from './linalg.js';
+import { cholesky, choleskyInverseDiagonal, choleskyLogDet, choleskySolve, forwardSolve, forwardSolveMany } from './linalg.js';
 import { nelderMead } from './nelderMead.js';
 
 /** Hyper-parameters are fitted on at most this many points (a fixed-seed random subset beyond it). */
 export const GP_FIT_SUBSET = 256;
-/** The sd field conditions each block of raster points on this many nearest cells (exact below it). */
-export const GP_SD_NEIGHBOURS = 50;
-/** Raster points per side of a block sharing one neighbour set for the sd field. */
-const SD_BLOCK = 8;
+/**
+ * Work allowed for the exact sd field, in multiply-adds (each sd point costs n²/2). Below it every
+ * raster point is exact; above it the sd is computed exactly on an evenly spaced sub-raster and
+ * interpolated bilinearly between (the sd of a Matérn 5/2 posterior is smooth between cells).
+ */
+export const GP_SD_BUDGET = 1.5e9;
 /** Diagonal jitter relative to the amplitude, for numerical stability only. */
 const JITTER = 1e-10;
 
@@ -28,6 +30,8 @@ export interface GpOptions {
   mean?: number;
   /** Fixed value scale (default: the sd of the values). */
   scale?: number;
+  /** Work allowed for the exact sd field (default GP_SD_BUDGET). */
+  sdBudget?: number;
 }
 
 /** Matérn 5/2 correlation at scaled distance r. */
@@ -141,10 +145,8 @@ function fitHyper(d: Data, ids: number[], fitNoise: boolean): GpHyper {
  * (Nelder–Mead over their logs). Gives the posterior mean and standard-deviation fields.
  *
  * Leave-one-out in closed form (Rasmussen & Williams 2006, eq. 5.12), hyper-parameters and mean
- * held fixed. The sd field conditions each 8×8 block of raster points on its GP_SD_NEIGHBOURS
- * nearest cells (in length-scale units): exact when there are no more cells than that, otherwise
- * a slight over-estimate (conditioning on less data never lowers the variance), close to exact
- * for Matérn kernels because far cells are screened by near ones.
+ * held fixed. The sd field is exact at every raster point while that costs less than
+ * GP_SD_BUDGET, else exact on a sub-raster and bilinear in between (said in the notes).
  */
 export function gaussianProcessField(p: ScatterPoints, opts: GpOptions = {}): FittedField {
   const n = p.x.length;
@@ -229,42 +231,65 @@ export function gaussianProcessField(p: ScatterPoints, opts: GpOptions = {}): Fi
         value[j * nx + i] = mean + scale * h.amp2 * s;
       }
     }
-    const sd = new Float64Array(nx * ny);
-    const m = Math.min(n, GP_SD_NEIGHBOURS);
-    const dist = new Float64Array(n);
-    const order = new Int32Array(n);
-    const kstar = new Float64Array(m);
-    for (let bj = 0; bj < ny; bj += SD_BLOCK) {
-      for (let bi = 0; bi < nx; bi += SD_BLOCK) {
-        const ie = Math.min(nx, bi + SD_BLOCK);
-        const je = Math.min(ny, bj + SD_BLOCK);
-        let ids: Int32Array;
-        if (m === n) ids = Int32Array.from(all);
-        else {
-          const cx = (gx[bi] + gx[ie - 1]) / 2;
-          const cy = (gy[bj] + gy[je - 1]) / 2;
-          for (let i = 0; i < n; i++) {
-            const dx = (d.x[i] - cx) / h.lx;
-            const dy = d.dims === 2 ? (d.y[i] - cy) / h.ly : 0;
-            dist[i] = dx * dx + dy * dy;
-            order[i] = i;
-          }
-          order.sort((a, b) => dist[a] - dist[b]);
-          ids = order.slice(0, m);
-        }
-        const lb = factor(d, ids, h);
-        if (!lb) {
-          for (let j = bj; j < je; j++) for (let i = bi; i < ie; i++) sd[j * nx + i] = NaN;
-          continue;
-        }
-        for (let j = bj; j < je; j++) {
-          for (let i = bi; i < ie; i++) {
-            for (let a = 0; a < m; a++) kstar[a] = corrTo(ids[a], gx[i], gy[j]);
-            forwardSolve(lb, m, kstar);
-            let q = 0;
-            for (let a = 0; a < m; a++) q += kstar[a] * kstar[a];
-            sd[j * nx + i] = scale * Math.sqrt(Math.max(0, h.amp2 - q));
-          }
+    // Standard deviation: exact var = k(x,x) − k*ᵀ(K + N)⁻¹k* (R&W eq. 2.26) on a sub-raster
+    // sized to the budget (the full raster when n is small), bilinear in between.
+    const perPoint = Math.max(1, (n * n) / 2);
+    const maxPoints = Math.max(4, Math.floor((opts.sdBudget ?? GP_SD_BUDGET) / perPoint));
+    let sx = nx;
+    let sy = ny;
+    if (nx * ny > maxPoints) {
+      if (ny === 1) sx = Math.max(2, Math.min(nx, maxPoints));
+      else if (nx === 1) sy = Math.max(2, Math.min(ny, maxPoints));
+      else {
+        const f = Math.sqrt(maxPoints / (nx * ny));
+        sx = Math.max(2, Math.min(nx, Math.floor(nx * f)));
+        sy = Math.max(2, Math.min(ny, Math.floor(ny * f)));
+      }
+    }
+    const lerp = (g: Float64Array, m: number) => Float64Array.from({ length: m }, (_, k) => (m === 1 ? g[0] : g[0] + ((g[g.length - 1] - g[0]) * k) / (m - 1)));
+    const cx = sx === nx ? gx : lerp(gx, sx);
+    const cy = sy === ny ? gy : lerp(gy, sy);
+    const coarse = new Float64Array(sx * sy);
+    const rhs: Float64Array[] = [];
+    const where: number[] = [];
+    const flush = () => {
+      forwardSolveMany(l, n, rhs);
+      rhs.forEach((v, b) => {
+        let q = 0;
+        for (let a = 0; a < n; a++) q += v[a] * v[a];
+        coarse[where[b]] = scale * Math.sqrt(Math.max(0, h.amp2 - q));
+      });
+      rhs.length = 0;
+      where.length = 0;
+    };
+    for (let j = 0; j < sy; j++) {
+      for (let i = 0; i < sx; i++) {
+        rhs.push(Float64Array.from({ length: n }, (_, a) => corrTo(a, cx[i], cy[j])));
+        where.push(j * sx + i);
+        if (rhs.length === 16) flush();
+      }
+    }
+    if (rhs.length) flush();
+    let sd: Float64Array;
+    if (sx === nx && sy === ny) sd = coarse;
+    else {
+      notes.push(`gp: sd computed exactly on a ${sx}×${sy} sub-raster and interpolated bilinearly to ${nx}×${ny}`);
+      sd = new Float64Array(nx * ny);
+      const pos = (g: Float64Array, c: Float64Array, k: number) => {
+        if (c.length === 1) return { k0: 0, w: 0 };
+        const t = ((g[k] - c[0]) / (c[c.length - 1] - c[0])) * (c.length - 1);
+        const k0 = Math.min(c.length - 2, Math.max(0, Math.floor(t)));
+        return { k0, w: t - k0 };
+      };
+      for (let j = 0; j < ny; j++) {
+        const { k0: j0, w: wy } = pos(gy, cy, j);
+        const j1 = Math.min(sy - 1, j0 + 1);
+        for (let i = 0; i < nx; i++) {
+          const { k0: i0, w: wx } = pos(gx, cx, i);
+          const i1 = Math.min(sx - 1, i0 + 1);
+          const top = coarse[j0 * sx + i0] * (1 - wx) + coarse[j0 * sx + i1] * wx;
+          const bottom = coarse[j1 * sx + i0] * (1 - wx) + coarse[j1 * sx + i1] * wx;
+          sd[j * nx + i] = top * (1 - wy) + bottom * wy;
         }
       }
     }

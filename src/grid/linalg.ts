@@ -57,6 +57,15 @@ export function forwardSolve(l: Float64Array, n: number, b: Float64Array): Float
   return b;
 }
 
+/** Solves L·x = b in place for several right-hand sides, reading each row of L once for all of them. */
+export function forwardSolveMany(l: Float64Array, n: number, bs: Float64Array[]): void {
+  for (let i = 0; i < n; i++) {
+    const ri = i * n;
+    const lii = l[ri + i];
+    for (const b of bs) b[i] = (b[i] - dot(l, ri, b, 0, i)) / lii;
+  }
+}
+
 /** Solves Lᵀ·x = b in place. */
 export function backSolveT(l: Float64Array, n: number, b: Float64Array): Float64Array {
   for (let i = n - 1; i >= 0; i--) {

@@ -1,6 +1,7 @@
 import Delaunator from 'delaunator';
 import { describe, expect, it } from 'vitest';
-import { gaussianProcessField } from '../../src/grid/gaussianProcessField.js';
+import { gaussianProcessField, matern52 } from '../../src/grid/gaussianProcessField.js';
+import { cholesky, forwardSolve } from '../../src/grid/linalg.js';
 import type { FittedField, ScatterPoints } from '../../src/grid/Interpolator.js';
 import { linearField } from '../../src/grid/linearField.js';
 import { THIN_PLATE_GLOBAL_MAX, thinPlateField } from '../../src/grid/thinPlateField.js';
@@ -182,5 +183,41 @@ describe('gp standard deviation field', () => {
     const far = f.grid(Float64Array.from([1e3]), Float64Array.from([1e3]));
     // Far from all data the posterior sd returns to the prior amplitude (R&W §2.2).
     expect(far.sd![0]).toBeCloseTo(f.params!.scale * Math.sqrt(f.params!.amp2), 6);
+  });
+
+  it('is the exact posterior sd (R&W 2006, eq. 2.26) at every raster point, or at sub-raster nodes with bilinear values between', () => {
+    const n = 100;
+    const p = scatter(n, wavy, 16, 1e-4);
+    const f = gaussianProcessField(p);
+    const { lx, ly, amp2, scale } = f.params!;
+    const z2 = 1e-4 / (scale * scale);
+    const k = new Float64Array(n * n);
+    const corr = (ax: number, ay: number, bx: number, by: number) => amp2 * matern52(Math.hypot((ax - bx) / lx, (ay - by) / ly));
+    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) k[i * n + j] = corr(p.x[i], p.y[i], p.x[j], p.y[j]) + (i === j ? z2 + 1e-10 * amp2 : 0);
+    expect(cholesky(k, n)).toBe(true);
+    const exactSd = (x: number, y: number) => {
+      const ks = Float64Array.from({ length: n }, (_, a) => corr(x, y, p.x[a], p.y[a]));
+      forwardSolve(k, n, ks);
+      return scale * Math.sqrt(Math.max(0, amp2 - ks.reduce((s2, v) => s2 + v * v, 0)));
+    };
+    const g9 = Float64Array.from({ length: 9 }, (_, i) => i / 8);
+    const full = f.grid(g9, g9);
+    for (let j = 0; j < 9; j++) for (let i = 0; i < 9; i++) expect(full.sd![j * 9 + i]).toBeCloseTo(exactSd(g9[i], g9[j]), 9);
+
+    // A budget of 100 points on a 37×37 raster: exact on a 10×10 sub-raster (every 4th point).
+    const coarse = gaussianProcessField(p, { hyper: f.params as never, mean: f.params!.mean, scale, sdBudget: 100 * (n * n) / 2 });
+    const g37 = Float64Array.from({ length: 37 }, (_, i) => i / 36);
+    const sub = coarse.grid(g37, g37);
+    expect(coarse.notes.join(' ')).toMatch(/10×10 sub-raster/);
+    for (let j = 0; j < 37; j += 4) for (let i = 0; i < 37; i += 4) expect(sub.sd![j * 37 + i]).toBeCloseTo(exactSd(g37[i], g37[j]), 9);
+    for (let j = 1; j < 36; j += 5) {
+      for (let i = 2; i < 36; i += 5) {
+        const i0 = 4 * Math.floor(i / 4);
+        const j0 = 4 * Math.floor(j / 4);
+        const corners = [sub.sd![j0 * 37 + i0], sub.sd![j0 * 37 + i0 + 4], sub.sd![(j0 + 4) * 37 + i0], sub.sd![(j0 + 4) * 37 + i0 + 4]];
+        expect(sub.sd![j * 37 + i]).toBeGreaterThanOrEqual(Math.min(...corners) - 1e-12);
+        expect(sub.sd![j * 37 + i]).toBeLessThanOrEqual(Math.max(...corners) + 1e-12);
+      }
+    }
   });
 });
