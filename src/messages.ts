@@ -342,10 +342,12 @@ export const report = {
   demoSweepMissing: (dir: string) => `no committed demo sweep at ${dir} (run with --fresh to simulate it)`,
   chromiumMissing: 'headless Chromium not found at /usr/bin/chromium',
   findingsHead: 'Headline findings:',
+  hurtsFigure:
+    'Test error along train size at the widths where more data hurts most (mean over seeds, band: 95% interval; dashed: train error).',
   cautionsHead: 'Read with care:',
   skippedKind: (kind: string, reason: string) => `${kind}-wise map not drawn: ${reason}`,
   defaultTitle: (store: string) => `Sweep report: ${store}`,
-  demoTitle: 'Demo sweep: random features trained by gradient descent over width, train size, label noise and epochs',
+  demoTitle: 'Demo sweep: random features over width, train size, label noise, epochs',
   demoSimulating: (dir: string) => `simulating the demo sweep into ${dir} (600 runs; about a minute on 2 cores)`,
   demoIngestFailed: (dir: string) => `the demo sweep at ${dir} could not be ingested (run datlas ingest ${dir} to see why)`,
   demoHead: (logs: string, rows: number, seconds: number) => `demo: ${rows} logged rows from ${logs}, report and plan in ${seconds.toFixed(1)} s`,

@@ -59,6 +59,8 @@ export interface PlannedRun {
   epochs: number;
   reason: string;
   cost: number;
+  /** One line on why the run is proposed (the gap, or the ridge point / hurts segment it sharpens). */
+  why: string;
 }
 
 export interface PlanSummary {

@@ -195,6 +195,7 @@ function planSummary(p: PlanResult): PlanSummary {
       epochs: r.epochs,
       reason: r.reason,
       cost: r.cost,
+      why: r.why,
     })),
   };
 }

@@ -1,6 +1,7 @@
 import type { TopLevelSpec } from 'vega-lite';
 import type { RidgeResult } from '../analysis/Ridge.js';
 import type { MapAxis, SweepMap } from '../grid/SweepMap.js';
+import { axisTicks, tickLabelExpr } from '../render/axisText.js';
 import { STYLE } from '../render/figureKey.js';
 import { formatFixed } from './formatNumber.js';
 
@@ -71,11 +72,9 @@ function scaleOf(axis: MapAxis): Record<string, unknown> {
   return log ? { type: 'log', base: 2, domain: [lo, hi], nice: false } : { type: 'linear', domain: [lo, hi], nice: false, zero: false };
 }
 
-/** Ticks at the measured values when there are few of them (readers look values up by cell). */
+/** The render stage's tick choice and labels, so the page's maps read like the images. */
 function axisOf(axis: MapAxis): Record<string, unknown> {
-  const ticks = axis.values.length <= 12 ? { values: axis.values } : {};
-  const counts = axis.values.every((v) => Number.isInteger(v) && v >= 1);
-  return { grid: false, ...ticks, format: counts ? '~s' : '~g', labelOverlap: 'greedy' };
+  return { grid: false, values: axisTicks(axis), labelExpr: tickLabelExpr(axis.name), labelOverlap: 'greedy' };
 }
 
 export interface CellMapSpecOptions {
@@ -118,14 +117,14 @@ export function cellMapSpec(map: SweepMap, ridge: RidgeResult | null, opts: Cell
   const layers: unknown[] = [
     {
       data: { values: cells },
-      mark: { type: 'rect', strokeWidth: 0.5 },
+      // A hairline in the cell's own colour hides anti-aliasing seams without drawing a grid.
+      mark: { type: 'rect', strokeWidth: 0.5, stroke: { expr: "scale('color', datum.mean)" } },
       encoding: {
         x: { field: 'x0', type: 'quantitative', scale: xScale, title: map.x.name, axis: axisOf(map.x) },
         x2: { field: 'x1' },
         y: { field: 'y0', type: 'quantitative', scale: yScale, title: map.y.name, axis: axisOf(map.y) },
         y2: { field: 'y1' },
         color: { field: 'mean', type: 'quantitative', title: map.metric, scale: { scheme: 'viridis' } },
-        stroke: { value: '#ffffff' },
       },
     },
   ];
@@ -172,7 +171,6 @@ export function cellMapSpec(map: SweepMap, ridge: RidgeResult | null, opts: Cell
     height,
     background: '#ffffff',
     layer: layers,
-    resolve: { scale: { color: 'independent' } },
     config: { font: 'DejaVu Sans, sans-serif', view: { stroke: null } },
     // Layers are built as plain objects; vega-lite's deep union types do not narrow piecewise.
   } as unknown as TopLevelSpec;

@@ -100,6 +100,23 @@ interface Image {
   height: number;
 }
 
+/**
+ * Column widths that fit `w`: every column keeps its natural width when they all fit; otherwise
+ * only the widest are cut, down to a common cap (short number columns never shrink first).
+ */
+export function fitColumns(natural: number[], w: number): number[] {
+  const total = natural.reduce((a, v) => a + v, 0);
+  if (total <= w) return natural;
+  const sorted = [...natural].sort((a, b) => a - b);
+  let rest = w;
+  for (let i = 0; i < sorted.length; i++) {
+    const cap = rest / (sorted.length - i);
+    if (sorted[i] > cap) return natural.map((v) => Math.min(v, cap));
+    rest -= sorted[i];
+  }
+  return natural;
+}
+
 /** Height a block needs at column width `w` (images: 0, they take what is left). */
 function measure(ctx: Ctx, b: DeckBlock, w: number): number {
   switch (b.kind) {
@@ -193,9 +210,7 @@ function draw(ctx: Ctx, b: DeckBlock, x: number, y: number, w: number, maxH: num
         for (const r of b.rows) m = Math.max(m, ctx.measureText(r[j] ?? '').width);
         return m + 12;
       });
-      const total = natural.reduce((a, v) => a + v, 0);
-      const scale = total > w ? w / total : 1;
-      const cw = natural.map((v) => v * scale);
+      const cw = fitColumns(natural, w);
       const fitRows = Math.max(0, Math.floor((maxH - rowH) / rowH));
       const rows = b.rows.length > fitRows ? [...b.rows.slice(0, Math.max(0, fitRows - 1)), [`… ${b.rows.length - Math.max(0, fitRows - 1)} more rows in the HTML page and JSON`]] : b.rows;
       const drawRow = (cells: string[], yy: number, bold: boolean) => {

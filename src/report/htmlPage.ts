@@ -3,7 +3,7 @@ import { escapeHtml, jsonForScript, scriptForInline } from './escapeHtml.js';
 import { formatFixed, formatNumber } from './formatNumber.js';
 import { PAGE_SCRIPT } from './pageScript.js';
 import type { MapSection, ReportModel } from './ReportModel.js';
-import { factRows, hurtsRows, HURTS_COLUMNS, planRows, PLAN_COLUMNS, COVERAGE_COLUMNS, coverageRows } from './reportTables.js';
+import { factRows, hurtsTable, planGroups, planRows, PLAN_COLUMNS, PLAN_GROUP_COLUMNS, COVERAGE_COLUMNS, COVERAGE_GROUP_COLUMNS, coverageGroups, coverageRows } from './reportTables.js';
 
 /** A static picture beside a map (interpolated field, slices), embedded as a data URL. */
 export interface PageFigure {
@@ -17,6 +17,8 @@ export interface HtmlPageOptions {
   runtime: { vega: string; vegaLite: string };
   /** Per map section (same order as model.maps): pictures to show under the interactive map. */
   figures?: PageFigure[][];
+  /** Test error along train size where more data hurts most. */
+  hurtsFigure?: PageFigure;
 }
 
 const esc = escapeHtml;
@@ -53,6 +55,10 @@ function variantMeta(map: MapSection['variants'][number]['map'], main: boolean):
   return `${map.cells.length} measured cells · ${map.missing.length} missing${field}${picked}`;
 }
 
+function figureHtml(f: PageFigure): string {
+  return `<figure><img alt="${esc(f.caption)}" src="data:image/png;base64,${f.png.toString('base64')}"><figcaption>${esc(f.caption)}</figcaption></figure>`;
+}
+
 function mapSectionHtml(sec: MapSection, si: number, figures: PageFigure[]): string {
   const options = sec.variants
     .map((v, vi) => `<option value="${vi}"${vi === sec.main ? ' selected' : ''}>${esc(v.label)}</option>`)
@@ -61,9 +67,7 @@ function mapSectionHtml(sec: MapSection, si: number, figures: PageFigure[]): str
     sec.variants.length > 1
       ? `<label class="selector">${esc(sec.selector.join(' · ') || 'fixed values')}: <select id="select-${si}">${options}</select></label>`
       : `<p class="selector">at ${esc(sec.variants[0]?.label ?? '')}</p>`;
-  const figs = figures
-    .map((f) => `<figure><img alt="${esc(f.caption)}" src="data:image/png;base64,${f.png.toString('base64')}"><figcaption>${esc(f.caption)}</figcaption></figure>`)
-    .join('\n');
+  const figs = figures.map(figureHtml).join('\n');
   return `<section class="map" id="section-${esc(sec.kind)}">
 <h2>${esc(sec.kind)}-wise map: ${esc(sec.x)} × ${esc(sec.y)}</h2>
 ${selector}
@@ -101,18 +105,23 @@ export function htmlPage(opts: HtmlPageOptions): string {
   const skipped = model.skipped.length
     ? `<h2>Maps not drawn</h2><ul>${model.skipped.map((s) => `<li>${esc(s.kind)}-wise: ${esc(s.reason)}</li>`).join('')}</ul>`
     : '';
-  const hurts = hurtsRows(model.hurts);
+  const hurts = hurtsTable(model.hurts);
+  const hurtsFixed = model.hurts[0] ? formatFixed(model.hurts[0].fixed) : '';
   const hurtsHtml = `<h2>Where more data hurts</h2>${
-    hurts.length ? table(HURTS_COLUMNS, hurts) : '<p>No significant rise of test error with train size in any slice the sweep covers.</p>'
-  }`;
+    hurts.rows.length ? `<p class="meta">${esc(`${model.hurts[0].slices ?? '?'} train-size slices${hurtsFixed ? ` at ${hurtsFixed}` : ''}; worst rise first`)}</p>${table(hurts.columns, hurts.rows)}` : '<p>No significant rise of test error with train size in any slice the sweep covers.</p>'
+  }${opts.hurtsFigure ? figureHtml(opts.hurtsFigure) : ''}`;
   const coverageHtml = model.coverage
     ? `<h2>Coverage against the spec</h2><p>${esc(
         `complete ${model.coverage.counts.complete} · partial ${model.coverage.counts.partial} · missing ${model.coverage.counts.missing} · diverged ${model.coverage.counts.diverged}`,
-      )}</p>${model.coverage.gaps.length ? table(COVERAGE_COLUMNS, coverageRows(model.coverage)) : ''}`
+      )}</p>${
+        model.coverage.gaps.length
+          ? `${table(COVERAGE_GROUP_COLUMNS, coverageGroups(model.coverage))}<details><summary>each run that is not complete</summary>${table(COVERAGE_COLUMNS, coverageRows(model.coverage))}</details>`
+          : ''
+      }`
     : '';
   const planHtml = model.plan
     ? `<h2>Proposed next runs</h2><p>${esc(`${model.plan.runs.length} runs, cost ${formatNumber(model.plan.cost)}${model.plan.budget !== null ? ` of budget ${formatNumber(model.plan.budget)}` : ''}`)}</p>${
-        model.plan.runs.length ? table(PLAN_COLUMNS, planRows(model.plan)) : ''
+        model.plan.runs.length ? `${table(PLAN_GROUP_COLUMNS, planGroups(model.plan))}<details><summary>every run, in order</summary>${table(PLAN_COLUMNS, planRows(model.plan))}</details>` : ''
       }`
     : '';
   const cautions = model.cautions.length ? `<h2>Read with care</h2><ul class="cautions">${model.cautions.map((c) => `<li>${esc(c)}</li>`).join('')}</ul>` : '';

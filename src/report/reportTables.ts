@@ -35,12 +35,19 @@ export function ridgeRows(r: RidgeResult): string[][] {
   ]);
 }
 
-export const HURTS_COLUMNS = ['slice', 'onset n', 'peak n', 'recovery n', 'rise', 'p', 'test'];
-
-export function hurtsRows(results: HurtsResult[]): string[][] {
-  return results.flatMap((h) =>
-    h.segments.map((s) => [
-      formatFixed(s.fixed),
+/**
+ * The hurts segments as a table: one column per slice value that differs between segments
+ * (values all segments share — the scan's epoch, an empty condition — are said in the caption).
+ */
+export function hurtsTable(results: HurtsResult[]): { columns: string[]; rows: string[][] } {
+  const segs = results.flatMap((h) => h.segments);
+  const keys = [...new Set(segs.flatMap((s) => Object.keys(s.fixed)))];
+  const varying = keys.filter((k) => segs.length === 1 ? !(k === 'condition' && segs[0].fixed[k] === '') : segs.some((s) => s.fixed[k] !== segs[0].fixed[k]));
+  const cell = (v: number | string | undefined) => (typeof v === 'number' ? formatNumber(v) : (v ?? ''));
+  return {
+    columns: [...varying, 'onset n', 'peak n', 'recovery n', 'rise', 'p', 'test'],
+    rows: segs.map((s) => [
+      ...varying.map((k) => cell(s.fixed[k])),
       formatNumber(s.onset),
       formatNumber(s.peak),
       s.recovery === null ? 'not reached' : formatNumber(s.recovery),
@@ -48,7 +55,7 @@ export function hurtsRows(results: HurtsResult[]): string[][] {
       s.p < 1e-4 ? '< 1e-4' : formatNumber(s.p, 2),
       s.test,
     ]),
-  );
+  };
 }
 
 export const COVERAGE_COLUMNS = ['configuration', 'seed', 'status'];
@@ -57,8 +64,55 @@ export function coverageRows(c: CoverageSummary): string[][] {
   return c.gaps.map((g) => [formatFixed(g.config), String(g.seed), g.status]);
 }
 
-export const PLAN_COLUMNS = ['#', 'configuration', 'seed', 'epochs', 'reason', 'cost'];
+export const COVERAGE_GROUP_COLUMNS = ['status', 'runs', 'which runs'];
+
+/** Coverage gaps grouped by status, with the ranges of the configurations in each group. */
+export function coverageGroups(c: CoverageSummary): string[][] {
+  const byStatus = new Map<string, CoverageSummary['gaps']>();
+  for (const g of c.gaps) {
+    const k = g.status.startsWith('partial') ? 'partial' : g.status;
+    let list = byStatus.get(k);
+    if (!list) byStatus.set(k, (list = []));
+    list.push(g);
+  }
+  return [...byStatus].map(([status, gaps]) => {
+    const runs = gaps.map((g) => ({ config: g.config, seed: g.seed, epochs: 0, reason: status, cost: 0, why: '' }));
+    const keys = [...new Set(gaps.flatMap((g) => Object.keys(g.config)))];
+    const which = [...keys.map((k) => `${k} ${valuesOf(runs, k)}`), `seeds ${[...new Set(gaps.map((g) => g.seed))].sort((a, b) => a - b).join(', ')}`].join(' · ');
+    return [status, String(gaps.length), which];
+  });
+}
+
+export const PLAN_COLUMNS = ['#', 'configuration', 'seed', 'epochs', 'reason', 'cost', 'why'];
 
 export function planRows(p: PlanSummary): string[][] {
-  return p.runs.map((r, i) => [String(i + 1), formatFixed(r.config), String(r.seed), formatNumber(r.epochs), r.reason, formatNumber(r.cost)]);
+  return p.runs.map((r, i) => [String(i + 1), formatFixed(r.config), String(r.seed), formatNumber(r.epochs), r.reason, formatNumber(r.cost), r.why]);
+}
+
+export const PLAN_GROUP_COLUMNS = ['reason', 'runs', 'cost', 'which runs', 'why'];
+
+/** "8 … 4096 (25 values)" or "0.1, 0.2": the values of a config key among some runs. */
+function valuesOf(runs: PlanSummary['runs'], key: string): string {
+  const vals = [...new Set(runs.map((r) => r.config[key]).filter((v) => v !== undefined))];
+  const nums = vals.every((v) => typeof v === 'number') ? (vals as number[]).sort((a, b) => a - b) : null;
+  const list = nums ?? vals.map(String).sort();
+  const text = (v: number | string) => (typeof v === 'number' ? formatNumber(v) : v);
+  if (list.length <= 3) return list.map(text).join(', ');
+  return `${text(list[0])} … ${text(list[list.length - 1])} (${list.length} values)`;
+}
+
+/** The plan grouped by reason and explanation, in plan order: what a meeting needs to decide on. */
+export function planGroups(p: PlanSummary): string[][] {
+  const groups = new Map<string, PlanSummary['runs']>();
+  for (const r of p.runs) {
+    const k = `${r.reason}\u0000${r.why}`;
+    let g = groups.get(k);
+    if (!g) groups.set(k, (g = []));
+    g.push(r);
+  }
+  return [...groups.values()].map((runs) => {
+    const keys = [...new Set(runs.flatMap((r) => Object.keys(r.config)))];
+    const which = [...keys.map((k) => `${k} ${valuesOf(runs, k)}`), `seeds ${[...new Set(runs.map((r) => r.seed))].sort((a, b) => a - b).join(', ')}`].join(' · ');
+    return [runs[0].reason, String(runs.length), formatNumber(runs.reduce((a, r) => a + r.cost, 0)), which, runs[0].why];
+  });
 }

@@ -1,6 +1,8 @@
 import { mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { report as msg } from '../messages.js';
+import { renderSpec } from '../render/renderSpec.js';
+import { slicesSpec } from '../render/slicesSpec.js';
 import { writeMapImages } from '../render/writeMapImages.js';
 import { composeDeck } from './composeDeck.js';
 import type { DeckBlock, DeckPage } from './composeDeck.js';
@@ -12,11 +14,14 @@ import type { MapSection, ReportModel } from './ReportModel.js';
 import { reportJson } from './reportJson.js';
 import {
   COVERAGE_COLUMNS,
+  COVERAGE_GROUP_COLUMNS,
+  coverageGroups,
   coverageRows,
   factRows,
-  HURTS_COLUMNS,
-  hurtsRows,
+  hurtsTable,
   PLAN_COLUMNS,
+  PLAN_GROUP_COLUMNS,
+  planGroups,
   planRows,
   RIDGE_COLUMNS,
   ridgeRows,
@@ -49,6 +54,25 @@ function noiseVariants(sec: MapSection) {
   const main = sec.variants[sec.main];
   const others = Object.entries(main.map.fixed).filter(([k]) => k !== 'label_noise');
   return sec.variants.filter((v) => others.every(([k, val]) => v.map.fixed[k] === val));
+}
+
+/**
+ * Test error along train size at the widths where more data hurts most (the worst segments'
+ * slice: same label noise and epoch), from the matching sample-wise map variant. Null when the
+ * report has no such map or no segment.
+ */
+async function writeHurtsSlices(model: ReportModel, pngDir: string, scale: number): Promise<Buffer | null> {
+  const seg = model.hurts[0]?.segments[0];
+  const sample = model.maps.find((m) => m.kind === 'sample');
+  if (!seg || !sample) return null;
+  const v = sample.variants.find((x) => x.map.fixed.label_noise === seg.fixed.label_noise && x.map.fixed.epochs === seg.fixed.epochs);
+  if (!v) return null;
+  const widths = [...new Set(model.hurts[0].segments.filter((x) => x.fixed.label_noise === seg.fixed.label_noise && x.fixed.epochs === seg.fixed.epochs).map((x) => x.fixed.width as number))].slice(0, 4);
+  const spec = slicesSpec(v.map, v.ridge, { rows: widths });
+  const png = (await renderSpec(spec, { format: 'png', scale })) as Buffer;
+  writeAtomic(join(pngDir, 'hurts-slices.vl.json'), `${JSON.stringify(spec, null, 1)}\n`);
+  writeAtomic(join(pngDir, 'hurts-slices.png'), png);
+  return png;
 }
 
 /** The PDF deck, the self-contained HTML page, the PNG set and a JSON summary of the report. */
@@ -132,13 +156,18 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
     figures.push(figs);
   }
 
-  const hurts = hurtsRows(model.hurts);
+  const hurts = hurtsTable(model.hurts);
+  let hurtsPng: Buffer | null = null;
   if (model.hurts.length) {
     const h = model.hurts[0];
+    hurtsPng = await writeHurtsSlices(model, pngDir, scale);
+    if (hurtsPng) pngs.push(join(pngDir, 'hurts-slices.png'));
+    const table: DeckBlock = hurts.rows.length ? { kind: 'table', columns: hurts.columns, rows: hurts.rows, size: 9.5, align: hurts.columns.map(() => 'right' as const) } : { kind: 'text', text: 'No significant rise of test error with train size in any slice.' };
     pages.push({
       title: 'Where more data hurts',
       subtitle: `${h.slices ?? '?'} train-size slices at ${formatFixed(h.fixed) || 'every epoch'}, α = ${formatNumber(h.alpha ?? 0.05)}; worst rise first`,
-      columns: [[hurts.length ? { kind: 'table', columns: HURTS_COLUMNS, rows: hurts, size: 10 } : { kind: 'text', text: 'No significant rise of test error with train size in any slice.' }]],
+      columns: hurtsPng ? [[table], [{ kind: 'image', png: hurtsPng }, { kind: 'text', text: msg.hurtsFigure, size: 9.5, color: '#5b6472' }]] : [[table]],
+      widths: hurtsPng ? [1.15, 1] : undefined,
     });
   }
   if (model.coverage) {
@@ -147,23 +176,34 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
     pages.push({
       title: 'Coverage against the spec',
       subtitle: `complete ${c.complete} · partial ${c.partial} · missing ${c.missing} · diverged ${c.diverged}`,
-      columns: [[rows.length ? { kind: 'table', columns: COVERAGE_COLUMNS, rows, size: 10 } : { kind: 'text', text: 'Every planned run is complete.' }]],
+      columns: [
+        rows.length
+          ? [
+              { kind: 'heading', text: 'Grouped by status' },
+              { kind: 'table', columns: COVERAGE_GROUP_COLUMNS, rows: coverageGroups(model.coverage), size: 9.5 },
+              { kind: 'heading', text: 'Each run that is not complete' },
+              { kind: 'table', columns: COVERAGE_COLUMNS, rows, size: 9 },
+            ]
+          : [{ kind: 'text', text: 'Every planned run is complete.' }],
+      ],
     });
   }
   if (model.plan) {
-    const rows = planRows(model.plan);
+    const groups = planGroups(model.plan);
+    const sub = `${model.plan.runs.length} runs, cost ${formatNumber(model.plan.cost)}${model.plan.budget !== null ? ` of budget ${formatNumber(model.plan.budget)}` : ''}`;
     pages.push({
       title: 'Proposed next runs',
-      subtitle: `${model.plan.runs.length} runs, cost ${formatNumber(model.plan.cost)}${model.plan.budget !== null ? ` of budget ${formatNumber(model.plan.budget)}` : ''}`,
-      columns: [[rows.length ? { kind: 'table', columns: PLAN_COLUMNS, rows, size: 10 } : { kind: 'text', text: 'Nothing to run: the spec is covered and no ridge point needs refining.' }]],
+      subtitle: `${sub}; grouped by reason, in the plan's order (every run in the HTML page and plan CSV)`,
+      columns: [[groups.length ? { kind: 'table', columns: PLAN_GROUP_COLUMNS, rows: groups, size: 9.5 } : { kind: 'text', text: 'Nothing to run: the spec is covered and no ridge point needs refining.' }]],
     });
+    if (model.plan.runs.length) pages.push({ title: 'Proposed next runs: the first ones', subtitle: sub, columns: [[{ kind: 'table', columns: PLAN_COLUMNS, rows: planRows(model.plan), size: 9 }]] });
   }
 
   const pdfPath = join(outDir, 'report.pdf');
   writeAtomic(pdfPath, await composeDeck({ pages, footer: `${f.title} · store ${f.storeHash ?? 'unknown'} · made by datlas ${f.generatedAt}` }));
 
   const htmlPath = join(outDir, 'report.html');
-  writeAtomic(htmlPath, htmlPage({ model, runtime: readRuntime(), figures }));
+  writeAtomic(htmlPath, htmlPage({ model, runtime: readRuntime(), figures, hurtsFigure: hurtsPng ? { caption: msg.hurtsFigure, png: hurtsPng } : undefined }));
 
   const jsonPath = join(outDir, 'report.json');
   writeAtomic(jsonPath, `${JSON.stringify(reportJson(model), null, 2)}\n`);

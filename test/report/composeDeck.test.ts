@@ -54,3 +54,16 @@ describe.skipIf(!hasPoppler && !process.env.CI)('composeDeck', () => {
     expect(shown + Number(m![1])).toBe(80);
   });
 });
+
+describe('fitColumns', () => {
+  it('keeps natural widths that fit and cuts only the widest columns to a common cap', async () => {
+    const { fitColumns } = await import('../../src/report/composeDeck.js');
+    expect(fitColumns([10, 20, 30], 100)).toEqual([10, 20, 30]);
+    // 10 + 20 + 2·cap = 90 → cap 30: the two wide columns share what is left.
+    expect(fitColumns([10, 20, 200, 300], 90)).toEqual([10, 20, 30, 30]);
+    const w = fitColumns([5, 400, 7, 600], 300);
+    expect(w.reduce((a, b) => a + b, 0)).toBeCloseTo(300, 9);
+    expect(w[0]).toBe(5);
+    expect(w[2]).toBe(7);
+  });
+});

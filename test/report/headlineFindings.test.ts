@@ -41,7 +41,7 @@ describe('headlineFindings', () => {
       maps: [],
       hurts: null,
       coverage: { counts: { complete: 10, partial: 2, missing: 3, diverged: 1 }, gaps: [] },
-      plan: { budget: null, cost: 12.5, runs: [{ config: {}, seed: 0, epochs: 10, reason: 'missing', cost: 1 }, { config: {}, seed: 1, epochs: 10, reason: 'refine', cost: 1 }] },
+      plan: { budget: null, cost: 12.5, runs: [{ config: {}, seed: 0, epochs: 10, reason: 'missing', cost: 1, why: 'not in the store' }, { config: {}, seed: 1, epochs: 10, reason: 'refine', cost: 1, why: 'ridge interval wide' }] },
     });
     expect(f).toEqual([
       'Still missing against the spec: 3 of 16 planned runs have no data, 2 stopped before the target epochs, 1 diverged (10 complete).',
