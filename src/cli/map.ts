@@ -91,7 +91,7 @@ export const command: CommandSpec<MapArgs> = {
   builder: (y: Argv) =>
     y
       .option('kind', { choices: ['model', 'sample', 'epoch'], default: 'model', describe: 'model: width × epochs; sample: train_size × width; epoch: epochs × train_size' })
-      .option('x', { type: 'string', describe: 'x axis instead of the kind\'s (width, epochs, train_size, label_noise)' })
+      .option('x', { type: 'string', describe: 'x axis instead of the kind\'s: width, epochs, train_size, label_noise or a numeric condition key (weight_decay)' })
       .option('y', { type: 'string', describe: 'y axis instead of the kind\'s' })
       .option('at', { type: 'string', array: true, describe: 'fix an axis or the condition: axis=value (repeat, or comma-separate); unset ones take the value with most data' })
       .option('metric', { choices: ['test_error', 'test_loss', 'train_error', 'train_loss'], describe: 'value mapped (default test_error, or test_loss when the store has no error)' })

@@ -39,6 +39,20 @@ const FIXABLE = [...AXES, 'condition'] as const;
 /** The order fixed values are picked in: each pick counts only rows matching the earlier ones. */
 const PICK_ORDER = ['condition', 'label_noise', 'train_size', 'width', 'epochs'] as const;
 
+const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+
+/** Key=value pairs of a condition as ingest writes it (`optimizer=adam,weight_decay=0.01`); empty for a plain name. */
+export function parseCondition(condition: string): Map<string, string> {
+  const out = new Map<string, string>();
+  if (condition === '') return out;
+  for (const part of condition.split(/,(?=[^,=]+=)/)) {
+    const eq = part.indexOf('=');
+    if (eq <= 0) return new Map();
+    out.set(part.slice(0, eq).trim(), part.slice(eq + 1).trim());
+  }
+  return out;
+}
+
 const sameNumber = (a: number, b: number) => a === b || Math.abs(a - b) <= 1e-9 * Math.max(Math.abs(a), Math.abs(b));
 
 function fitMethod(method: MethodName, p: ScatterPoints): FittedField {
@@ -99,16 +113,41 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   const kindAxes = MAP_AXES[opts.kind ?? 'model'];
   const xName = opts.x ?? kindAxes.x;
   const yName = opts.y ?? kindAxes.y;
-  for (const n of [xName, yName]) if (!(AXES as readonly string[]).includes(n)) throw usageError(msg.unknownAxis(n, AXES));
+  // Condition keys (weight_decay, optimizer, ...) can be axes (numeric ones) or fixed with --at.
+  const parsed = new Map<string, Map<string, string>>();
+  for (const c of new Set(table.condition)) parsed.set(c, parseCondition(c));
+  const keyValues = new Map<string, string[]>();
+  for (const m of parsed.values()) for (const [k, v] of m) keyValues.set(k, [...(keyValues.get(k) ?? []), v]);
+  const conditionKeys = [...keyValues.keys()].filter((k) => !(FIXABLE as readonly string[]).includes(k)).sort();
+  const numericKeys = conditionKeys.filter((k) => keyValues.get(k)!.every((v) => NUMBER.test(v)));
+  const axisNames = [...AXES, ...numericKeys];
+  for (const n of [xName, yName]) if (!axisNames.includes(n)) throw usageError(msg.unknownAxis(n, axisNames));
   if (xName === yName) throw usageError(msg.sameAxes(xName));
+  const isKey = (n: string) => conditionKeys.includes(n);
   const kind: SweepMap['kind'] =
     xName === kindAxes.x && yName === kindAxes.y ? (opts.kind ?? 'model') : ((Object.keys(MAP_AXES) as MapKind[]).find((k) => MAP_AXES[k].x === xName && MAP_AXES[k].y === yName) ?? 'custom');
   const metric = opts.metric ?? defaultMetric(table);
   const at = opts.at ?? {};
   for (const name of Object.keys(at)) {
-    if (!(FIXABLE as readonly string[]).includes(name)) throw usageError(msg.atUnknown(name, FIXABLE));
+    if (!(FIXABLE as readonly string[]).includes(name) && !isKey(name)) throw usageError(msg.atUnknown(name, [...FIXABLE, ...conditionKeys]));
     if (name === xName || name === yName) throw usageError(msg.atOnMapAxis(name));
   }
+  // The condition left to fix once axis keys and --at keys are taken out of it.
+  const setAside = new Set([xName, yName, ...Object.keys(at)].filter(isKey));
+  const restCache = new Map<string, string>();
+  const restOf = (c: string): string => {
+    let r = restCache.get(c);
+    if (r === undefined) {
+      const m = parsed.get(c)!;
+      r = m.size === 0 ? c : [...m].filter(([k]) => !setAside.has(k)).map(([k, v]) => `${k}=${v}`).join(',');
+      restCache.set(c, r);
+    }
+    return r;
+  };
+  const keyValue = (c: string, key: string): number | string | undefined => {
+    const v = parsed.get(c)!.get(key);
+    return v === undefined ? undefined : NUMBER.test(v) ? Number(v) : v;
+  };
   const notes: string[] = [];
 
   // Rows that carry information: a finite metric, or a diverged mark.
@@ -116,14 +155,22 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   let rows: number[] = [];
   for (let i = 0; i < table.length; i++) if (Number.isFinite(metricCol[i]) || table.status[i] === 'diverged') rows.push(i);
   if (rows.length === 0) throw new UserError(msg.noMetric(metric));
+  for (const [key, want] of Object.entries(at)) {
+    if (!isKey(key)) continue;
+    const match = (v: number | string | undefined) => (typeof v === 'number' && typeof want === 'number' ? sameNumber(v, want) : v !== undefined && String(v) === String(want));
+    const kept = rows.filter((i) => match(keyValue(table.condition[i], key)));
+    if (kept.length === 0) throw new UserError(msg.atValueAbsent(key, want, [...new Set(rows.map((i) => keyValue(table.condition[i], key)).filter((v) => v !== undefined))] as (number | string)[]));
+    rows = kept;
+  }
 
   const fixed: Record<string, number | string> = {};
+  for (const [key, v] of Object.entries(at)) if (isKey(key)) fixed[key] = v;
   const picked: string[] = [];
-  const hasConditions = rows.some((i) => table.condition[i] !== '');
+  const hasConditions = rows.some((i) => restOf(table.condition[i]) !== '');
   for (const name of PICK_ORDER) {
     if (name === xName || name === yName) continue;
     if (name === 'condition' && !hasConditions && at.condition === undefined) continue;
-    const valueOf = (i: number): number | string => (name === 'condition' ? table.condition[i] : table[name][i]);
+    const valueOf = (i: number): number | string => (name === 'condition' ? restOf(table.condition[i]) : table[name][i]);
     const given = at[name];
     let value: number | string;
     if (given !== undefined) {
@@ -179,16 +226,18 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   if (cells.length === 0) throw new UserError(msg.noCells(fixedText));
 
   // Axes and their scales; a log2 axis cannot hold values <= 0 (epoch 0 is the usual case).
-  const coord = (c: Cell, name: string) => c[name as keyof Cell] as number;
+  const coord = (c: Cell, name: string) => (isKey(name) ? (keyValue(c.condition, name) as number) : (c[name as keyof Cell] as number));
+  // Cells whose condition lacks a key used as an axis have no place on the map.
+  const placed = cells.filter((c) => Number.isFinite(coord(c, xName)) && Number.isFinite(coord(c, yName)));
   const axisScale = (name: string): AxisScale => {
     if (opts.scales?.[name]) return opts.scales[name];
-    const vals = [...new Set(cells.map((c) => coord(c, name)))].sort((a, b) => a - b);
+    const vals = [...new Set(placed.map((c) => coord(c, name)))].sort((a, b) => a - b);
     const pos = vals.filter((v) => v > 0);
     return pos.length < vals.length && pos.length >= 3 && detectScale(pos) === 'log2' && name === 'epochs' ? 'log2' : detectScale(vals);
   };
   const xScale = axisScale(xName);
   const yScale = axisScale(yName);
-  let kept = cells;
+  let kept = placed;
   for (const [name, scale] of [[xName, xScale], [yName, yScale]] as const) {
     if (scale !== 'log2') continue;
     const before = kept.length;

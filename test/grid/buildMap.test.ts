@@ -154,3 +154,36 @@ describe('buildMap', () => {
     expect(back.x.values).toEqual(WIDTHS);
   });
 });
+
+describe('buildMap with condition keys (ingest writes conditions as sorted key=value pairs)', () => {
+  // Own toy sweep: error falls with weight decay; two optimizers.
+  const rows: Partial<RowRecord>[] = [];
+  let r = 0;
+  for (const opt of ['adam', 'sgd'])
+    for (const wd of [0, 0.001, 0.01, 0.1])
+      for (const w of [8, 16, 32, 64])
+        for (const seed of [0, 1]) {
+          r++;
+          rows.push({ run: `c${r}`, seed, width: w, epochs: 100, train_size: 1000, condition: `optimizer=${opt},weight_decay=${wd}`, test_error: 0.3 - wd - 0.01 * Math.log2(w) + (opt === 'sgd' ? 0.05 : 0) + 0.001 * seed });
+        }
+  const t = tableFromRows(rows);
+
+  it('maps a numeric condition key as an axis, fixing the rest of the condition', () => {
+    const map = buildMap(t, { x: 'width', y: 'weight_decay', at: { condition: 'optimizer=sgd' }, method: 'linear', raster: { nx: 8, ny: 8 } });
+    expect(map.y).toMatchObject({ name: 'weight_decay', scale: 'linear', values: [0, 0.001, 0.01, 0.1] });
+    expect(map.fixed.condition).toBe('optimizer=sgd');
+    expect(map.cells).toHaveLength(16);
+    const c = map.cells.find((m) => m.x === 16 && m.y === 0.01)!;
+    expect(c.cell.stats.mean).toBeCloseTo(0.3 - 0.01 - 0.04 + 0.05 + 0.0005, 12);
+  });
+
+  it('fixes a condition key with --at and picks the rest', () => {
+    const map = buildMap(t, { x: 'width', y: 'label_noise', at: { weight_decay: 0.1 }, method: 'linear' });
+    expect(map.fixed.weight_decay).toBe(0.1);
+    expect(map.fixed.condition).toBe('optimizer=adam'); // a tie on rows between names goes to the first in sort order
+    expect(map.picked).toContain('condition');
+    expect(map.picked).not.toContain('weight_decay');
+    expect(() => buildMap(t, { x: 'optimizer' })).toThrow(/unknown axis 'optimizer'; map axes are width, epochs, train_size, label_noise, weight_decay/);
+    expect(() => buildMap(t, { at: { weight_decay: 0.5 } })).toThrow(/no rows with weight_decay=0.5/);
+  });
+});
