@@ -1,4 +1,3 @@
-import { createHash } from 'node:crypto';
 import { existsSync, readFileSync, statSync } from 'node:fs';
 import { emptyTable } from '../store/RowTable.js';
 import type { RowTable } from '../store/RowTable.js';
@@ -10,9 +9,13 @@ import { writeStore } from '../store/writeStore.js';
 import { parseRejected } from '../store/rejectedCsv.js';
 import { storeFiles } from '../store/storeFiles.js';
 import { atomicWrite } from '../store/atomicWrite.js';
-import { formatOfBytes, rawFromBytes, readConfigFile } from './readSource.js';
+import { rawFromBytes, sniffFormat } from './readSource.js';
+import type { SourceFormat } from './readSource.js';
+import { sha256 } from './readSourceFile.js';
+import type { FileJob, PortableOptions } from './readSourceFile.js';
+import { parseFiles } from './parseFiles.js';
 import { normalizeRaw } from './normalizeRaw.js';
-import type { NormalizeOptions, Normalized, Reject, Scale } from './normalizeRaw.js';
+import type { Normalized, Reject, Scale } from './normalizeRaw.js';
 import { dropSources, mergeTables } from './mergeTables.js';
 import { walkInputs } from './walkInputs.js';
 import type { InputSource } from './walkInputs.js';
@@ -32,6 +35,9 @@ export interface IngestOptions {
   wait?: number;
   /** Reads stdin when a path is `-`. */
   readStdin?: () => Uint8Array;
+  /** Worker threads for parsing (default: by core count, when there is enough to read). */
+  workers?: number;
+  minBytesForWorkers?: number;
   /** Makes a progress reporter once the number of sources is known (ticked once per source). */
   progress?: (total: number) => Promise<{ tick(): void; done(): void }>;
 }
@@ -65,7 +71,6 @@ export interface IngestResult {
   notes: string[];
 }
 
-const sha256 = (b: Uint8Array) => createHash('sha256').update(b).digest('hex');
 
 interface Parsed {
   src: InputSource;
@@ -100,12 +105,60 @@ export async function ingestSources(opts: IngestOptions): Promise<IngestResult> 
     const todo: Parsed[] = [];
     const touched = { value: false };
     const bar = opts.progress ? await opts.progress(walk.sources.length) : null;
+    const options: PortableOptions = {
+      map, set, scale, seedFrom: seedFrom ? { source: seedFrom.source, flags: seedFrom.flags } : null,
+    };
+    // Stat first: a source with the stored size and mtime is unchanged (no read, no hash).
+    const jobs: FileJob[] = [];
+    const jobSrc: InputSource[] = [];
+    const sizes: number[] = [];
     for (const src of walk.sources) {
-      const p = readOne(src, manifest, { map, set, seedFrom, scale }, opts.readStdin, touched);
-      bar?.tick();
-      if (p) todo.push(p);
-      else result.unchanged++;
+      if (src.kind === 'stdin') {
+        const p = readStdinSource(src, manifest, options, opts.readStdin);
+        bar?.tick();
+        if (p) todo.push(p);
+        else result.unchanged++;
+        continue;
+      }
+      const prev = manifest.sources[src.key];
+      let st: { size: number; mtimeMs: number };
+      let cst: { size: number; mtimeMs: number } | null = null;
+      try {
+        st = src.size !== undefined && src.mtime !== undefined ? { size: src.size, mtimeMs: src.mtime } : statSync(src.given);
+        if (src.config) cst = statSync(src.config);
+      } catch (err) {
+        const e = err as NodeJS.ErrnoException;
+        bar?.tick();
+        todo.push({ src, key: src.key, given: src.given, stamp: { path: src.given, size: 0, mtime: 0, sha256: '' }, format: '', norm: null, failure: ingestText.unreadable(e.code ?? e.message) });
+        continue;
+      }
+      const sameConfig = !src.config || (prev?.config && cst && prev.config.size === cst.size && prev.config.mtime === cst.mtimeMs);
+      if (prev && prev.size === st.size && prev.mtime === st.mtimeMs && sameConfig) {
+        result.unchanged++;
+        bar?.tick();
+        continue;
+      }
+      jobs.push({ given: src.given, config: src.config, mtime: st.mtimeMs, prevSha: prev?.sha256, prevConfigSha: prev?.config?.sha256, options });
+      jobSrc.push(src);
+      sizes.push(st.size);
     }
+    const outcomes = await parseFiles(jobs, sizes, { workers: opts.workers, minBytesForWorkers: opts.minBytesForWorkers, onFile: () => bar?.tick() });
+    outcomes.forEach((o, k) => {
+      const src = jobSrc[k];
+      if (o.kind === 'unchanged') {
+        // Touched but not changed: remember the new stamp so the next check is fast again.
+        const prev = manifest.sources[src.key];
+        prev.mtime = o.stamp.mtime;
+        if (o.config) prev.config = o.config;
+        touched.value = true;
+        result.unchanged++;
+        return;
+      }
+      todo.push({
+        src, key: src.key, given: src.given, stamp: o.stamp, config: o.config, format: o.format,
+        norm: o.kind === 'parsed' ? o.norm : null, failure: o.kind === 'failed' ? o.failure : null,
+      });
+    });
     bar?.done();
     if (todo.length === 0) {
       // Touched-but-unchanged sources got new stamps: keep the next check on the fast path.
@@ -189,61 +242,28 @@ export async function ingestSources(opts: IngestOptions): Promise<IngestResult> 
   }
 }
 
-const stampOf = (path: string, bytes?: Uint8Array): FileStamp => {
-  const st = statSync(path);
-  return { path, size: st.size, mtime: st.mtimeMs, sha256: bytes ? sha256(bytes) : '' };
-};
-
-/** Reads one source unless the store already holds its content; null = unchanged. */
-function readOne(
-  src: InputSource,
-  manifest: Manifest,
-  norm: Omit<NormalizeOptions, 'source'>,
-  readStdin: IngestOptions['readStdin'],
-  touched: { value: boolean },
-): Parsed | null {
+/** Reads stdin (hashing it: the same content twice is a no-op); null = already in the store. */
+function readStdinSource(src: InputSource, manifest: Manifest, options: PortableOptions, readStdin: IngestOptions['readStdin']): Parsed | null {
   let bytes: Uint8Array;
-  let stamp: FileStamp;
-  let config: FileStamp | undefined;
-  let key = src.key;
   try {
-    if (src.kind === 'stdin') {
-      bytes = readStdin ? readStdin() : readFileSync(0);
-      const hash = sha256(bytes);
-      key = `-:${hash}`;
-      if (manifest.sources[key]) return null;
-      stamp = { path: '-', size: bytes.byteLength, mtime: Date.now(), sha256: hash };
-    } else {
-      const prev = manifest.sources[key];
-      const st = src.size !== undefined && src.mtime !== undefined ? { size: src.size, mtimeMs: src.mtime } : statSync(src.given);
-      const cst = src.config ? statSync(src.config) : null;
-      const sameConfig = !src.config || (prev?.config && cst && prev.config.size === cst.size && prev.config.mtime === cst.mtimeMs);
-      // Fast path: same size and mtime as stored means unchanged (no read, no hash).
-      if (prev && prev.size === st.size && prev.mtime === st.mtimeMs && sameConfig) return null;
-      bytes = readFileSync(src.given);
-      stamp = { path: src.given, size: bytes.byteLength, mtime: st.mtimeMs, sha256: sha256(bytes) };
-      if (src.config) config = stampOf(src.config, readFileSync(src.config));
-      if (prev && prev.sha256 === stamp.sha256 && (!src.config || prev.config?.sha256 === config?.sha256)) {
-        // Touched but not changed: remember the new stamp so the next check is fast again.
-        prev.mtime = stamp.mtime;
-        touched.value = true;
-        if (config) prev.config = config;
-        return null;
-      }
-    }
+    bytes = readStdin ? readStdin() : readFileSync(0);
   } catch (err) {
     const e = err as NodeJS.ErrnoException;
-    return { src, key, given: src.given, stamp: { path: src.given, size: 0, mtime: 0, sha256: '' }, format: '', norm: null, failure: ingestText.unreadable(e.code ?? e.message) };
+    return { src, key: '-', given: '-', stamp: { path: '-', size: 0, mtime: 0, sha256: '' }, format: '', norm: null, failure: ingestText.unreadable(e.code ?? e.message) };
   }
+  const hash = sha256(bytes);
+  const key = `-:${hash}`;
+  if (manifest.sources[key]) return null;
+  const stamp: FileStamp = { path: '-', size: bytes.byteLength, mtime: Date.now(), sha256: hash };
   let format = '';
   try {
-    format = formatOfBytes(src.given, bytes);
-    const raw = rawFromBytes(bytes, format as Parameters<typeof rawFromBytes>[1]);
-    if (src.config) raw.constants = { ...readConfigFile(src.config), ...raw.constants };
-    const n = normalizeRaw(raw, { ...norm, source: src.given });
-    return { src, key, given: src.given, stamp, config, format, norm: n, failure: null };
+    format = sniffFormat(bytes);
+    const norm = normalizeRaw(rawFromBytes(bytes, format as SourceFormat), {
+      source: '-', map: options.map, set: options.set, scale: options.scale,
+      seedFrom: options.seedFrom ? new RegExp(options.seedFrom.source, options.seedFrom.flags) : undefined,
+    });
+    return { src, key, given: '-', stamp, format, norm, failure: null };
   } catch (err) {
-    return { src, key, given: src.given, stamp, config, format, norm: null, failure: (err as Error).message.split('\n')[0] };
+    return { src, key, given: '-', stamp, format, norm: null, failure: (err as Error).message.split('\n')[0] };
   }
 }
-

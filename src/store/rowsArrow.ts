@@ -11,16 +11,15 @@ export const STORE_COLUMNS = ['run', 'seed', 'width', 'epochs', 'train_size', 'l
  * DuckDB). Numbers are float64 (NaN for missing), text columns are dictionary-encoded utf8,
  * source_line is int32.
  */
-export function rowsToArrow(t: RowTable): Uint8Array {
+export function rowsToArrow(t: RowTable, sink?: { write(bytes: Uint8Array): void }): Uint8Array | null {
   const data: [string, unknown[] | Float64Array | Int32Array][] = [];
-  const types: Record<string, ReturnType<typeof float64> | ReturnType<typeof int32> | ReturnType<typeof dictionary>> = {};
+  const types: Record<string, ReturnType<typeof dictionary>> = {};
   for (const c of STORE_COLUMNS) {
+    // Typed arrays without a declared type take flechette's zero-copy path (Int32 → int32, Float64 → float64).
     if (c === 'source_line') {
       data.push([c, t.source_line]);
-      types[c] = int32();
     } else if ((NUMERIC_COLUMNS as readonly string[]).includes(c)) {
       data.push([c, t[c as (typeof NUMERIC_COLUMNS)[number]]]);
-      types[c] = float64();
     } else {
       data.push([c, c === 'status' ? t.status : t[c as (typeof STRING_COLUMNS)[number]]]);
       types[c] = dictionary(utf8(), int32());
@@ -29,11 +28,22 @@ export function rowsToArrow(t: RowTable): Uint8Array {
   for (const [name, col] of Object.entries(t.extra)) {
     if ((STORE_COLUMNS as readonly string[]).includes(name)) continue;
     data.push([name, col]);
-    types[name] = float64();
+  }
+  // An empty typed array has no batch to take its type from: declare it.
+  if (t.length === 0) {
+    for (const [name, col] of data) {
+      if (col instanceof Float64Array) types[name] = float64() as never;
+      else if (col instanceof Int32Array) types[name] = int32() as never;
+    }
   }
   // flechette's typings want plain arrays or typed arrays; ours are exactly that.
   const table = tableFromArrays(data as [string, unknown[]][], { types });
-  return tableToIPC(table, { format: 'file' })!;
+  if (!sink) return tableToIPC(table, { format: 'file' })!;
+  // Stream the encoded batches to the sink (a file) instead of assembling one big buffer.
+  const s = { write: (b: Uint8Array) => sink.write(b), pad: (n: number) => sink.write(new Uint8Array(n)), finish: () => null };
+  // flechette's typings omit the sink option that encodeIPC accepts.
+  tableToIPC(table, { format: 'file', sink: s } as Parameters<typeof tableToIPC>[1]);
+  return null;
 }
 
 /** Decodes rows.arrow back into a RowTable (columns beyond the canonical ones become extras). */

@@ -1,0 +1,139 @@
+import { createHash } from 'node:crypto';
+import { readFileSync, statSync } from 'node:fs';
+import type { FileStamp } from '../store/Manifest.js';
+import { formatOfBytes, rawFromBytes, readConfigFile } from './readSource.js';
+import type { SourceFormat } from './readSource.js';
+import { normalizeRaw } from './normalizeRaw.js';
+import type { Normalized, Scale } from './normalizeRaw.js';
+import type { Target } from './synonyms.js';
+import { emptyTable, NUMERIC_COLUMNS } from '../store/RowTable.js';
+import type { RowTable, RunStatus } from '../store/RowTable.js';
+import { ingestText } from '../messages.js';
+
+/** Normalisation options in a form that can cross to a worker thread (the regex as text). */
+export interface PortableOptions {
+  map: Partial<Record<Target, string>>;
+  set: Record<string, string>;
+  seedFrom: { source: string; flags: string } | null;
+  scale: Partial<Record<Target, Scale>>;
+}
+
+/** One file to read: its path as given, a run directory's config, and what the store has for it. */
+export interface FileJob {
+  given: string;
+  config?: string;
+  mtime: number;
+  prevSha?: string;
+  prevConfigSha?: string;
+  options: PortableOptions;
+}
+
+export type FileOutcome =
+  | { kind: 'unchanged'; stamp: FileStamp; config?: FileStamp }
+  | { kind: 'parsed'; stamp: FileStamp; config?: FileStamp; format: string; norm: Normalized }
+  | { kind: 'failed'; stamp: FileStamp; config?: FileStamp; format: string; failure: string };
+
+export const sha256 = (b: Uint8Array) => createHash('sha256').update(b).digest('hex');
+
+/**
+ * Reads, hashes, parses and normalises one file. Pure apart from reading the file, so a pool
+ * of worker threads can run it over many files at once.
+ */
+export function readSourceFile(job: FileJob): FileOutcome {
+  let bytes: Uint8Array;
+  let stamp: FileStamp = { path: job.given, size: 0, mtime: job.mtime, sha256: '' };
+  let config: FileStamp | undefined;
+  try {
+    bytes = readFileSync(job.given);
+    stamp = { path: job.given, size: bytes.byteLength, mtime: job.mtime, sha256: sha256(bytes) };
+    if (job.config) {
+      const cb = readFileSync(job.config);
+      config = { path: job.config, size: cb.byteLength, mtime: statSync(job.config).mtimeMs, sha256: sha256(cb) };
+    }
+  } catch (err) {
+    const e = err as NodeJS.ErrnoException;
+    return { kind: 'failed', stamp, config, format: '', failure: ingestText.unreadable(e.code ?? e.message) };
+  }
+  if (job.prevSha === stamp.sha256 && (!job.config || job.prevConfigSha === config?.sha256)) return { kind: 'unchanged', stamp, config };
+  let format = '';
+  try {
+    format = formatOfBytes(job.given, bytes);
+    const raw = rawFromBytes(bytes, format as SourceFormat);
+    if (job.config) raw.constants = { ...readConfigFile(job.config), ...raw.constants };
+    const o = job.options;
+    const norm = normalizeRaw(raw, {
+      source: job.given,
+      map: o.map,
+      set: o.set,
+      scale: o.scale,
+      seedFrom: o.seedFrom ? new RegExp(o.seedFrom.source, o.seedFrom.flags) : undefined,
+    });
+    return { kind: 'parsed', stamp, config, format, norm };
+  } catch (err) {
+    return { kind: 'failed', stamp, config, format, failure: (err as Error).message.split('\n')[0] };
+  }
+}
+
+/** A RowTable with its text columns as dictionary codes: cheap to post between threads. */
+export interface PackedTable {
+  length: number;
+  numeric: Record<string, Float64Array>;
+  extra: Record<string, Float64Array>;
+  source_line: Int32Array;
+  text: Record<'run' | 'condition' | 'source' | 'status', { dict: string[]; codes: Int32Array }>;
+}
+
+export function packTable(t: RowTable): { packed: PackedTable; transfer: ArrayBuffer[] } {
+  const encode = (col: readonly string[]) => {
+    const index = new Map<string, number>();
+    const dict: string[] = [];
+    const codes = new Int32Array(col.length);
+    let last = '';
+    let lastCode = -1;
+    for (let i = 0; i < col.length; i++) {
+      const s = col[i];
+      if (s !== last || lastCode < 0) {
+        let c = index.get(s);
+        if (c === undefined) {
+          c = dict.length;
+          dict.push(s);
+          index.set(s, c);
+        }
+        last = s;
+        lastCode = c;
+      }
+      codes[i] = lastCode;
+    }
+    return { dict, codes };
+  };
+  const numeric: Record<string, Float64Array> = {};
+  for (const c of NUMERIC_COLUMNS) numeric[c] = t[c];
+  const packed: PackedTable = {
+    length: t.length,
+    numeric,
+    extra: t.extra,
+    source_line: t.source_line,
+    text: { run: encode(t.run), condition: encode(t.condition), source: encode(t.source), status: encode(t.status) },
+  };
+  const transfer = [...Object.values(numeric), ...Object.values(t.extra), t.source_line, ...Object.values(packed.text).map((x) => x.codes)]
+    .map((a) => a.buffer as ArrayBuffer);
+  return { packed, transfer: [...new Set(transfer)] };
+}
+
+export function unpackTable(p: PackedTable): RowTable {
+  const t = emptyTable(0) as { -readonly [K in keyof RowTable]: RowTable[K] };
+  const decode = (x: { dict: string[]; codes: Int32Array }) => {
+    const out = new Array<string>(x.codes.length);
+    for (let i = 0; i < out.length; i++) out[i] = x.dict[x.codes[i]];
+    return out;
+  };
+  t.length = p.length;
+  for (const c of NUMERIC_COLUMNS) (t as Record<string, unknown>)[c] = p.numeric[c];
+  t.extra = p.extra;
+  t.source_line = p.source_line;
+  t.run = decode(p.text.run);
+  t.condition = decode(p.text.condition);
+  t.source = decode(p.text.source);
+  t.status = decode(p.text.status) as RunStatus[];
+  return t;
+}
