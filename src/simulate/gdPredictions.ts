@@ -46,7 +46,8 @@ export function kernelGdPredictions(inp: KernelGdInput): GdPredictions {
   const basis = eigenBasis(inp.kernel, n);
   const lam = basis.values;
   const lambdaMax = maxOf(lam);
-  const eta = (inp.stepScale ?? 1) / lambdaMax;
+  // An all-zero Hessian (every feature dead on the data) has no gradient: w stays 0.
+  const eta = lambdaMax > 0 ? (inp.stepScale ?? 1) / lambdaMax : 0;
   const c = inp.labels.slice(0, n * L);
   basis.toEigen(c, L);
   const EL = E * L;
@@ -104,7 +105,8 @@ export function primalGdPredictions(inp: PrimalGdInput): GdPredictions {
   const basis = eigenBasis(inp.hessian, p, { inPlace: inp.inPlace });
   const lam = basis.values;
   const lambdaMax = maxOf(lam);
-  const eta = (inp.stepScale ?? 1) / lambdaMax;
+  // An all-zero Hessian (every feature dead on the data) has no gradient: w stays 0.
+  const eta = lambdaMax > 0 ? (inp.stepScale ?? 1) / lambdaMax : 0;
   // b = Φᵀ y / n  (p×L)
   const b = new Float64Array(p * L);
   for (let i = 0; i < n; i++) {
