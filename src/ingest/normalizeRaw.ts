@@ -254,14 +254,9 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
 
   const Vw = V.width, Kw = K.width, Ve = V.epochs, Ke = K.epochs, Vn = V.train_size, Kn = K.train_size;
   const Vl = V.label_noise, Kl = K.label_noise, Vs = V.seed, Ks = K.seed;
-  const errPairs = [
-    { t: 'test_error' as const, acc: 'test_accuracy' as const, out: out.test_error, isTest: true },
-    { t: 'train_error' as const, acc: 'train_accuracy' as const, out: out.train_error, isTest: false },
-  ].map((e) => ({ ...e, v: V[e.t], kd: K[e.t], va: V[e.acc], ka: K[e.acc] }));
-  const lossCols = [
-    { t: 'test_loss' as const, out: out.test_loss, isTest: true },
-    { t: 'train_loss' as const, out: out.train_loss, isTest: false },
-  ].map((l) => ({ ...l, v: V[l.t], kd: K[l.t] }));
+  const Vte = V.test_error, Kte = K.test_error, Vta = V.test_accuracy, Kta = K.test_accuracy;
+  const Vtr = V.train_error, Ktr = K.train_error, Vra = V.train_accuracy, Kra = K.train_accuracy;
+  const Vtl = V.test_loss, Ktl = K.test_loss, Vrl = V.train_loss, Krl = K.train_loss;
   const Vwall = V.wall_seconds;
   const Kwall = K.wall_seconds;
   let k = 0;
@@ -299,45 +294,66 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     }
 
     // Metrics: errors are fractions in [0,1]; accuracy becomes 1 − accuracy; non-finite = diverged.
+    // (Written out per metric: this loop runs once per row of every log.)
     let status: RunStatus = 'ok';
     let anyTest = false;
-    for (const e of errPairs) {
-      let v = e.v[i];
-      let kind = e.kd[i];
-      let from: Target = e.t;
-      if (kind === CELL_MISSING && e.ka[i] !== CELL_MISSING) {
-        v = 1 - e.va[i];
-        kind = e.ka[i];
-        from = e.acc;
+    let te = NaN;
+    let tr = NaN;
+    let tl = NaN;
+    let trl = NaN;
+    {
+      let v = Vte[i];
+      let kind = Kte[i];
+      let from: Target = 'test_error';
+      if (kind === CELL_MISSING && Kta[i] !== CELL_MISSING) {
+        v = 1 - Vta[i];
+        kind = Kta[i];
+        from = 'test_accuracy';
       }
-      e.out[k] = NaN;
-      if (kind === CELL_MISSING) continue;
-      if (e.isTest) anyTest = true;
-      if (kind === CELL_NONFINITE) {
-        status = 'diverged';
-        continue;
+      if (kind !== CELL_MISSING) {
+        anyTest = true;
+        if (kind === CELL_NONFINITE) status = 'diverged';
+        else if (v >= -1e-12 && v <= 1 + 1e-12) te = v < 0 ? 0 : v > 1 ? 1 : v;
+        else {
+          reject(i, fieldName(from), ingestText.outOfRange(from, from === 'test_error' ? v : 1 - v));
+          continue;
+        }
       }
-      if (!(v >= -1e-12 && v <= 1 + 1e-12)) {
-        reject(i, fieldName(from), ingestText.outOfRange(from, from === e.t ? v : 1 - v));
-        continue rows;
-      }
-      e.out[k] = v < 0 ? 0 : v > 1 ? 1 : v;
     }
-    for (const l of lossCols) {
-      const kind = l.kd[i];
-      const v = l.v[i];
-      l.out[k] = NaN;
-      if (kind === CELL_MISSING) continue;
-      if (l.isTest) anyTest = true;
-      if (kind === CELL_NONFINITE) {
-        status = 'diverged';
+    {
+      let v = Vtr[i];
+      let kind = Ktr[i];
+      let from: Target = 'train_error';
+      if (kind === CELL_MISSING && Kra[i] !== CELL_MISSING) {
+        v = 1 - Vra[i];
+        kind = Kra[i];
+        from = 'train_accuracy';
+      }
+      if (kind !== CELL_MISSING) {
+        if (kind === CELL_NONFINITE) status = 'diverged';
+        else if (v >= -1e-12 && v <= 1 + 1e-12) tr = v < 0 ? 0 : v > 1 ? 1 : v;
+        else {
+          reject(i, fieldName(from), ingestText.outOfRange(from, from === 'train_error' ? v : 1 - v));
+          continue;
+        }
+      }
+    }
+    if (Ktl[i] !== CELL_MISSING) {
+      anyTest = true;
+      if (Ktl[i] === CELL_NONFINITE) status = 'diverged';
+      else if (Vtl[i] >= 0) tl = Vtl[i];
+      else {
+        reject(i, fieldName('test_loss'), ingestText.outOfRange('test_loss', Vtl[i]));
         continue;
       }
-      if (!(v >= 0)) {
-        reject(i, fieldName(l.t), ingestText.outOfRange(l.t, v));
-        continue rows;
+    }
+    if (Krl[i] !== CELL_MISSING) {
+      if (Krl[i] === CELL_NONFINITE) status = 'diverged';
+      else if (Vrl[i] >= 0) trl = Vrl[i];
+      else {
+        reject(i, fieldName('train_loss'), ingestText.outOfRange('train_loss', Vrl[i]));
+        continue;
       }
-      l.out[k] = v;
     }
     if (!anyTest) {
       reject(i, noMetricField, ingestText.noMetric);
@@ -386,6 +402,10 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     out.train_size[k] = trainSize;
     out.label_noise[k] = noise;
     out.wall_seconds[k] = Kwall[i] === 0 ? Vwall[i] : NaN;
+    out.test_error[k] = te;
+    out.train_error[k] = tr;
+    out.test_loss[k] = tl;
+    out.train_loss[k] = trl;
     for (const e of extraParsed) out.extra[e.name][k] = e.p.values[i];
     k++;
   }
