@@ -305,6 +305,8 @@ export const report = {
     `The peak ${noneBefore ? `appears at ${y} ${firstY} (no significant peak earlier) and ` : ''}` +
     (fromX === toX ? `stays at ${x} ${toX} through ${y} ${lastY}.` : `moves from ${x} ${fromX} at ${y} ${firstY} to ${x} ${toX} at ${y} ${lastY}.`),
   modelNoPeak: (fixed: string) => `Model-wise: no significant double-descent peak at any epoch${fixed ? ` (${fixed})` : ''}.`,
+  peakBySize: (parts: string, tracks: boolean) =>
+    `Across train sizes the model-wise peak ${tracks ? 'sits at width ≈ n' : 'moves with n'} (each at its latest epoch with a peak): ${parts}.`,
   noiseEffect: (parts: string, trend: 'grows' | 'shrinks' | 'mixed') =>
     `Label noise: the peak's height over its flanks ${trend === 'grows' ? 'grows with noise' : trend === 'shrinks' ? 'shrinks with noise' : 'varies with noise'} (${parts}).`,
   samplePeaks: (parts: string, fixed: string) => `Sample-wise: test error peaks at ${parts}${fixed ? ` (${fixed})` : ''}.`,
@@ -321,7 +323,7 @@ export const report = {
     `Still missing against the spec: ${missing} of ${total} planned runs have no data, ${partial} stopped before the target epochs, ${diverged} diverged (${complete} complete).`,
   coverageComplete: (total: number) => `Every one of the ${total} planned runs in the spec is complete.`,
   mapGaps: (kind: string, n: number, total: number) => `${n} of ${total} grid points of the ${kind}-wise map have no data (crossed on the map).`,
-  plan: (runs: number, cost: string, reasons: string) => `Next: the plan proposes ${runs} runs (cost ${cost}): ${reasons}.`,
+  plan: (runs: number, cost: string, reasons: string) => `Next: the plan proposes ${runs} runs costing ${cost}: ${reasons}.`,
   // Cautions: what a figure could make a reader believe wrongly.
   weakPeaks: (kind: string, label: string, y: string, ys: string) =>
     `${kind}-wise map (${label}): the peak at ${y} ${ys} is inside seed noise (prominence under 2 standard errors); do not read it as a peak.`,
@@ -342,6 +344,7 @@ export const report = {
   demoSweepMissing: (dir: string) => `no committed demo sweep at ${dir} (run with --fresh to simulate it)`,
   chromiumMissing: 'headless Chromium not found at /usr/bin/chromium',
   findingsHead: 'Headline findings:',
+  chosenPeaks: 'of the fixed values offered, the ones whose map has the most significant peaks',
   hurtsFigure:
     'Test error along train size at the widths where more data hurts most (mean over seeds, band: 95% interval; dashed: train error).',
   cautionsHead: 'Read with care:',

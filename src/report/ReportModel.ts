@@ -44,6 +44,8 @@ export interface MapSection {
   variants: MapVariant[];
   /** Index of the variant shown first (and in the PDF). */
   main: number;
+  /** Why that one: the tool's pick of fixed values (most data), or the variant with the most significant peaks. */
+  chosen?: 'data' | 'peaks';
 }
 
 /** A row of the coverage summary (from the plan stage, when a spec is given). */
@@ -66,6 +68,8 @@ export interface PlannedRun {
 export interface PlanSummary {
   budget: number | null;
   cost: number;
+  /** Units of the costs: seconds when fitted from logged wall time, else relative to one reference run. */
+  units: 'seconds' | 'relative';
   runs: PlannedRun[];
 }
 

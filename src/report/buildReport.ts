@@ -104,48 +104,73 @@ function variantLabel(fixed: Record<string, number | string>, selector: string[]
 /** Variants only feed the interactive measured-cell maps, ridges and facets: no field is drawn from them, so a cheap one will do. */
 const VARIANT_FIELD = { method: 'linear', raster: { nx: 8, ny: 8 } } as const;
 
+/** At most this many variants of one map kind come from a full product of fixed values; beyond it, one axis at a time. */
+const MAX_PRODUCT = 16;
+
+/** Rows with a significant peak, then their summed prominence (in standard errors): how much a map shows. */
+function peakScore(r: RidgeResult | null): [number, number] {
+  const rows = (r?.rows ?? []).filter((x) => x.peak !== null);
+  return [rows.length, rows.reduce((a, x) => a + (Number.isFinite(x.peak!.prominenceSe) ? x.peak!.prominenceSe : 0), 0)];
+}
+
 function mapSection(
   table: RowTable,
   kind: MapKind,
   o: { metric: Metric; perAxis: number; boot: number; seed: number; onStep?: () => void; at?: Record<string, number | string> },
 ): MapSection | null {
-  const main = buildMap(table, { kind, metric: o.metric, method: 'auto', ...(o.at ? { at: o.at } : {}) });
-  if (main.cells.length === 0) return null;
+  // The tool's own pick (most data) fixes the values not given; a cheap field is enough to learn them.
+  const first = buildMap(table, { kind, metric: o.metric, ...VARIANT_FIELD, ...(o.at ? { at: o.at } : {}) });
+  if (first.cells.length === 0) return null;
   const ridgeOf = (map: SweepMap): RidgeResult | null =>
     map.cells.length >= 3 ? findRidge(map, { boot: o.boot, seed: o.seed, nullRounds: o.boot }) : null;
-  const maps: SweepMap[] = [main];
   o.onStep?.();
-  const selector: string[] = [];
-  // One fixed axis at a time around the main map (a full product of values would explode).
+
+  // Values offered per fixed axis (the pick always among them).
+  const axes: { key: string; values: (number | string)[] }[] = [];
   for (const key of FIXED_KEYS) {
-    if (!(key in main.fixed)) continue;
+    if (!(key in first.fixed)) continue;
     const all = columnValues(table, key);
     if (all.length < 2) continue;
     const k = key === 'epochs' ? Math.min(4, o.perAxis) : o.perAxis;
-    const chosen = spread(all as (number | string)[], k, main.fixed[key]);
-    let added = 0;
-    for (const v of chosen) {
-      if (v === main.fixed[key]) continue;
-      try {
-        const m = buildMap(table, { kind, metric: o.metric, ...VARIANT_FIELD, at: { ...main.fixed, [key]: v } });
-        if (m.cells.length >= 3) {
-          maps.push(m);
-          added++;
-        }
-      } catch {
-        // A slice the sweep does not cover (buildMap refuses it): nothing to offer there.
-      }
-      o.onStep?.();
-    }
-    if (added) selector.push(key);
+    axes.push({ key, values: spread(all as (number | string)[], k, first.fixed[key]) });
   }
-  const variants: MapVariant[] = maps.map((map) => {
-    const v: MapVariant = { label: variantLabel(map.fixed, selector), map, ridge: ridgeOf(map), cautions: [] };
-    v.cautions = variantCautions(v, kind);
-    return v;
-  });
+  const product = axes.reduce((a, x) => a * x.values.length, 1);
+  const ats: Record<string, number | string>[] = [];
+  if (product <= MAX_PRODUCT) {
+    // Every combination: small enough, and it lets findings compare train sizes at each noise level.
+    let combos: Record<string, number | string>[] = [{ ...first.fixed }];
+    for (const { key, values } of axes) combos = combos.flatMap((c) => values.map((v) => ({ ...c, [key]: v })));
+    ats.push(...combos.filter((c) => axes.some(({ key }) => c[key] !== first.fixed[key])));
+  } else {
+    for (const { key, values } of axes) for (const v of values) if (v !== first.fixed[key]) ats.push({ ...first.fixed, [key]: v });
+  }
+  const maps: SweepMap[] = [first];
+  for (const at of ats) {
+    try {
+      const m = buildMap(table, { kind, metric: o.metric, ...VARIANT_FIELD, at });
+      if (m.cells.length >= 3) maps.push(m);
+    } catch {
+      // A slice the sweep does not cover (buildMap refuses it): nothing to offer there.
+    }
+    o.onStep?.();
+  }
+  const selector = axes.map((a) => a.key).filter((key) => new Set(maps.map((m) => m.fixed[key])).size > 1);
+  const variants: MapVariant[] = maps.map((map) => ({ label: variantLabel(map.fixed, selector), map, ridge: ridgeOf(map), cautions: [] }));
+
+  // Shown first: the variant with the most significant peaks (ties: the most data, the tool's pick).
+  let best = 0;
+  for (let i = 1; i < variants.length; i++) {
+    const [a, b] = [peakScore(variants[i].ridge), peakScore(variants[best].ridge)];
+    if (a[0] > b[0] || (a[0] === b[0] && a[1] > b[1] + 1e-9)) best = i;
+  }
+  // The shown map gets the full treatment: interpolation chosen by leave-one-out, full raster.
+  const full = buildMap(table, { kind, metric: o.metric, method: 'auto', at: { ...variants[best].map.fixed } });
+  full.picked = best === 0 ? first.picked : [];
+  variants[best] = { ...variants[best], map: full };
+  for (const v of variants) v.cautions = variantCautions(v, kind);
+
   // Keep the selector in a reading order: sorted by the selector axes' values.
-  const order = variants.map((v, i) => i);
+  const order = variants.map((_, i) => i);
   const keyOf = (v: MapVariant) => selector.map((k) => v.map.fixed[k]);
   order.sort((a, b) => {
     const ka = keyOf(variants[a]);
@@ -156,8 +181,15 @@ function mapSection(
     }
     return 0;
   });
-  const sorted = order.map((i) => variants[i]);
-  return { kind, x: MAP_AXES[kind].x, y: MAP_AXES[kind].y, selector, variants: sorted, main: order.indexOf(0) };
+  return {
+    kind,
+    x: MAP_AXES[kind].x,
+    y: MAP_AXES[kind].y,
+    selector,
+    variants: order.map((i) => variants[i]),
+    main: order.indexOf(best),
+    chosen: best === 0 ? 'data' : 'peaks',
+  };
 }
 
 /** `{ width, train_size, label_noise }` of the model-wise peak at its latest epoch, width snapped to a measured one. */
@@ -189,6 +221,7 @@ function planSummary(p: PlanResult): PlanSummary {
   return {
     budget: p.budget,
     cost: p.cost,
+    units: p.model.units,
     runs: p.runs.map((r) => ({
       config: { ...(r.condition ? { condition: r.condition } : {}), label_noise: r.label_noise, width: r.width, train_size: r.train_size },
       seed: r.seed,

@@ -31,3 +31,11 @@ export function formatFixed(fixed: Record<string, number | string>): string {
     .map(([k, v]) => `${k} ${typeof v === 'number' ? formatNumber(v) : v}`)
     .join(' · ');
 }
+
+/** A compute cost: seconds as s / min / h, relative units as a plain number with the unit named. */
+export function formatCost(v: number, units: 'seconds' | 'relative'): string {
+  if (units === 'relative') return `${formatNumber(v)} relative units`;
+  if (v < 120) return `${formatNumber(v)} s`;
+  if (v < 7200) return `${formatNumber(v / 60)} min`;
+  return `${formatNumber(v / 3600)} h`;
+}

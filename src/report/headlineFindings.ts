@@ -1,7 +1,7 @@
 import type { HurtsResult } from '../analysis/Hurts.js';
 import type { RidgeRow } from '../analysis/Ridge.js';
 import { report as msg } from '../messages.js';
-import { formatFixed, formatNumber } from './formatNumber.js';
+import { formatCost, formatFixed, formatNumber } from './formatNumber.js';
 import type { CoverageSummary, MapSection, MapVariant, PlanSummary } from './ReportModel.js';
 
 /** Prominence (in pooled standard errors) under which a peak is "inside seed noise" (about a one-sided 95% z level; common practice). */
@@ -45,13 +45,32 @@ function modelFindings(sec: MapSection): string[] {
     const last = withPeak[withPeak.length - 1];
     const p = last.peak!;
     const n = main.map.fixed.train_size;
-    const ratio = typeof n === 'number' && n > 0 ? formatNumber(p.x / n, 2) : null;
+    const ratio = typeof n === 'number' && n > 0 ? formatNumber(p.x / n, 3) : null;
     out.push(msg.modelPeak(sec.y, fmt(last.y), fixed, sec.x, fmt(p.x), fmt(p.low), fmt(p.high), ratio, last.threshold === null ? null : fmt(last.threshold)));
     if (withPeak.length >= 2) {
       const first = withPeak[0];
       const noneBefore = rows.some((r) => r.y < first.y && r.peak === null);
       out.push(msg.modelPeakMoves(sec.y, fmt(first.y), sec.x, fmt(first.peak!.x), fmt(p.x), fmt(last.y), noneBefore));
     }
+  }
+  // Train size: where the peak sits relative to n at every train size (the same noise and condition).
+  const sameBut = (key: string) => {
+    const rest = Object.entries(main.map.fixed).filter(([k]) => k !== key);
+    return sec.variants.filter((v) => typeof v.map.fixed[key] === 'number' && rest.every(([k, val]) => v.map.fixed[k] === val)).sort((a, b) => (a.map.fixed[key] as number) - (b.map.fixed[key] as number));
+  };
+  const bySize = sameBut('train_size');
+  if (bySize.length >= 2) {
+    const parts = bySize.map((v) => {
+      const r = lastPeak(v);
+      const n = v.map.fixed.train_size as number;
+      return r ? `n ${fmt(n)} → width ${fmt(r.peak!.x)} (${formatNumber(r.peak!.x / n, 3)} × n)` : `n ${fmt(n)} → no significant peak`;
+    });
+    const ratios = bySize.flatMap((v) => {
+      const r = lastPeak(v);
+      return r ? [r.peak!.x / (v.map.fixed.train_size as number)] : [];
+    });
+    // "≈ n" only when every peak is within a factor √2 of n (about the resolution of a 4-per-doubling grid's neighbours; common practice).
+    if (ratios.length) out.push(msg.peakBySize(parts.join(', '), ratios.every((q) => q > Math.SQRT1_2 && q < Math.SQRT2)));
   }
   // Label noise: the variants that differ from the main one only in label_noise.
   const others = Object.entries(main.map.fixed).filter(([k]) => k !== 'label_noise');
@@ -143,7 +162,7 @@ export function headlineFindings(input: FindingsInput): string[] {
     const counts = new Map<string, number>();
     for (const r of input.plan.runs) counts.set(r.reason, (counts.get(r.reason) ?? 0) + 1);
     const reasons = [...counts].map(([r, n]) => `${n} ${r}`).join(', ');
-    out.push(msg.plan(input.plan.runs.length, fmt(input.plan.cost), reasons));
+    out.push(msg.plan(input.plan.runs.length, formatCost(input.plan.cost, input.plan.units), reasons));
   }
   return out;
 }

@@ -1,6 +1,7 @@
 import { cellMapSpec, cellRecords } from './cellMapSpec.js';
 import { escapeHtml, jsonForScript, scriptForInline } from './escapeHtml.js';
-import { formatFixed, formatNumber } from './formatNumber.js';
+import { formatCost, formatFixed, formatNumber } from './formatNumber.js';
+import { report as msg } from '../messages.js';
 import { PAGE_SCRIPT } from './pageScript.js';
 import type { MapSection, ReportModel } from './ReportModel.js';
 import { factRows, hurtsTable, planGroups, planRows, PLAN_COLUMNS, PLAN_GROUP_COLUMNS, COVERAGE_COLUMNS, COVERAGE_GROUP_COLUMNS, coverageGroups, coverageRows } from './reportTables.js';
@@ -39,7 +40,7 @@ function sectionData(sec: MapSection) {
     main: sec.main,
     variants: sec.variants.map((v) => ({
       label: v.label,
-      meta: variantMeta(v.map, v === sec.variants[sec.main]),
+      meta: variantMeta(v.map, v === sec.variants[sec.main]) + (v === sec.variants[sec.main] && sec.chosen === 'peaks' ? ` · shown first: ${msg.chosenPeaks}` : ''),
       spec: cellMapSpec(v.map, v.ridge, { width: 520, height: 340 }),
       cells: cellRecords(v.map),
       ridge: (v.ridge?.rows ?? []).map((r) => ({ y: r.y, peak: r.peak, threshold: r.threshold, noiseFrom: r.noiseFrom })),
@@ -120,7 +121,7 @@ export function htmlPage(opts: HtmlPageOptions): string {
       }`
     : '';
   const planHtml = model.plan
-    ? `<h2>Proposed next runs</h2><p>${esc(`${model.plan.runs.length} runs, cost ${formatNumber(model.plan.cost)}${model.plan.budget !== null ? ` of budget ${formatNumber(model.plan.budget)}` : ''}`)}</p>${
+    ? `<h2>Proposed next runs</h2><p>${esc(`${model.plan.runs.length} runs, cost ${formatCost(model.plan.cost, model.plan.units)}${model.plan.budget !== null ? ` of budget ${formatCost(model.plan.budget, model.plan.units)}` : ''}`)}</p>${
         model.plan.runs.length ? `${table(PLAN_GROUP_COLUMNS, planGroups(model.plan))}<details><summary>every run, in order</summary>${table(PLAN_COLUMNS, planRows(model.plan))}</details>` : ''
       }`
     : '';

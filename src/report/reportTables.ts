@@ -1,6 +1,6 @@
 import type { HurtsResult } from '../analysis/Hurts.js';
 import type { RidgeResult } from '../analysis/Ridge.js';
-import { formatFixed, formatNumber } from './formatNumber.js';
+import { formatCost, formatFixed, formatNumber } from './formatNumber.js';
 import type { CoverageSummary, PlanSummary, ReportFacts } from './ReportModel.js';
 
 /** The tables of the report as rows of text, shared by the PDF deck and the HTML page. */
@@ -86,7 +86,7 @@ export function coverageGroups(c: CoverageSummary): string[][] {
 export const PLAN_COLUMNS = ['#', 'configuration', 'seed', 'epochs', 'reason', 'cost', 'why'];
 
 export function planRows(p: PlanSummary): string[][] {
-  return p.runs.map((r, i) => [String(i + 1), formatFixed(r.config), String(r.seed), formatNumber(r.epochs), r.reason, formatNumber(r.cost), r.why]);
+  return p.runs.map((r, i) => [String(i + 1), formatFixed(r.config), String(r.seed), formatNumber(r.epochs), r.reason, formatCost(r.cost, p.units), r.why]);
 }
 
 export const PLAN_GROUP_COLUMNS = ['reason', 'runs', 'cost', 'which runs', 'why'];
@@ -113,6 +113,6 @@ export function planGroups(p: PlanSummary): string[][] {
   return [...groups.values()].map((runs) => {
     const keys = [...new Set(runs.flatMap((r) => Object.keys(r.config)))];
     const which = [...keys.map((k) => `${k} ${valuesOf(runs, k)}`), `seeds ${[...new Set(runs.map((r) => r.seed))].sort((a, b) => a - b).join(', ')}`].join(' · ');
-    return [runs[0].reason, String(runs.length), formatNumber(runs.reduce((a, r) => a + r.cost, 0)), which, runs[0].why];
+    return [runs[0].reason, String(runs.length), formatCost(runs.reduce((a, r) => a + r.cost, 0), p.units), which, runs[0].why];
   });
 }

@@ -6,7 +6,7 @@ import { slicesSpec } from '../render/slicesSpec.js';
 import { writeMapImages } from '../render/writeMapImages.js';
 import { composeDeck } from './composeDeck.js';
 import type { DeckBlock, DeckPage } from './composeDeck.js';
-import { formatFixed, formatNumber } from './formatNumber.js';
+import { formatCost, formatFixed, formatNumber } from './formatNumber.js';
 import { htmlPage } from './htmlPage.js';
 import type { PageFigure } from './htmlPage.js';
 import { readRuntime } from './readRuntime.js';
@@ -127,7 +127,7 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
         : [];
     const figs: PageFigure[] = [];
     const title = `${sec.kind[0].toUpperCase()}${sec.kind.slice(1)}-wise map: ${sec.x} × ${sec.y}`;
-    const picked = main.map.picked.length ? ` (chosen by most data: ${main.map.picked.join(', ')})` : '';
+    const picked = sec.chosen === 'peaks' ? ` (${msg.chosenPeaks})` : main.map.picked.length ? ` (chosen by most data: ${main.map.picked.join(', ')})` : '';
     const mapSub = `at ${formatFixed(main.map.fixed)}${picked} · ${main.map.cells.length} measured cells, ${main.map.missing.length} missing`;
     const side: DeckBlock[] = [];
     if (main.ridge) {
@@ -190,7 +190,7 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
   }
   if (model.plan) {
     const groups = planGroups(model.plan);
-    const sub = `${model.plan.runs.length} runs, cost ${formatNumber(model.plan.cost)}${model.plan.budget !== null ? ` of budget ${formatNumber(model.plan.budget)}` : ''}`;
+    const sub = `${model.plan.runs.length} runs, cost ${formatCost(model.plan.cost, model.plan.units)}${model.plan.budget !== null ? ` of budget ${formatCost(model.plan.budget, model.plan.units)}` : ''}`;
     pages.push({
       title: 'Proposed next runs',
       subtitle: `${sub}; grouped by reason, in the plan's order (every run in the HTML page and plan CSV)`,

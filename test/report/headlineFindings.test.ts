@@ -41,11 +41,11 @@ describe('headlineFindings', () => {
       maps: [],
       hurts: null,
       coverage: { counts: { complete: 10, partial: 2, missing: 3, diverged: 1 }, gaps: [] },
-      plan: { budget: null, cost: 12.5, runs: [{ config: {}, seed: 0, epochs: 10, reason: 'missing', cost: 1, why: 'not in the store' }, { config: {}, seed: 1, epochs: 10, reason: 'refine', cost: 1, why: 'ridge interval wide' }] },
+      plan: { budget: null, cost: 12.5, units: 'relative', runs: [{ config: {}, seed: 0, epochs: 10, reason: 'missing', cost: 1, why: 'not in the store' }, { config: {}, seed: 1, epochs: 10, reason: 'refine', cost: 1, why: 'ridge interval wide' }] },
     });
     expect(f).toEqual([
       'Still missing against the spec: 3 of 16 planned runs have no data, 2 stopped before the target epochs, 1 diverged (10 complete).',
-      'Next: the plan proposes 2 runs (cost 12.5): 1 missing, 1 refine.',
+      'Next: the plan proposes 2 runs costing 12.5 relative units: 1 missing, 1 refine.',
     ]);
   });
 
