@@ -128,6 +128,11 @@ function implicitQl(d: Float64Array, eIn: Float64Array, n: number, Z: Float64Arr
   let f = 0;
   let tst1 = 0;
   const eps = 2 ** -52;
+  // Rotations of one QL sweep, applied to Z together (pairs fused) once the sweep is done.
+  const sweepIdx = new Int32Array(n);
+  const sweepCos = new Float64Array(n);
+  const sweepSin = new Float64Array(n);
+  let nRot = 0;
   for (let l = 0; l < n; l++) {
     tst1 = Math.max(tst1, Math.abs(d[l]) + Math.abs(e[l]));
     let m = l;
@@ -172,15 +177,15 @@ function implicitQl(d: Float64Array, eIn: Float64Array, n: number, Z: Float64Arr
           d[i + 1] = h + s * (c * g + s * d[i]);
           if (rec) rec.push(i, c, s);
           if (Z) {
-            const a0 = i * n;
-            const b0 = a0 + n;
-            for (let k = 0; k < n; k++) {
-              const zb = Z[b0 + k];
-              const za = Z[a0 + k];
-              Z[b0 + k] = s * za + c * zb;
-              Z[a0 + k] = c * za - s * zb;
-            }
+            sweepIdx[nRot] = i;
+            sweepCos[nRot] = c;
+            sweepSin[nRot] = s;
+            nRot++;
           }
+        }
+        if (Z) {
+          rotateForward(Z, n, sweepIdx, sweepCos, sweepSin, 0, nRot);
+          nRot = 0;
         }
         p = (-s * s2 * c3 * el1 * e[l]) / dl1;
         e[l] = s * p;
@@ -284,36 +289,90 @@ export function eigenBasis(a: Float64Array, n: number, opts: { inPlace?: boolean
     toEigen(X, k) {
       // Uᵀ = Sᵀ Qᵀ, Qᵀ = H₁⋯H_{n−1}: apply H_{n−1} first.
       for (let i = n - 1; i >= 1; i--) reflect(X, k, i);
-      for (let q = 0; q < rec.length; q++) {
-        const i = rec.index[q];
-        const c = rec.cos[q];
-        const s = rec.sin[q];
-        const a0 = i * k;
-        const b0 = a0 + k;
-        for (let j = 0; j < k; j++) {
-          const xa = X[a0 + j];
-          const xb = X[b0 + j];
-          X[b0 + j] = s * xa + c * xb;
-          X[a0 + j] = c * xa - s * xb;
-        }
-      }
+      rotateForward(X, k, rec.index, rec.cos, rec.sin, 0, rec.length);
     },
     fromEigen(X, k) {
       // U = Q S: undo the rotations in reverse order, then Q = H_{n−1}⋯H₁ (apply H₁ first).
-      for (let q = rec.length - 1; q >= 0; q--) {
-        const i = rec.index[q];
-        const c = rec.cos[q];
-        const s = rec.sin[q];
-        const a0 = i * k;
-        const b0 = a0 + k;
-        for (let j = 0; j < k; j++) {
-          const xa = X[a0 + j];
-          const xb = X[b0 + j];
-          X[a0 + j] = c * xa + s * xb;
-          X[b0 + j] = c * xb - s * xa;
-        }
-      }
+      rotateBackward(X, k, rec.index, rec.cos, rec.sin, 0, rec.length);
       for (let i = 1; i < n; i++) reflect(X, k, i);
     },
   };
+}
+
+/**
+ * Applies plane rotations q = from..to−1 in order to rows (idx[q], idx[q]+1) of X (row length k):
+ * row b ← s·a + c·b, row a ← c·a − s·b. Consecutive rotations of a QL sweep share a row
+ * (idx[q+1] = idx[q] − 1); such pairs are fused so the shared row is loaded and stored once.
+ */
+function rotateForward(X: Float64Array, k: number, idx: Int32Array, cos: Float64Array, sin: Float64Array, from: number, to: number): void {
+  let q = from;
+  while (q < to) {
+    const i = idx[q];
+    const c1 = cos[q];
+    const s1 = sin[q];
+    if (q + 1 < to && idx[q + 1] === i - 1) {
+      const c2 = cos[q + 1];
+      const s2 = sin[q + 1];
+      const r0 = (i - 1) * k;
+      const r1 = r0 + k;
+      const r2 = r1 + k;
+      for (let j = 0; j < k; j++) {
+        const xb = X[r1 + j];
+        const xc = X[r2 + j];
+        X[r2 + j] = s1 * xb + c1 * xc;
+        const yb = c1 * xb - s1 * xc;
+        const xa = X[r0 + j];
+        X[r1 + j] = s2 * xa + c2 * yb;
+        X[r0 + j] = c2 * xa - s2 * yb;
+      }
+      q += 2;
+    } else {
+      const a0 = i * k;
+      const b0 = a0 + k;
+      for (let j = 0; j < k; j++) {
+        const xa = X[a0 + j];
+        const xb = X[b0 + j];
+        X[b0 + j] = s1 * xa + c1 * xb;
+        X[a0 + j] = c1 * xa - s1 * xb;
+      }
+      q += 1;
+    }
+  }
+}
+
+/** Undoes rotateForward over the same range: inverse rotations in reverse order, pairs fused. */
+function rotateBackward(X: Float64Array, k: number, idx: Int32Array, cos: Float64Array, sin: Float64Array, from: number, to: number): void {
+  let q = to - 1;
+  while (q >= from) {
+    const i = idx[q];
+    const c1 = cos[q];
+    const s1 = sin[q];
+    if (q - 1 >= from && idx[q - 1] === i + 1) {
+      const c2 = cos[q - 1];
+      const s2 = sin[q - 1];
+      const r0 = i * k;
+      const r1 = r0 + k;
+      const r2 = r1 + k;
+      for (let j = 0; j < k; j++) {
+        const xa = X[r0 + j];
+        const xb = X[r1 + j];
+        X[r0 + j] = c1 * xa + s1 * xb;
+        const yb = c1 * xb - s1 * xa;
+        const xc = X[r2 + j];
+        X[r1 + j] = c2 * yb + s2 * xc;
+        X[r2 + j] = c2 * xc - s2 * yb;
+      }
+      q -= 2;
+    } else {
+      const a0 = i * k;
+      const b0 = a0 + k;
+      for (let j = 0; j < k; j++) {
+        const xa = X[a0 + j];
+        const xb = X[b0 + j];
+        X[a0 + j] = c1 * xa + s1 * xb;
+        X[b0 + j] = c1 * xb - s1 * xa;
+      }
+      q -= 1;
+    }
+  }
 }
