@@ -344,6 +344,7 @@ export const report = {
   demoSweepMissing: (dir: string) => `no committed demo sweep at ${dir} (run with --fresh to simulate it)`,
   chromiumMissing: 'headless Chromium not found at /usr/bin/chromium',
   findingsHead: 'Headline findings:',
+  badScale: (text: string) => `--scale expects a pixel ratio between 0 and 8 (e.g. 1 or 2), got '${text}'`,
   chosenPeaks: 'of the fixed values offered, the ones whose map has the most significant peaks',
   hurtsFigure:
     'Test error along train size at the widths where more data hurts most (mean over seeds, band: 95% interval; dashed: train error).',

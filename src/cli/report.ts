@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto';
 import { basename, dirname, resolve } from 'node:path';
 import type { Argv } from 'yargs';
 import type { CommandSpec } from './CommandSpec.js';
+import { usageError } from '../UserError.js';
 import { report as msg } from '../messages.js';
 import type { Manifest } from '../store/Manifest.js';
 import type { RowTable } from '../store/RowTable.js';
@@ -18,6 +19,7 @@ interface ReportArgs {
   out: string;
   title?: string;
   budget?: string;
+  scale: number;
 }
 
 /** Short content hash of the store: sha256 over its sources' hashes (sorted), 12 hex digits. */
@@ -60,6 +62,8 @@ export interface MakeReportOptions {
   out: string;
   title: string;
   budget?: string;
+  /** PNG pixel ratio (default 2). */
+  scale?: number;
   quiet: boolean;
 }
 
@@ -83,7 +87,7 @@ export async function makeReport(opts: MakeReportOptions): Promise<{ model: Repo
     onStep: () => bar.tick(),
   });
   bar.done();
-  const files = await writeReport({ model, outDir: opts.out });
+  const files = await writeReport({ model, outDir: opts.out, scale: opts.scale });
   return { model, files, plan: cp?.plan ?? null };
 }
 
@@ -113,14 +117,16 @@ export const command: CommandSpec<ReportArgs> = {
       .option('spec', { type: 'string', describe: 'sweep spec (YAML or JSON): adds coverage and the proposed next runs' })
       .option('out', { type: 'string', default: 'report', describe: 'output directory' })
       .option('title', { type: 'string', describe: 'title of the deck and page (default: the spec name or the store folder)' })
-      .option('budget', { type: 'string', describe: 'cost cap for the proposed runs (as in datlas plan --budget)' }),
+      .option('budget', { type: 'string', describe: 'cost cap for the proposed runs (as in datlas plan --budget)' })
+      .option('scale', { type: 'number', default: 2, describe: 'pixel ratio of the PNG images (1 = screen size, 2 = crisp on slides)' }),
   async run(args) {
     const { readStore } = await import('../store/readStore.js');
     const storeDir = args.store ?? DEFAULT_STORE;
     const { table, manifest } = await readStore(storeDir);
     const spec = args.spec ? await loadSpec(args.spec) : null;
     const title = args.title ?? spec?.name ?? msg.defaultTitle(basename(resolve(storeDir)));
-    const { model, files } = await makeReport({ table, manifest, spec, out: args.out, title, budget: args.budget, quiet: args.quiet || args.json });
+    if (!(args.scale > 0 && args.scale <= 8)) throw usageError(msg.badScale(String(args.scale)));
+    const { model, files } = await makeReport({ table, manifest, spec, out: args.out, title, budget: args.budget, scale: args.scale, quiet: args.quiet || args.json });
     if (args.json) {
       const { reportJson } = await import('../report/reportJson.js');
       process.stdout.write(`${JSON.stringify({ files, ...reportJson(model) })}\n`);
