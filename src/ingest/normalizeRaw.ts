@@ -238,6 +238,10 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
   const runCol = colOf.run !== undefined ? (raw.columns[colOf.run] as RawColumn) : null;
   const statusCol = colOf.status !== undefined ? (raw.columns[colOf.status] as RawColumn) : null;
   const condCol = colOf.condition !== undefined ? (raw.columns[colOf.condition] as RawColumn) : null;
+  // A run id, status or condition given once for the whole source (a run directory's config).
+  const runConst = constOf.run !== undefined ? text(constOf.run) : '';
+  const statusConst = constOf.status !== undefined && /^(diverged|failed|nan|inf|crashed)$/i.test(text(constOf.status));
+  const condConst = constOf.condition !== undefined ? text(constOf.condition) : '';
   const seedFromPath = (() => {
     if (parsed.seed || constNum.seed) return NaN;
     const m = (seedFrom ?? DEFAULT_SEED_FROM).exec(source);
@@ -359,7 +363,7 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
       reject(i, noMetricField, ingestText.noMetric);
       continue;
     }
-    if (statusCol && /^(diverged|failed|nan|inf|crashed)$/i.test(text(cellAt(statusCol, i)))) status = 'diverged';
+    if (statusConst || (statusCol && /^(diverged|failed|nan|inf|crashed)$/i.test(text(cellAt(statusCol, i))))) status = 'diverged';
 
     // Condition: fixed config keys plus per-row label columns, `key=value` sorted by key.
     let condition = fixedCondition;
@@ -371,11 +375,11 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
       }
       condition = formatCondition(pairs);
     }
-    if (condCol) {
-      const v = text(cellAt(condCol, i));
+    if (condCol || condConst) {
+      const v = condCol ? text(cellAt(condCol, i)) : condConst;
       if (v !== '') condition = condition === '' ? v : `${v},${condition}`;
     }
-    let run = runCol ? text(cellAt(runCol, i)) : '';
+    let run = runCol ? text(cellAt(runCol, i)) : runConst;
     if (run === '') {
       // Rows of one run are usually contiguous: reuse the id while the configuration repeats.
       if (width !== last.width || trainSize !== last.train_size || noise !== last.label_noise ||
