@@ -1,4 +1,4 @@
-import { existsSync, mkdirSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -18,7 +18,17 @@ export const DEMO_SWEEP = 'sample-sweeps/demo';
 /** The spec plans one train size more than the committed sweep ran: those runs are the "still missing" ones. */
 export const PLANNED_EXTRA_TRAIN_SIZE = 1024;
 
-const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '../..');
+/** The package root: the nearest folder up from this module with our package.json (works from src/ and dist/). */
+function packageRoot(): string {
+  let dir = dirname(fileURLToPath(import.meta.url));
+  for (;;) {
+    const pkg = join(dir, 'package.json');
+    if (existsSync(pkg) && /"name":\s*"descent-atlas"/.test(readFileSync(pkg, 'utf8'))) return dir;
+    const up = dirname(dir);
+    if (up === dir) return resolve(dirname(fileURLToPath(import.meta.url)), '../..');
+    dir = up;
+  }
+}
 
 function distinct(col: Float64Array): number[] {
   return [...new Set(col)].filter((v) => Number.isFinite(v)).sort((a, b) => a - b);
@@ -91,7 +101,7 @@ export const command: CommandSpec<DemoArgs> = {
       const table = await featuresSweepParallel({ ...presets.demo(), workers: availableParallelism() });
       await writeSweepLogs({ table, dir: logs, shape: 'csv' });
     } else {
-      logs = join(ROOT, DEMO_SWEEP);
+      logs = join(packageRoot(), DEMO_SWEEP);
       if (!hasFiles(logs)) throw new UserError(msg.demoSweepMissing(logs));
     }
 
@@ -108,7 +118,6 @@ export const command: CommandSpec<DemoArgs> = {
     const specPath = join(out, 'sweep.yaml');
     writeFileSync(specPath, demoSpec(table));
     const { parseSpec } = await import('../plan/parseSpec.js');
-    const { readFileSync } = await import('node:fs');
     const spec = parseSpec(readFileSync(specPath, 'utf8'), specPath);
 
     // 4. Report and plan.
