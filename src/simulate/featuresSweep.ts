@@ -47,6 +47,8 @@ export interface FeaturesSweepOptions {
   condition?: string;
   /** Prefix of run ids (default "rf"). */
   runPrefix?: string;
+  /** Log the measured compute time as wall_seconds (default true); false leaves it NaN so the table is bit-for-bit reproducible. */
+  measureTime?: boolean;
   /** Called after each finished run (one width at one train size and seed, all noise levels). */
   onRun?: () => void;
 }
@@ -65,6 +67,7 @@ export interface ResolvedFeaturesOptions {
   slowGroup: SlowGroup | null;
   condition: string;
   runPrefix: string;
+  measureTime: boolean;
 }
 
 export interface FeaturesTask {
@@ -88,6 +91,7 @@ export function resolveFeaturesOptions(o: FeaturesSweepOptions): ResolvedFeature
     slowGroup: o.slowGroup ?? null,
     condition: o.condition ?? '',
     runPrefix: o.runPrefix ?? 'rf',
+    measureTime: o.measureTime ?? true,
   };
   const bad = (what: string) => {
     throw new RangeError(`featuresSweep: ${what}`);
@@ -254,7 +258,7 @@ export function featuresTask(r: ResolvedFeaturesOptions, task: FeaturesTask, onR
         out.train_error[row] = trainWrong[col] / n;
         out.test_loss[row] = testSq[col] / m;
         out.train_loss[row] = trainSq[col] / n;
-        out.wall_seconds[row] = perRun;
+        out.wall_seconds[row] = r.measureTime ? perRun : NaN;
         row++;
       }
     }

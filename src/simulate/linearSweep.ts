@@ -37,6 +37,8 @@ export interface LinearSweepOptions {
   condition?: string;
   /** Prefix of run ids (default "lin"). */
   runPrefix?: string;
+  /** Log the measured compute time as wall_seconds (default true); false leaves it NaN (bit-for-bit reproducible). */
+  measureTime?: boolean;
   onRun?: () => void;
 }
 
@@ -114,7 +116,7 @@ export function linearSweep(opts: LinearSweepOptions): RowTable {
         let risk = sigma2 + signalOut;
         for (let j = 0; j < p; j++) risk += (beta[j] - bhat[j]) ** 2;
         out.extra.risk[row] = risk;
-        out.wall_seconds[row] = (performance.now() - t0) / 1000;
+        out.wall_seconds[row] = opts.measureTime === false ? NaN : (performance.now() - t0) / 1000;
         row++;
         opts.onRun?.();
       }

@@ -104,6 +104,10 @@ describe('random-features sweep: determinism and nesting', () => {
       expect(pick(b, run)).toEqual(pick(a, run));
     }
     expect(Array.from(featuresSweep(small).test_error)).toEqual(Array.from(a.test_error));
+    // Without the measured time the whole table is reproducible bit for bit.
+    const c = featuresSweep({ ...small, measureTime: false });
+    expect(c).toEqual(featuresSweep({ ...small, measureTime: false }));
+    expect(Number.isNaN(c.wall_seconds[0])).toBe(true);
   });
 
   it('rejects impossible options', () => {
