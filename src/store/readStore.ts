@@ -22,21 +22,29 @@ export function readManifest(dir: string): Manifest | null {
   return m;
 }
 
-/** Reads a store written by `datlas ingest`. Throws UserError (exit 1) when there is none. */
+/**
+ * Reads a store written by `datlas ingest`. Throws UserError (exit 1) when there is none.
+ * An ingest renames rows.arrow just before manifest.json; a read that falls between the two
+ * sees different row counts and tries again briefly before calling the store inconsistent.
+ */
 export async function readStore(dir: string): Promise<{ table: RowTable; manifest: Manifest }> {
-  const manifest = readManifest(dir);
-  if (!manifest) throw new UserError(storeText.noStore(dir));
-  const f = storeFiles(dir);
-  if (!existsSync(f.rows)) {
-    if (manifest.rows === 0) return { table: emptyTable(0), manifest };
-    throw new UserError(storeText.inconsistent(dir, manifest.rows, 0));
+  for (let attempt = 0; ; attempt++) {
+    const manifest = readManifest(dir);
+    if (!manifest) throw new UserError(storeText.noStore(dir));
+    const f = storeFiles(dir);
+    let table: RowTable;
+    if (!existsSync(f.rows)) {
+      if (manifest.rows === 0) return { table: emptyTable(0), manifest };
+      table = emptyTable(0);
+    } else {
+      try {
+        table = rowsFromArrow(readFileSync(f.rows));
+      } catch (err) {
+        throw new UserError(storeText.badRows(dir, (err as Error).message));
+      }
+    }
+    if (table.length === manifest.rows) return { table, manifest };
+    if (attempt >= 5) throw new UserError(storeText.inconsistent(dir, manifest.rows, table.length));
+    await new Promise((r) => setTimeout(r, 100));
   }
-  let table: RowTable;
-  try {
-    table = rowsFromArrow(readFileSync(f.rows));
-  } catch (err) {
-    throw new UserError(storeText.badRows(dir, (err as Error).message));
-  }
-  if (table.length !== manifest.rows) throw new UserError(storeText.inconsistent(dir, manifest.rows, table.length));
-  return { table, manifest };
 }

@@ -52,6 +52,14 @@ describe('store round trip (DESIGN.md §4: Arrow IPC file readable by other tool
     expect(manifest.sources[p].sha256).toMatch(/^[0-9a-f]{64}$/);
   });
 
+  it('readStore refuses a store whose manifest and rows disagree (an interrupted write)', async () => {
+    const store = join(dir, 'store');
+    await ingestSources({ paths: [csv('a.csv', 64, [1, 2])], store });
+    const m = JSON.parse(readFileSync(join(store, 'manifest.json'), 'utf8'));
+    writeFileSync(join(store, 'manifest.json'), JSON.stringify({ ...m, rows: 3 }));
+    await expect(readStore(store)).rejects.toThrow('manifest says 3 rows but rows.arrow holds 2');
+  });
+
   it('readStore fails with a clear message when there is no store', async () => {
     await expect(readStore(join(dir, 'none'))).rejects.toThrow(`no store at ${join(dir, 'none')} (run datlas ingest first)`);
   });
