@@ -151,7 +151,7 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
   const extraCols: { name: string; j: number }[] = [];
   const condCols: { key: string; j: number }[] = [];
   raw.names.forEach((name, j) => {
-    if (used.has(j)) return;
+    if (used.has(j) || name === '') return; // an unnamed column (a trailing delimiter in the header)
     const col = raw.columns[j];
     if (hasConfigPrefix(name)) {
       const ck = conditionKey(name);
