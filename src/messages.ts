@@ -344,6 +344,7 @@ export const report = {
   demoSweepMissing: (dir: string) => `no committed demo sweep at ${dir} (run with --fresh to simulate it)`,
   chromiumMissing: 'headless Chromium not found at /usr/bin/chromium',
   findingsHead: 'Headline findings:',
+  coverageFigure: 'The planned grid: each cell coloured by the share of its planned seeds complete, labelled done/planned (p: partial, d: diverged).',
   badScale: (text: string) => `--scale expects a pixel ratio between 0 and 8 (e.g. 1 or 2), got '${text}'`,
   chosenPeaks: 'of the fixed values offered, the ones whose map has the most significant peaks',
   hurtsFigure:

@@ -83,6 +83,7 @@ export async function makeReport(opts: MakeReportOptions): Promise<{ model: Repo
     dataDate: dataDate(opts.manifest),
     storeHash: storeHash(opts.manifest),
     coverage: cp?.coverage ?? null,
+    spec: opts.spec,
     plan: cp?.plan ?? null,
     onStep: () => bar.tick(),
   });

@@ -1,3 +1,4 @@
+import type { TopLevelSpec } from 'vega-lite';
 import type { HurtsResult } from '../analysis/Hurts.js';
 import type { RidgeResult } from '../analysis/Ridge.js';
 import type { MapKind, SweepMap } from '../grid/SweepMap.js';
@@ -51,6 +52,8 @@ export interface MapSection {
 /** A row of the coverage summary (from the plan stage, when a spec is given). */
 export interface CoverageSummary {
   counts: { complete: number; partial: number; missing: number; diverged: number };
+  /** The render stage's coverage chart (vega-lite), when the spec was at hand. */
+  figure?: TopLevelSpec;
   /** Runs that are not complete: axes, seed and status. */
   gaps: { config: Record<string, number | string>; seed: number; status: string }[];
 }

@@ -9,6 +9,8 @@ import type { MapKind, SweepMap } from '../grid/SweepMap.js';
 import { report as msg } from '../messages.js';
 import type { CoverageResult } from '../plan/coverage.js';
 import type { PlanResult } from '../plan/Plan.js';
+import type { SweepSpec } from '../plan/SweepSpec.js';
+import { coverageSpec } from '../render/coverageSpec.js';
 import { defaultMetric } from '../store/RowTable.js';
 import type { Metric, RowTable } from '../store/RowTable.js';
 import { formatFixed, formatNumber } from './formatNumber.js';
@@ -22,6 +24,8 @@ export interface BuildReportOptions {
   dataDate?: string | null;
   storeHash?: string | null;
   coverage?: CoverageResult | null;
+  /** The spec the coverage was measured against (for the coverage chart). */
+  spec?: SweepSpec | null;
   plan?: PlanResult | null;
   /** Report time (ISO); default now. */
   now?: string;
@@ -271,6 +275,7 @@ export function buildReport(opts: BuildReportOptions): ReportModel {
   }
 
   const coverage = opts.coverage ? coverageSummary(opts.coverage) : null;
+  if (coverage && opts.coverage && opts.spec) coverage.figure = coverageSpec({ coverage: opts.coverage, spec: opts.spec });
   const plan = opts.plan ? planSummary(opts.plan) : null;
   const findings = headlineFindings({ maps, hurts, coverage, plan });
 

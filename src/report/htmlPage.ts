@@ -20,6 +20,8 @@ export interface HtmlPageOptions {
   figures?: PageFigure[][];
   /** Test error along train size where more data hurts most. */
   hurtsFigure?: PageFigure;
+  /** The planned grid coloured by completed seeds. */
+  coverageFigure?: PageFigure;
 }
 
 const esc = escapeHtml;
@@ -118,7 +120,7 @@ export function htmlPage(opts: HtmlPageOptions): string {
         model.coverage.gaps.length
           ? `${table(COVERAGE_GROUP_COLUMNS, coverageGroups(model.coverage))}<details><summary>each run that is not complete</summary>${table(COVERAGE_COLUMNS, coverageRows(model.coverage))}</details>`
           : ''
-      }`
+      }${opts.coverageFigure ? figureHtml(opts.coverageFigure) : ''}`
     : '';
   const planHtml = model.plan
     ? `<h2>Proposed next runs</h2><p>${esc(`${model.plan.runs.length} runs, cost ${formatCost(model.plan.cost, model.plan.units)}${model.plan.budget !== null ? ` of budget ${formatCost(model.plan.budget, model.plan.units)}` : ''}`)}</p>${

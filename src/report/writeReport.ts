@@ -170,9 +170,17 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
       widths: hurtsPng ? [1.15, 1] : undefined,
     });
   }
+  let coveragePng: Buffer | null = null;
+  if (model.coverage?.figure) {
+    coveragePng = (await renderSpec(model.coverage.figure, { format: 'png', scale })) as Buffer;
+    writeAtomic(join(pngDir, 'coverage.vl.json'), `${JSON.stringify(model.coverage.figure, null, 1)}\n`);
+    writeAtomic(join(pngDir, 'coverage.png'), coveragePng);
+    pngs.push(join(pngDir, 'coverage.png'));
+  }
   if (model.coverage) {
     const c = model.coverage.counts;
     const rows = coverageRows(model.coverage);
+    if (coveragePng) pages.push({ title: 'Coverage against the spec: the grid', subtitle: `complete ${c.complete} · partial ${c.partial} · missing ${c.missing} · diverged ${c.diverged}`, columns: [[{ kind: 'image', png: coveragePng }]] });
     pages.push({
       title: 'Coverage against the spec',
       subtitle: `complete ${c.complete} · partial ${c.partial} · missing ${c.missing} · diverged ${c.diverged}`,
@@ -203,7 +211,16 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
   writeAtomic(pdfPath, await composeDeck({ pages, footer: `${f.title} · store ${f.storeHash ?? 'unknown'} · made by datlas ${f.generatedAt}` }));
 
   const htmlPath = join(outDir, 'report.html');
-  writeAtomic(htmlPath, htmlPage({ model, runtime: readRuntime(), figures, hurtsFigure: hurtsPng ? { caption: msg.hurtsFigure, png: hurtsPng } : undefined }));
+  writeAtomic(
+    htmlPath,
+    htmlPage({
+      model,
+      runtime: readRuntime(),
+      figures,
+      hurtsFigure: hurtsPng ? { caption: msg.hurtsFigure, png: hurtsPng } : undefined,
+      coverageFigure: coveragePng ? { caption: msg.coverageFigure, png: coveragePng } : undefined,
+    }),
+  );
 
   const jsonPath = join(outDir, 'report.json');
   writeAtomic(jsonPath, `${JSON.stringify(reportJson(model), null, 2)}\n`);
