@@ -82,6 +82,21 @@ describe('re-ingest', () => {
   });
 });
 
+describe('walking folders', () => {
+  it('`datlas ingest .` skips the store inside the folder, hidden entries and files it cannot read as logs', async () => {
+    const store = join(dir, 'atlas-store');
+    csv('a.csv', 64, [1, 2]);
+    writeFileSync(join(dir, 'notes.md'), '# not a log');
+    mkdirSync(join(dir, '.cache'));
+    writeFileSync(join(dir, '.cache', 'old.csv'), 'width,epoch,n,test_error\n1,1,1,0.5\n');
+    await ingestSources({ paths: [dir], store });
+    const again = await ingestSources({ paths: [dir], store });
+    // The second walk finds a.csv only: not rows.arrow, not the hidden folder, not notes.md.
+    expect(again).toMatchObject({ sources: 1, unchanged: 1, read: 0 });
+    expect((await readStore(store)).table.length).toBe(2);
+  });
+});
+
 describe('store lock', () => {
   it('a stale lock of a dead process is cleared', async () => {
     const store = join(dir, 'store');
