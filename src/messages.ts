@@ -318,7 +318,8 @@ export const report = {
   hurtsNone: (slices: number, epochs: string) => `More data never significantly hurts at ${epochs} (${slices} train-size slices scanned).`,
   epochPeak: (parts: string, fixed: string) =>
     `Epoch-wise: test error rises and falls again with training time at ${parts}${fixed ? ` (${fixed})` : ''}.`,
-  epochNoPeak: (fixed: string) => `Epoch-wise: no significant peak along training time${fixed ? ` (${fixed})` : ''}: error only falls or only rises with epochs.`,
+  epochNoPeak: (fixed: string) =>
+    `Epoch-wise: no significant peak along training time${fixed ? ` (${fixed})` : ''}: no rise of test error with epochs is followed by a significant fall within the logged epochs.`,
   coverage: (missing: number, partial: number, diverged: number, complete: number, total: number) =>
     `Still missing against the spec: ${missing} of ${total} planned runs have no data, ${partial} stopped before the target epochs, ${diverged} diverged (${complete} complete).`,
   coverageComplete: (total: number) => `Every one of the ${total} planned runs in the spec is complete.`,
