@@ -298,8 +298,8 @@ export const planText = {
 // ── report / demo ────────────────────────────────────────────────────────────
 export const report = {
   // Headline findings (plain sentences; numbers already formatted).
-  modelPeak: (y: string, yv: string, fixed: string, x: string, xv: string, low: string, high: string, ratio: string | null, thr: string | null) =>
-    `Model-wise: at ${y} ${yv}${fixed ? ` (${fixed})` : ''} test error peaks at ${x} ${xv} (interval ${low}–${high})` +
+  modelPeak: (m: string, y: string, yv: string, fixed: string, x: string, xv: string, low: string, high: string, ratio: string | null, thr: string | null) =>
+    `Model-wise: at ${y} ${yv}${fixed ? ` (${fixed})` : ''} ${m} peaks at ${x} ${xv} (interval ${low}–${high})` +
     `${ratio ? `, ${ratio} × the train size` : ''}${thr ? `; train error first reaches ε at ${x} ${thr} (the interpolation threshold)` : ''}.`,
   modelPeakMoves: (y: string, firstY: string, x: string, fromX: string, toX: string, lastY: string, noneBefore: boolean) =>
     `The peak ${noneBefore ? `appears at ${y} ${firstY} (no significant peak earlier) and ` : ''}` +
@@ -309,17 +309,17 @@ export const report = {
     `Across train sizes the model-wise peak ${tracks ? 'sits at width ≈ n' : 'moves with n'} (each at its latest epoch with a peak): ${parts}.`,
   noiseEffect: (parts: string, trend: 'grows' | 'shrinks' | 'mixed') =>
     `Label noise: the peak's height over its flanks ${trend === 'grows' ? 'grows with noise' : trend === 'shrinks' ? 'shrinks with noise' : 'varies with noise'} (${parts}).`,
-  samplePeaks: (parts: string, fixed: string) => `Sample-wise: test error peaks at ${parts}${fixed ? ` (${fixed})` : ''}.`,
+  samplePeaks: (m: string, parts: string, fixed: string) => `Sample-wise: ${m} peaks at ${parts}${fixed ? ` (${fixed})` : ''}.`,
   sampleNoPeak: (fixed: string) => `Sample-wise: no significant peak along train size${fixed ? ` (${fixed})` : ''}.`,
-  hurts: (fixed: string, onset: string, peak: string, rise: string, p: string, ratio: string | null, recovery: string | null, others: number) =>
-    `More data hurts at ${fixed}: test error rises by ${rise} from train size ${onset} to ${peak}${ratio ? ` (${ratio} × the width)` : ''} (p ${p}), ` +
+  hurts: (m: string, fixed: string, onset: string, peak: string, rise: string, p: string, ratio: string | null, recovery: string | null, others: number) =>
+    `More data hurts at ${fixed}: ${m} rises by ${rise} from train size ${onset} to ${peak}${ratio ? ` (${ratio} × the width)` : ''} (p ${p}), ` +
     `${recovery ? `and falls back to the onset level at ${recovery}` : 'and does not fall back to the onset level inside the sweep'}` +
     `${others ? `; ${others} more slice${others === 1 ? ' shows' : 's show'} a significant rise` : ''}.`,
   hurtsNone: (slices: number, epochs: string) => `More data never significantly hurts at ${epochs} (${slices} train-size slices scanned).`,
-  epochPeak: (parts: string, fixed: string) =>
-    `Epoch-wise: test error rises and falls again with training time at ${parts}${fixed ? ` (${fixed})` : ''}.`,
-  epochNoPeak: (fixed: string) =>
-    `Epoch-wise: no significant peak along training time${fixed ? ` (${fixed})` : ''}: no rise of test error with epochs is followed by a significant fall within the logged epochs.`,
+  epochPeak: (m: string, parts: string, fixed: string) =>
+    `Epoch-wise: ${m} rises and falls again with training time at ${parts}${fixed ? ` (${fixed})` : ''}.`,
+  epochNoPeak: (m: string, fixed: string) =>
+    `Epoch-wise: no significant peak along training time${fixed ? ` (${fixed})` : ''}: no rise of ${m} with epochs is followed by a significant fall within the logged epochs.`,
   coverage: (missing: number, partial: number, diverged: number, complete: number, total: number) =>
     `Still missing against the spec: ${missing} of ${total} planned runs have no data, ${partial} stopped before the target epochs, ${diverged} diverged (${complete} complete).`,
   coverageComplete: (total: number) => `Every one of the ${total} planned runs in the spec is complete.`,
@@ -345,6 +345,8 @@ export const report = {
   demoSweepMissing: (dir: string) => `no committed demo sweep at ${dir} (run with --fresh to simulate it)`,
   chromiumMissing: 'headless Chromium not found at /usr/bin/chromium',
   findingsHead: 'Headline findings:',
+  heavyTail: (m: string) =>
+    `The ${m} is a mean of squared errors, heavy-tailed near the interpolation threshold: one seed can dominate a cell's mean there, so check the seeds in the read-outs before trusting a peak's height.`,
   coverageFigure: 'The planned grid: each cell coloured by the share of its planned seeds complete, labelled done/planned (p: partial, d: diverged).',
   badScale: (text: string) => `--scale expects a pixel ratio between 0 and 8 (e.g. 1 or 2), got '${text}'`,
   chosenPeaks: 'of the fixed values offered, the ones whose map has the most significant peaks',

@@ -14,7 +14,7 @@ import { coverageSpec } from '../render/coverageSpec.js';
 import { defaultMetric } from '../store/RowTable.js';
 import type { Metric, RowTable } from '../store/RowTable.js';
 import { formatFixed, formatNumber } from './formatNumber.js';
-import { headlineFindings, variantCautions } from './headlineFindings.js';
+import { headlineFindings, metricWords, variantCautions } from './headlineFindings.js';
 import type { CoverageSummary, MapSection, MapVariant, PlanSummary, ReportFacts, ReportModel } from './ReportModel.js';
 
 export interface BuildReportOptions {
@@ -286,6 +286,7 @@ export function buildReport(opts: BuildReportOptions): ReportModel {
   }
   const f = facts(table, opts, metric);
   if (f.seeds.perCellMin === 1) cautions.push(msg.oneSeed);
+  if (metric === 'test_loss' || metric === 'train_loss') cautions.push(msg.heavyTail(metricWords(metric)));
   const first = maps[0]?.variants[maps[0].main]?.map;
   if (first) cautions.push(msg.interpolated(first.method, formatNumber(first.loo.rmse)));
   if (hurts && (hurts.slices ?? 0) > 1) cautions.push(msg.hurtsMultiple(hurts.slices ?? 0, formatNumber(hurts.alpha ?? 0.05)));

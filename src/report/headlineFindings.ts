@@ -17,6 +17,9 @@ export interface FindingsInput {
 
 const fmt = (v: number | null | undefined) => formatNumber(v);
 
+/** "test error", "test loss", ... for sentences. */
+export const metricWords = (m: string) => m.replace('_', ' ');
+
 /** The fixed values of a map without the one a sentence already names. */
 function fixedWithout(fixed: Record<string, number | string>, drop: string[] = []): string {
   const f: Record<string, number | string> = {};
@@ -46,7 +49,7 @@ function modelFindings(sec: MapSection): string[] {
     const p = last.peak!;
     const n = main.map.fixed.train_size;
     const ratio = typeof n === 'number' && n > 0 ? formatNumber(p.x / n, 3) : null;
-    out.push(msg.modelPeak(sec.y, fmt(last.y), fixed, sec.x, fmt(p.x), fmt(p.low), fmt(p.high), ratio, last.threshold === null ? null : fmt(last.threshold)));
+    out.push(msg.modelPeak(metricWords(main.map.metric), sec.y, fmt(last.y), fixed, sec.x, fmt(p.x), fmt(p.low), fmt(p.high), ratio, last.threshold === null ? null : fmt(last.threshold)));
     if (withPeak.length >= 2) {
       const first = withPeak[0];
       const noneBefore = rows.some((r) => r.y < first.y && r.peak === null);
@@ -102,17 +105,17 @@ function sampleFindings(sec: MapSection): string[] {
   const parts = pick
     .map((r) => `${sec.x} ${fmt(r.peak!.x)} for ${sec.y} ${fmt(r.y)}${sec.y === 'width' ? ` (${formatNumber(r.peak!.x / r.y, 2)} × the width)` : ''}`)
     .join(', ');
-  return [msg.samplePeaks(parts, fixedWithout(main.map.fixed))];
+  return [msg.samplePeaks(metricWords(main.map.metric), parts, fixedWithout(main.map.fixed))];
 }
 
 function epochFindings(sec: MapSection): string[] {
   const main = sec.variants[sec.main];
   if (!main) return [];
   const withPeak = peaked(main.ridge?.rows ?? []);
-  if (withPeak.length === 0) return [msg.epochNoPeak(fixedWithout(main.map.fixed))];
+  if (withPeak.length === 0) return [msg.epochNoPeak(metricWords(main.map.metric), fixedWithout(main.map.fixed))];
   const pick = withPeak.length <= 3 ? withPeak : [withPeak[0], withPeak[withPeak.length - 1]];
   const parts = pick.map((r) => `${sec.y} ${fmt(r.y)} (peak at epoch ${fmt(r.peak!.x)}, height ${fmt(r.peak!.prominence)})`).join(', ');
-  return [msg.epochPeak(parts, fixedWithout(main.map.fixed))];
+  return [msg.epochPeak(metricWords(main.map.metric), parts, fixedWithout(main.map.fixed))];
 }
 
 function hurtsFindings(h: HurtsResult): string[] {
@@ -123,7 +126,7 @@ function hurtsFindings(h: HurtsResult): string[] {
   const ratio = typeof w === 'number' && w > 0 ? formatNumber(s.peak / w, 2) : null;
   const slicesWith = new Set(segs.map((x) => JSON.stringify(x.fixed))).size;
   const p = s.p < 1e-4 ? '< 1e-4' : `= ${formatNumber(s.p, 2)}`;
-  return [msg.hurts(formatFixed(s.fixed), fmt(s.onset), fmt(s.peak), fmt(s.rise), p, ratio, s.recovery === null ? null : fmt(s.recovery), slicesWith - 1)];
+  return [msg.hurts(metricWords(h.metric), formatFixed(s.fixed), fmt(s.onset), fmt(s.peak), fmt(s.rise), p, ratio, s.recovery === null ? null : fmt(s.recovery), slicesWith - 1)];
 }
 
 /** Variant-level warnings: peaks inside seed noise, intervals from curve noise. */
