@@ -4,39 +4,10 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../helpers/runCli.js';
+import { SYN, syntheticCsv, syntheticRows } from '../report/syntheticSweep.js';
 
 const EVIL = '<img src=x onerror=alert(1)>';
-const WIDTHS = [8, 16, 32, 64, 128, 256, 512];
-const SIZES = [32, 64, 128];
-const NOISE = [0.1, 0.2];
-const EPOCHS = [1, 10, 100, 1000];
-const SEEDS = [0, 1, 2];
-
-/**
- * A synthetic sweep with a known answer: test error has a bump centred at width = train size
- * (the interpolation threshold of random-features models; REFERENCES.md §4, Belkin et al. 2019)
- * that appears only from epoch 100 on and grows with label noise; along train size the same bump
- * makes more data hurt up to n = width. Seeds differ by ±0.004 (deterministic).
- */
-function sweepCsv(skip: (w: number, n: number, q: number, s: number) => boolean): string {
-  const lines = ['run,seed,width,train_size,label_noise,epochs,test_error,train_error'];
-  for (const q of NOISE)
-    for (const n of SIZES)
-      for (const w of WIDTHS)
-        for (const s of SEEDS) {
-          if (skip(w, n, q, s)) continue;
-          const run = w === 64 && n === 64 && q === 0.2 && s === 0 ? `"${EVIL}"` : `w${w}-n${n}-q${q}-s${s}`;
-          for (const e of EPOCHS) {
-            const amp = e < 100 ? 0 : (e === 100 ? 0.12 : 0.2) * (1 + q * 2);
-            const bump = amp * Math.exp(-((Math.log2(w / n)) ** 2) / 0.5);
-            const base = 0.35 - 0.02 * Math.log2(w / 8) - 0.015 * Math.log2(n / 32) + (e === 1 ? 0.05 : 0);
-            const err = base + bump + (s - 1) * 0.004;
-            const train = e >= 100 ? Math.max(0, 0.3 * (1 - w / n)) : 0.3;
-            lines.push(`${run},${s},${w},${n},${q},${e},${err.toFixed(5)},${train.toFixed(5)}`);
-          }
-        }
-  return `${lines.join('\n')}\n`;
-}
+const { widths: WIDTHS, sizes: SIZES, noise: NOISE } = SYN;
 
 let dir: string;
 let store: string;
@@ -45,7 +16,7 @@ beforeAll(() => {
   dir = mkdtempSync(join(tmpdir(), 'datlas-report-cli-'));
   store = join(dir, 'store');
   // Two planned runs never ran: width 512, n 128, noise 0.1, seeds 1 and 2.
-  writeFileSync(join(dir, 'sweep.csv'), sweepCsv((w, n, q, s) => w === 512 && n === 128 && q === 0.1 && s > 0));
+  writeFileSync(join(dir, 'sweep.csv'), syntheticCsv(syntheticRows({ runName: EVIL, skip: (w, n, q, s) => w === 512 && n === 128 && q === 0.1 && s > 0 })));
   writeFileSync(
     join(dir, 'spec.yaml'),
     `name: synthetic\naxes:\n  width: [${WIDTHS.join(', ')}]\n  train_size: [${SIZES.join(', ')}]\n  label_noise: [${NOISE.join(', ')}]\nseeds: 3\nepochs: 1000\n`,

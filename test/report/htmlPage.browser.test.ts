@@ -143,3 +143,55 @@ describe.skipIf(!hasChromium && !process.env.CI)('report page in headless Chromi
     expect(problems).toEqual([]);
   });
 });
+
+describe.skipIf(!hasChromium && !process.env.CI)('a full report page (three maps, figures, tables) in headless Chromium', () => {
+  let browser: Browser;
+  let page: Page;
+  let dir: string;
+  const problems: string[] = [];
+
+  beforeAll(async () => {
+    const { buildReport } = await import('../../src/report/buildReport.js');
+    const { writeReport } = await import('../../src/report/writeReport.js');
+    const { syntheticRows, syntheticTable } = await import('./syntheticSweep.js');
+    dir = mkdtempSync(join(tmpdir(), 'datlas-fullpage-'));
+    const model = buildReport({ table: syntheticTable(syntheticRows({ runName: EVIL })), title: 'Synthetic', boot: 100, now: '2026-12-01T00:00:00.000Z' });
+    const files = await writeReport({ model, outDir: dir, scale: 1 });
+    const { chromium } = await import('playwright-core');
+    browser = await chromium.launch({
+      executablePath: CHROMIUM,
+      args: ['--headless', '--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+    });
+    page = await browser.newPage({ viewport: { width: 1200, height: 1000 } });
+    page.on('console', (m) => {
+      if (m.type() === 'error' || m.type() === 'warning') problems.push(`${m.type()}: ${m.text()}`);
+    });
+    page.on('pageerror', (e) => problems.push(`pageerror: ${e.message}`));
+    await page.route('**/*', (route) => (route.request().url().startsWith('file:') ? route.continue() : route.abort()));
+    await page.goto(pathToFileURL(files.html).href);
+    await page.waitForSelector('body[data-ready="true"]', { timeout: 30_000 });
+  }, 120_000);
+
+  afterAll(async () => {
+    await browser?.close();
+    if (dir) rmSync(dir, { recursive: true, force: true });
+  });
+
+  it('draws all three maps and their pictures with no console errors, and every selector switches its map', async () => {
+    expect(await page.locator('.chart canvas').count()).toBe(3);
+    // Pictures (interpolated field, slices, by noise) load from data URLs: all decoded.
+    const broken = await page.$$eval('figure img', (imgs) => imgs.filter((i) => !(i as unknown as { naturalWidth: number }).naturalWidth).length);
+    expect(broken).toBe(0);
+    expect(await page.locator('figure img').count()).toBeGreaterThanOrEqual(6);
+    for (let si = 0; si < 3; si++) {
+      const options = await page.locator(`#select-${si} option`).count();
+      expect(options).toBeGreaterThan(1);
+      const now = Number(await page.getAttribute(`#map-${si}`, 'data-variant'));
+      const next = (now + 1) % options;
+      await page.selectOption(`#select-${si}`, String(next));
+      // The change handler re-renders synchronously up to the view's first run.
+      expect(await page.getAttribute(`#map-${si}`, 'data-variant')).toBe(String(next));
+    }
+    expect(problems).toEqual([]);
+  });
+});
