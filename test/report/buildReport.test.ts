@@ -1,0 +1,54 @@
+import { describe, expect, it } from 'vitest';
+import { buildReport } from '../../src/report/buildReport.js';
+import { SYN, syntheticRows, syntheticTable } from './syntheticSweep.js';
+
+describe('buildReport', () => {
+  const table = syntheticTable(syntheticRows());
+  const model = buildReport({ table, title: 'Synthetic', boot: 100, now: '2026-12-01T00:00:00.000Z' });
+
+  it('states the sweep facts', () => {
+    // 7 widths × 3 sizes × 2 noise × 3 seeds runs, 4 logged epochs each.
+    expect(model.facts.runs).toBe(126);
+    expect(model.facts.rows).toBe(504);
+    expect(model.facts.seeds).toEqual({ distinct: 3, perCellMin: 3, perCellMax: 3 });
+    expect(model.facts.axes.find((a) => a.name === 'width')!.values).toEqual(SYN.widths);
+  });
+
+  it('offers every combination of the fixed values when there are few, and shows the one with the most peaks first', () => {
+    const m = model.maps.find((s) => s.kind === 'model')!;
+    // train_size (3) × label_noise (2) = 6 model-wise maps.
+    expect(m.variants).toHaveLength(6);
+    expect(new Set(m.variants.map((v) => v.label)).size).toBe(6);
+    const peaks = (i: number) => (m.variants[i].ridge?.rows ?? []).filter((r) => r.peak !== null).length;
+    for (let i = 0; i < m.variants.length; i++) expect(peaks(m.main)).toBeGreaterThanOrEqual(peaks(i));
+    // The shown map is interpolated by the method leave-one-out picked, on a full raster.
+    expect(m.variants[m.main].map.raster.nx).toBeGreaterThan(8);
+  });
+
+  it('draws the epoch-wise map at the measured width nearest the model-wise peak', () => {
+    const m = model.maps.find((s) => s.kind === 'model')!;
+    const e = model.maps.find((s) => s.kind === 'epoch')!;
+    const peak = m.variants[m.main].ridge!.rows.filter((r) => r.peak).sort((a, b) => b.y - a.y)[0].peak!.x;
+    const w = e.variants.map((v) => v.map.fixed.width as number);
+    const nearest = SYN.widths.reduce((b, x) => (Math.abs(Math.log(x / peak)) < Math.abs(Math.log(b / peak)) ? x : b));
+    expect(w).toContain(nearest);
+  });
+
+  it('skips the kinds a sweep cannot support and says why', () => {
+    const one = syntheticTable(syntheticRows({ skip: (_w, n) => n !== 64 }));
+    const r = buildReport({ table: one, title: 'one size', boot: 50 });
+    expect(r.maps.map((m) => m.kind)).toEqual(['model']);
+    expect(r.skipped).toEqual([
+      { kind: 'sample', reason: 'the sweep has 1 value of train_size; this map needs at least 3' },
+      { kind: 'epoch', reason: 'the sweep has 1 value of train_size; this map needs at least 2' },
+    ]);
+    expect(r.hurts).toEqual([]);
+  });
+
+  it('warns about one-seed cells and never reports a peak for them from seeds', () => {
+    const single = syntheticTable(syntheticRows({ skip: (_w, _n, _q, s) => s !== 0 }));
+    const r = buildReport({ table: single, title: 'one seed', boot: 50 });
+    expect(r.cautions.some((c) => c.startsWith('Some cells have one seed'))).toBe(true);
+    for (const sec of r.maps) for (const v of sec.variants) for (const row of v.ridge?.rows ?? []) if (row.peak) expect(row.noiseFrom).toBe('curve');
+  });
+});
