@@ -1,6 +1,6 @@
 import yargs from 'yargs';
 import type { Argv } from 'yargs';
-import { UserError } from '../UserError.js';
+import { UserError, usageError } from '../UserError.js';
 import { general } from '../messages.js';
 import type { CommandSpec } from './CommandSpec.js';
 
@@ -47,9 +47,11 @@ export async function main(args: string[]): Promise<number> {
   let failure: { message: string; code: number } | null = null;
   let code = 0;
   try {
+    // A usage error must stop yargs before any handler runs: returning from fail() lets it go on.
     let y = base(args).fail((msg, err) => {
       if (err) throw err;
       failure = { message: msg, code: 2 };
+      throw usageError(String(msg).replace(/\s*\n\s*/g, ' '));
     });
     if (name && COMMANDS[name]) {
       const { command } = await COMMANDS[name].load();

@@ -1,4 +1,7 @@
 import { describe, expect, it } from 'vitest';
+import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { runCli } from '../helpers/runCli.js';
 
 // Exit codes: DESIGN.md §6 (0 success, 1 failure of the work, 2 usage error).
@@ -14,5 +17,26 @@ describe('datlas entry point', () => {
     expect(r.code).toBe(2);
     expect(r.stderr.trim().split('\n')).toHaveLength(1);
     expect(r.stderr).not.toMatch(/\bat .*\.ts:\d+/);
+  });
+
+  // yargs calls its fail handler and, when that returns, runs the command anyway: a usage error
+  // must exit 2 before any work (here: no store is looked for, no sweep is written).
+  it('an unknown option or bad choice exits 2 before the command does any work', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'datlas-usage-'));
+    try {
+      const map = runCli(['map', '--name', 'x', '--store', join(dir, 'none')]);
+      expect(map.code).toBe(2);
+      expect(map.stderr).toContain('Unknown argument: name');
+      expect(map.stderr).not.toContain('no store at');
+      const kind = runCli(['ridge', '--kind', 'bogus', '--store', join(dir, 'none')]);
+      expect(kind.code).toBe(2);
+      expect(kind.stderr.trim().split('\n')).toHaveLength(1);
+      expect(kind.stderr).toContain('Invalid values');
+      const sim = runCli(['simulate', '--out', join(dir, 'sweep'), '--no-such-flag']);
+      expect(sim.code).toBe(2);
+      expect(existsSync(join(dir, 'sweep'))).toBe(false);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });
