@@ -44,7 +44,7 @@ export function reportJson(model: ReportModel) {
       alpha: h.alpha ?? null,
       segments: h.segments.map((s) => ({ fixed: s.fixed, onset: s.onset, peak: s.peak, recovery: s.recovery, rise: s.rise, p: s.p, test: s.test })),
     })),
-    coverage: model.coverage,
+    coverage: model.coverage ? { counts: model.coverage.counts, gaps: model.coverage.gaps } : null,
     plan: model.plan,
   };
 }
