@@ -98,10 +98,13 @@ export const PAGE_SCRIPT = String.raw`
     var vg = vegaLite.compile(variant.spec).spec;
     var view = new vega.View(vega.parse(vg), { renderer: 'canvas', container: host, hover: true, logLevel: vega.Warn });
     views[si] = view;
-    view.addEventListener('mousemove', function (event, item) {
+    var onCell = function (event, item) {
       var d = item && item.datum;
       if (d && typeof d.cell === 'number' && variant.cells[d.cell]) showCell(si, variant.cells[d.cell]);
-    });
+    };
+    // Hover with a mouse; a tap on touch screens arrives as a click.
+    view.addEventListener('mousemove', onCell);
+    view.addEventListener('click', onCell);
     ridgeTable(si, variant);
     var panel = document.getElementById('readout-' + si);
     clear(panel);
