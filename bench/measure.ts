@@ -1,0 +1,64 @@
+/**
+ * Runs one command as a child process and measures it: wall time (from here), peak resident set
+ * size and CPU seconds (from GNU time when installed, else from an in-process wrapper that
+ * reports process.resourceUsage() of the CLI at exit).
+ */
+import { spawn } from 'node:child_process';
+import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+
+export interface Sample {
+  /** Seconds, measured around the child by this process. */
+  wall: number;
+  /** Peak resident set size of the child, bytes. */
+  rss: number;
+  /** CPU seconds in user and kernel mode (user + sys > wall means more than one core worked). */
+  user: number;
+  sys: number;
+  code: number;
+  stderr: string;
+}
+
+const GNU_TIME = '/usr/bin/time';
+export const haveGnuTime = existsSync(GNU_TIME);
+const WRAPPER = new URL('./rusageWrapper.mjs', import.meta.url).pathname;
+
+/**
+ * Spawns `node [nodeArgs] bin/datlas args` in cwd and waits for it. Under GNU time the child's
+ * peak RSS covers its worker threads (one process); the wrapper reports the same figure.
+ */
+export async function measure(opts: { cwd: string; args: string[]; nodeArgs?: string[]; env?: NodeJS.ProcessEnv }): Promise<Sample> {
+  const { cwd, args, nodeArgs = [], env = process.env } = opts;
+  const tmp = mkdtempSync(join(tmpdir(), 'datlas-bench-'));
+  const out = join(tmp, 'usage');
+  const cmd = haveGnuTime
+    ? [GNU_TIME, '-f', '%e %M %U %S', '-o', out, process.execPath, ...nodeArgs, 'bin/datlas', ...args]
+    : [process.execPath, ...nodeArgs, WRAPPER, out, ...args];
+  const t0 = performance.now();
+  const { code, stderr } = await new Promise<{ code: number; stderr: string }>((resolve, reject) => {
+    const child = spawn(cmd[0], cmd.slice(1), { cwd, env, stdio: ['ignore', 'ignore', 'pipe'] });
+    let err = '';
+    child.stderr.on('data', (d: Buffer) => {
+      if (err.length < 20000) err += d.toString();
+    });
+    child.on('error', reject);
+    child.on('close', (c) => resolve({ code: c ?? 1, stderr: err }));
+  });
+  const wall = (performance.now() - t0) / 1000;
+  let rss = NaN;
+  let user = NaN;
+  let sys = NaN;
+  try {
+    const text = readFileSync(out, 'utf8').trim().split('\n').pop() ?? '';
+    const f = text.split(/\s+/).map(Number);
+    // GNU time: %e %M(KB) %U %S; wrapper: wall rss(bytes) user sys.
+    rss = haveGnuTime ? f[1] * 1024 : f[1];
+    user = f[2];
+    sys = f[3];
+  } catch {
+    // No usage file: the child died before reporting; the figures stay NaN.
+  }
+  rmSync(tmp, { recursive: true, force: true });
+  return { wall, rss, user, sys, code, stderr };
+}

@@ -1,0 +1,227 @@
+/**
+ * npm run bench: speed of the real CLI on a generated sweep (a measurement, not a test).
+ * Each step runs `node bin/datlas ...` from a fresh dist/ build as a child process; quick steps
+ * run 3 times and report the median wall time, with peak RSS and CPU time.
+ *
+ *   npm run bench                        the 1M-row steps, simulate --preset demo, --help
+ *   npm run bench -- --big               also ingest the 10M-row sweep (BENCH_BIG=1 works too)
+ *   npm run bench -- --only ingest,map   some steps (help, ingest, reingest, map, simulate, ingest10m)
+ *   npm run bench -- --profile           also profile (--cpu-prof) each step that misses its target
+ *   npm run bench -- --label after       tag the results (bench/out/results-after.json as well)
+ *   npm run bench -- --reps 5
+ *
+ * Data goes to bench/work/ (generated, not committed), results to bench/out/results.json.
+ */
+import { execFileSync } from 'node:child_process';
+import { cpus, freemem, loadavg, totalmem, platform, release } from 'node:os';
+import { existsSync, mkdirSync, rmSync, writeFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { makeSweep, SWEEP_10M, SWEEP_1M } from './makeSweep.js';
+import { haveGnuTime, measure } from './measure.js';
+import type { Sample } from './measure.js';
+import { formatSummary, summarizeProfiles } from './profileSummary.js';
+import { builtAt, newestSource } from '../scripts/freshness.mjs';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '..');
+const work = join(root, 'bench/work');
+const outDir = join(root, 'bench/out');
+const argv = process.argv.slice(2);
+const has = (f: string) => argv.includes(f);
+const value = (f: string) => {
+  const i = argv.indexOf(f);
+  return i >= 0 ? argv[i + 1] : undefined;
+};
+const big = has('--big') || process.env.BENCH_BIG === '1';
+const profile = has('--profile');
+const reps = Number(value('--reps') ?? 3);
+const label = value('--label') ?? '';
+const only = value('--only')?.split(',');
+
+interface Step {
+  name: string;
+  what: string;
+  args: string[];
+  /** Rows the step handles (for rows/s). */
+  rows: number;
+  reps: number;
+  target: { wall?: number; rss?: number };
+  /** Run before every repetition (not timed). */
+  before?: () => void;
+}
+
+interface StepResult {
+  name: string;
+  what: string;
+  command: string;
+  reps: number;
+  wall: number;
+  walls: number[];
+  rowsPerSecond: number | null;
+  rss: number;
+  cpu: number;
+  load: number;
+  target: Step['target'];
+  met: boolean;
+  failed: string | null;
+  profile?: ReturnType<typeof summarizeProfiles>;
+}
+
+const GiB = 1024 ** 3;
+const median = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b);
+  return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
+};
+const load1 = () => loadavg()[0];
+
+/** Rebuilds dist/ when a source is newer (others edit src/ while the bench runs). */
+function ensureBuilt(): void {
+  if (builtAt(root) >= newestSource(root)) return;
+  execFileSync(process.execPath, [join(root, 'scripts/build.mjs')], { cwd: root, stdio: 'inherit' });
+}
+
+function fmtBytes(b: number): string {
+  return Number.isFinite(b) ? (b >= GiB ? `${(b / GiB).toFixed(2)} GiB` : `${(b / 1024 ** 2).toFixed(0)} MiB`) : 'n/a';
+}
+
+async function runStep(step: Step): Promise<StepResult> {
+  const samples: Sample[] = [];
+  const loads: number[] = [];
+  let failed: string | null = null;
+  for (let r = 0; r < step.reps; r++) {
+    step.before?.();
+    ensureBuilt();
+    loads.push(load1());
+    const s = await measure({ cwd: root, args: step.args });
+    if (s.code !== 0) {
+      failed = `exit ${s.code}: ${s.stderr.trim().split('\n').slice(-3).join(' | ')}`;
+      break;
+    }
+    samples.push(s);
+    process.stderr.write(`  ${step.name} #${r + 1}: ${s.wall.toFixed(3)} s, ${fmtBytes(s.rss)}, cpu ${(s.user + s.sys).toFixed(2)} s, load ${loads[r].toFixed(2)}\n`);
+  }
+  const walls = samples.map((s) => s.wall);
+  const wall = walls.length ? median(walls) : NaN;
+  const rss = samples.length ? Math.max(...samples.map((s) => s.rss)) : NaN;
+  const cpu = samples.length ? median(samples.map((s) => s.user + s.sys)) : NaN;
+  const met = !failed && (step.target.wall === undefined || wall <= step.target.wall) && (step.target.rss === undefined || rss <= step.target.rss);
+  const result: StepResult = {
+    name: step.name, what: step.what, command: `datlas ${step.args.join(' ')}`, reps: samples.length, wall, walls,
+    rowsPerSecond: step.rows > 0 && wall > 0 ? step.rows / wall : null, rss, cpu, load: loads.length ? median(loads) : load1(),
+    target: step.target, met, failed,
+  };
+  if (profile && !met && !failed) {
+    const dir = join(outDir, 'profiles', step.name);
+    rmSync(dir, { recursive: true, force: true });
+    mkdirSync(dir, { recursive: true });
+    step.before?.();
+    ensureBuilt();
+    await measure({ cwd: root, args: step.args, nodeArgs: ['--cpu-prof', '--cpu-prof-dir', dir] });
+    result.profile = summarizeProfiles(dir, 15);
+    process.stderr.write(`${step.name} profile:\n${formatSummary(result.profile)}\n`);
+  }
+  return result;
+}
+
+async function main(): Promise<void> {
+  const loadStart = loadavg();
+  const machine = {
+    cpu: cpus()[0]?.model ?? 'unknown', cores: cpus().length, memory: fmtBytes(totalmem()), free: fmtBytes(freemem()),
+    os: `${platform()} ${release()}`, node: process.version, measuredWith: haveGnuTime ? 'GNU time (%e %M %U %S)' : 'process.resourceUsage() wrapper',
+  };
+  let commit = '';
+  try {
+    commit = execFileSync('git', ['rev-parse', '--short', 'HEAD'], { cwd: root, encoding: 'utf8' }).trim();
+  } catch {
+    // Not a git checkout: the results say so by an empty commit.
+  }
+  console.log(`descent-atlas bench  ${new Date().toISOString()}  ${machine.cores} × ${machine.cpu}, ${machine.memory}, node ${machine.node}`);
+  console.log(`load average at start: ${loadStart.map((l) => l.toFixed(2)).join(' ')}`);
+  if (loadStart[0] > 1.5) console.log(`warning: load average ${loadStart[0].toFixed(2)} > 1.5 — other work shares the cores; wall times are inflated`);
+
+  mkdirSync(work, { recursive: true });
+  mkdirSync(outDir, { recursive: true });
+  execFileSync(process.execPath, [join(root, 'scripts/build.mjs')], { cwd: root, stdio: 'inherit' });
+
+  const want = (name: string) => !only || only.includes(name);
+  const needs1m = ['ingest', 'reingest', 'map'].some(want);
+  const sweep1m = join(work, 'sweep-1m');
+  if (needs1m) {
+    const t0 = performance.now();
+    const s = makeSweep(sweep1m, SWEEP_1M, (l) => process.stderr.write(`${l}\n`));
+    console.log(`workload: ${s.files} run files (half csv, half jsonl), ${s.rows.toLocaleString('en')} rows, ${(s.bytes / 1e6).toFixed(1)} MB (${((performance.now() - t0) / 1000).toFixed(1)} s to check/generate)`);
+  }
+  const store = join(work, 'store-1m');
+  const fresh = (dir: string) => () => rmSync(dir, { recursive: true, force: true });
+  const steps: Step[] = [];
+  if (want('help')) steps.push({ name: 'help', what: 'datlas --help', args: ['--help'], rows: 0, reps, target: { wall: 0.5 } });
+  if (want('ingest')) {
+    steps.push({ name: 'ingest', what: 'ingest 1M rows into a new store', args: ['ingest', sweep1m, '--store', store, '--quiet'], rows: SWEEP_1M.widths * SWEEP_1M.trainSizes * SWEEP_1M.seeds * SWEEP_1M.epochs, reps, target: { wall: 2.0, rss: GiB }, before: fresh(store) });
+  }
+  if (want('reingest')) {
+    steps.push({
+      name: 'reingest', what: 're-ingest, nothing changed', args: ['ingest', sweep1m, '--store', store, '--quiet'], rows: 0, reps, target: { wall: 0.3 },
+      before: () => {
+        if (!existsSync(join(store, 'manifest.json'))) execFileSync(process.execPath, ['bin/datlas', 'ingest', sweep1m, '--store', store, '--quiet'], { cwd: root });
+      },
+    });
+  }
+  if (want('map')) {
+    const mapOut = join(work, 'map-out');
+    steps.push({
+      name: 'map', what: 'map --kind model --method linear + ridge (1,000 bootstrap rounds) + PNG',
+      args: ['map', '--kind', 'model', '--method', 'linear', '--format', 'json,png', '--store', store, '--out', mapOut, '--quiet'],
+      rows: 1_000_000, reps, target: { wall: 1.5 },
+      before: () => {
+        fresh(mapOut)();
+        if (!existsSync(join(store, 'manifest.json'))) execFileSync(process.execPath, ['bin/datlas', 'ingest', sweep1m, '--store', store, '--quiet'], { cwd: root });
+      },
+    });
+  }
+  if (want('simulate')) {
+    const simOut = join(work, 'sim-demo');
+    steps.push({ name: 'simulate', what: 'simulate --preset demo', args: ['simulate', '--preset', 'demo', '--out', simOut, '--quiet'], rows: 0, reps: 1, target: { wall: 30 }, before: fresh(simOut) });
+  }
+  if (big || only?.includes('ingest10m')) {
+    const sweep10m = join(work, 'sweep-10m');
+    const t0 = performance.now();
+    const s = makeSweep(sweep10m, SWEEP_10M, (l) => process.stderr.write(`${l}\n`));
+    console.log(`big workload: ${s.files} run files, ${s.rows.toLocaleString('en')} rows, ${(s.bytes / 1e6).toFixed(0)} MB (${((performance.now() - t0) / 1000).toFixed(1)} s to check/generate)`);
+    const store10 = join(work, 'store-10m');
+    steps.push({ name: 'ingest10m', what: 'ingest 10M rows into a new store', args: ['ingest', sweep10m, '--store', store10, '--quiet'], rows: s.rows, reps: 1, target: { rss: 4 * GiB }, before: fresh(store10) });
+  }
+
+  const results: StepResult[] = [];
+  for (const step of steps) {
+    process.stderr.write(`${step.name}: ${step.what}\n`);
+    results.push(await runStep(step));
+  }
+  const loadEnd = loadavg();
+
+  const head = ['step', 'median wall', 'target', 'rows/s', 'peak RSS', 'cpu s', 'load', 'ok'];
+  const rows = results.map((r) => [
+    r.what,
+    Number.isFinite(r.wall) ? `${r.wall.toFixed(3)} s` + (r.reps > 1 ? ` (${r.reps}×)` : '') : 'failed',
+    [r.target.wall !== undefined ? `≤ ${r.target.wall} s` : 'completes', r.target.rss !== undefined ? `≤ ${fmtBytes(r.target.rss)}` : ''].filter(Boolean).join(', '),
+    r.rowsPerSecond ? `${(r.rowsPerSecond / 1e6).toFixed(2)}M` : '',
+    fmtBytes(r.rss),
+    Number.isFinite(r.cpu) ? r.cpu.toFixed(2) : '',
+    r.load.toFixed(2),
+    r.failed ? `FAILED ${r.failed}` : r.met ? 'yes' : 'MISSED',
+  ]);
+  const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
+  const line = (cells: string[]) => cells.map((c, i) => c.padEnd(widths[i])).join('  ');
+  console.log('');
+  console.log(line(head));
+  console.log(widths.map((w) => '-'.repeat(w)).join('  '));
+  for (const r of rows) console.log(line(r));
+  console.log(`\nload average at end: ${loadEnd.map((l) => l.toFixed(2)).join(' ')}${loadEnd[0] > 1.5 ? ' (machine busy: figures noisy)' : ''}`);
+  console.log('cpu s = user + system seconds of the child (above the wall time: more than one core worked)');
+
+  const json = { date: new Date().toISOString(), label, commit, machine, loadStart, loadEnd, steps: results };
+  writeFileSync(join(outDir, 'results.json'), `${JSON.stringify(json, null, 2)}\n`);
+  if (label) writeFileSync(join(outDir, `results-${label}.json`), `${JSON.stringify(json, null, 2)}\n`);
+  console.log(`wrote ${join('bench/out', 'results.json')}${label ? ` and bench/out/results-${label}.json` : ''}`);
+}
+
+await main();
