@@ -135,12 +135,14 @@ function mapSection(
     if (!(key in first.fixed)) continue;
     const all = columnValues(table, key);
     if (all.length < 2) continue;
-    const k = key === 'epochs' ? Math.min(4, o.perAxis) : o.perAxis;
+    // Big maps make a big page (every variant's cells travel inside it): offer fewer values then.
+    const per = first.cells.length > 2500 ? Math.min(3, o.perAxis) : o.perAxis;
+    const k = key === 'epochs' ? Math.min(4, per) : per;
     axes.push({ key, values: spread(all as (number | string)[], k, first.fixed[key]) });
   }
   const product = axes.reduce((a, x) => a * x.values.length, 1);
   const ats: Record<string, number | string>[] = [];
-  if (product <= MAX_PRODUCT) {
+  if (product <= (first.cells.length > 2500 ? MAX_PRODUCT / 2 : MAX_PRODUCT)) {
     // Every combination: small enough, and it lets findings compare train sizes at each noise level.
     let combos: Record<string, number | string>[] = [{ ...first.fixed }];
     for (const { key, values } of axes) combos = combos.flatMap((c) => values.map((v) => ({ ...c, [key]: v })));
