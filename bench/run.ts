@@ -21,7 +21,9 @@ import { makeSweep, SWEEP_10M, SWEEP_1M } from './makeSweep.js';
 import { haveGnuTime, measure } from './measure.js';
 import type { Sample } from './measure.js';
 import { formatSummary, summarizeProfiles } from './profileSummary.js';
-import { builtAt, newestSource } from '../scripts/freshness.mjs';
+// scripts/ is plain JavaScript without declarations: type the two functions used here.
+const freshness = '../scripts/freshness.mjs';
+const { builtAt, newestSource } = (await import(freshness)) as { builtAt(root: string): number; newestSource(root: string): number };
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const work = join(root, 'bench/work');
