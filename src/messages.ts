@@ -73,10 +73,11 @@ export const storeText = {
   badManifest: (dir: string, why: string) => `store ${dir}: manifest.json is not readable: ${why}`,
   badRows: (dir: string, why: string) => `store ${dir}: rows.arrow is not readable: ${why}`,
   inconsistent: (dir: string, want: number, got: number) =>
-    `store ${dir}: manifest says ${want} rows but rows.arrow holds ${got} (an interrupted write?); run datlas ingest again`,
+    `store ${dir}: manifest says ${want} rows but rows.arrow holds ${got} (files changed by hand, or by an older datlas killed mid-write); move the store aside and ingest the logs again`,
   locked: (dir: string, pid: number, seconds: number) =>
     `store ${dir} is locked by another ingest${pid ? ` (pid ${pid})` : ''}; waited ${seconds} s. Try again when it finishes, or raise --wait`,
   cannotLock: (dir: string, why: string) => `cannot lock store ${dir}: ${why}`,
+  cannotRecover: (dir: string, why: string) => `store ${dir}: cannot finish the write an interrupted ingest left: ${why}`,
 };
 
 // ── simulate ─────────────────────────────────────────────────────────────────

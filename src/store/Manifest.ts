@@ -41,6 +41,8 @@ export interface Manifest {
   updated: string;
   /** Rows in rows.arrow (checked on read). */
   rows: number;
+  /** Id of the write that made this store; rows.arrow carries the same id in its schema metadata. */
+  commit?: string;
   /** Extra numeric columns carried beside the canonical ones. */
   extra: string[];
   /** Keyed by absolute path (or `-:<sha256>` for stdin). */

@@ -11,7 +11,7 @@ export const STORE_COLUMNS = ['run', 'seed', 'width', 'epochs', 'train_size', 'l
  * DuckDB). Numbers are float64 (NaN for missing), text columns are dictionary-encoded utf8,
  * source_line is int32.
  */
-export function rowsToArrow(t: RowTable, sink?: { write(bytes: Uint8Array): void }): Uint8Array | null {
+export function rowsToArrow(t: RowTable, sink?: { write(bytes: Uint8Array): void }, metadata?: Record<string, string>): Uint8Array | null {
   const data: [string, unknown[] | Float64Array | Int32Array][] = [];
   const types: Record<string, ReturnType<typeof dictionary>> = {};
   for (const c of STORE_COLUMNS) {
@@ -38,6 +38,8 @@ export function rowsToArrow(t: RowTable, sink?: { write(bytes: Uint8Array): void
   }
   // flechette's typings want plain arrays or typed arrays; ours are exactly that.
   const table = tableFromArrays(data as [string, unknown[]][], { types });
+  // Schema metadata (the store's commit id) is written into the file's schema and footer.
+  if (metadata) table.schema.metadata = new Map(Object.entries(metadata));
   if (!sink) return tableToIPC(table, { format: 'file' })!;
   // Stream the encoded batches to the sink (a file) instead of assembling one big buffer.
   const s = { write: (b: Uint8Array) => sink.write(b), pad: (n: number) => sink.write(new Uint8Array(n)), finish: () => null };
@@ -46,9 +48,22 @@ export function rowsToArrow(t: RowTable, sink?: { write(bytes: Uint8Array): void
   return null;
 }
 
+/** Schema metadata key of the commit id shared by rows.arrow and manifest.json. */
+export const COMMIT_KEY = 'datlas.commit';
+
 /** Decodes rows.arrow back into a RowTable (columns beyond the canonical ones become extras). */
 export function rowsFromArrow(bytes: Uint8Array): RowTable {
+  return readRowsArrow(bytes).table;
+}
+
+/** Decodes rows.arrow with the commit id it carries (null for files without one). */
+export function readRowsArrow(bytes: Uint8Array): { table: RowTable; commit: string | null } {
   const table = tableFromIPC(bytes, { useBigInt: false });
+  const commit = table.schema.metadata?.get(COMMIT_KEY) ?? null;
+  return { table: rowsOf(table), commit };
+}
+
+function rowsOf(table: ReturnType<typeof tableFromIPC>): RowTable {
   const names = table.schema.fields.map((f) => f.name);
   const canonical = new Set<string>(STORE_COLUMNS);
   const extraNames = names.filter((n) => !canonical.has(n));

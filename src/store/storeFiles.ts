@@ -7,5 +7,7 @@ export function storeFiles(dir: string) {
     manifest: join(dir, 'manifest.json'),
     rejected: join(dir, 'rejected.csv'),
     lock: join(dir, 'lock'),
+    /** Present only while a write is being committed (or after a writer was killed mid-commit). */
+    commit: join(dir, 'commit.json'),
   };
 }

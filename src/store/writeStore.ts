@@ -1,22 +1,39 @@
-import { mkdirSync } from 'node:fs';
+import { closeSync, fsyncSync, mkdirSync, openSync } from 'node:fs';
+import { randomBytes } from 'node:crypto';
 import type { RowTable } from './RowTable.js';
 import type { Manifest } from './Manifest.js';
 import type { Reject } from '../ingest/normalizeRaw.js';
-import { atomicWrite, writeAll } from './atomicWrite.js';
+import { writeAll } from './atomicWrite.js';
 import { formatRejected } from './rejectedCsv.js';
-import { rowsToArrow } from './rowsArrow.js';
+import { COMMIT_KEY, rowsToArrow } from './rowsArrow.js';
 import { storeFiles } from './storeFiles.js';
+import { commitFiles, tmpName } from './storeCommit.js';
+
+function writeFile(path: string, data: Uint8Array | string | ((fd: number) => void)): void {
+  const fd = openSync(path, 'w');
+  try {
+    if (typeof data === 'function') data(fd);
+    else writeAll(fd, typeof data === 'string' ? Buffer.from(data, 'utf8') : data);
+    fsyncSync(fd);
+  } finally {
+    closeSync(fd);
+  }
+}
 
 /**
- * Writes a store (call under its lock). Each file is written atomically; the manifest goes last,
- * so a reader that finds a manifest finds the rows it describes (their count is checked on read).
+ * Writes a store (call under its lock). The three files are written beside their targets, then
+ * committed together (storeCommit.ts): a process killed at any point leaves the old store or the
+ * new one, never a mix. rows.arrow and manifest.json carry the same commit id, so a reader can
+ * tell that the two belong together.
  */
 export function writeStore(opts: { dir: string; table: RowTable; manifest: Manifest; rejected: readonly Reject[] }): void {
   const { dir, table, manifest, rejected } = opts;
   mkdirSync(dir, { recursive: true });
   const f = storeFiles(dir);
-  atomicWrite(f.rejected, formatRejected(rejected));
-  atomicWrite(f.rows, (fd) => {
+  const commit = randomBytes(8).toString('hex');
+  const tmp = { rejected: tmpName(f.rejected, commit), rows: tmpName(f.rows, commit), manifest: tmpName(f.manifest, commit) };
+  writeFile(tmp.rejected, formatRejected(rejected));
+  writeFile(tmp.rows, (fd) => {
     // Small chunks are gathered so the file gets few large writes.
     let parts: Uint8Array[] = [];
     let size = 0;
@@ -26,14 +43,23 @@ export function writeStore(opts: { dir: string; table: RowTable; manifest: Manif
       parts = [];
       size = 0;
     };
-    rowsToArrow(table, {
-      write(b) {
-        parts.push(b);
-        size += b.byteLength;
-        if (size >= 1 << 20) flush();
+    rowsToArrow(
+      table,
+      {
+        write(b) {
+          parts.push(b);
+          size += b.byteLength;
+          if (size >= 1 << 20) flush();
+        },
       },
-    });
+      { [COMMIT_KEY]: commit },
+    );
     flush();
   });
-  atomicWrite(f.manifest, `${JSON.stringify({ ...manifest, rows: table.length, extra: Object.keys(table.extra) }, null, 2)}\n`);
+  writeFile(tmp.manifest, `${JSON.stringify({ ...manifest, commit, rows: table.length, extra: Object.keys(table.extra) }, null, 2)}\n`);
+  commitFiles(dir, commit, [
+    { tmp: tmp.rejected, target: f.rejected },
+    { tmp: tmp.rows, target: f.rows },
+    { tmp: tmp.manifest, target: f.manifest },
+  ]);
 }
