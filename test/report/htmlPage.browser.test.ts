@@ -27,6 +27,21 @@ interface BrowserElement {
 declare const document: { querySelector(selector: string): BrowserElement | null };
 declare const window: unknown;
 
+/** One browser for the whole file (starting Chromium is the slow part); each block opens its own page. */
+let shared: Promise<Browser> | null = null;
+function sharedBrowser(): Promise<Browser> {
+  shared ??= import('playwright-core').then(({ chromium }) =>
+    chromium.launch({
+      executablePath: CHROMIUM,
+      args: ['--headless', '--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+    }),
+  );
+  return shared;
+}
+afterAll(async () => {
+  if (shared) await (await shared).close();
+});
+
 describe.skipIf(!hasChromium && !process.env.CI)('report page in headless Chromium, network cut', () => {
   let browser: Browser;
   let page: Page;
@@ -38,11 +53,7 @@ describe.skipIf(!hasChromium && !process.env.CI)('report page in headless Chromi
     dir = mkdtempSync(join(tmpdir(), 'datlas-page-'));
     const file = join(dir, 'report.html');
     writeFileSync(file, htmlPage({ model: reportModelFixture({ runName: EVIL, title: `Sweep ${EVIL}` }), runtime: readRuntime() }));
-    const { chromium } = await import('playwright-core');
-    browser = await chromium.launch({
-      executablePath: CHROMIUM,
-      args: ['--headless', '--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-    });
+    browser = await sharedBrowser();
     page = await browser.newPage({ viewport: { width: 1200, height: 1000 } });
     page.on('console', (m) => {
       if (m.type() === 'error' || m.type() === 'warning') problems.push(`${m.type()}: ${m.text()}`);
@@ -64,7 +75,7 @@ describe.skipIf(!hasChromium && !process.env.CI)('report page in headless Chromi
   }, 60_000);
 
   afterAll(async () => {
-    await browser?.close();
+    await page?.close();
     if (dir) rmSync(dir, { recursive: true, force: true });
   });
 
@@ -157,11 +168,7 @@ describe.skipIf(!hasChromium && !process.env.CI)('a full report page (three maps
     dir = mkdtempSync(join(tmpdir(), 'datlas-fullpage-'));
     const model = buildReport({ table: syntheticTable(syntheticRows({ runName: EVIL })), title: 'Synthetic', boot: 100, now: '2026-12-01T00:00:00.000Z' });
     const files = await writeReport({ model, outDir: dir, scale: 1 });
-    const { chromium } = await import('playwright-core');
-    browser = await chromium.launch({
-      executablePath: CHROMIUM,
-      args: ['--headless', '--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-    });
+    browser = await sharedBrowser();
     page = await browser.newPage({ viewport: { width: 1200, height: 1000 } });
     page.on('console', (m) => {
       if (m.type() === 'error' || m.type() === 'warning') problems.push(`${m.type()}: ${m.text()}`);
@@ -173,7 +180,7 @@ describe.skipIf(!hasChromium && !process.env.CI)('a full report page (three maps
   }, 120_000);
 
   afterAll(async () => {
-    await browser?.close();
+    await page?.close();
     if (dir) rmSync(dir, { recursive: true, force: true });
   });
 
