@@ -305,6 +305,9 @@ export const report = {
   modelPeakMoves: (y: string, firstY: string, x: string, fromX: string, toX: string, lastY: string, noneBefore: boolean) =>
     `The peak ${noneBefore ? `appears at ${y} ${firstY} (no significant peak earlier) and ` : ''}` +
     (fromX === toX ? `stays at ${x} ${toX} through ${y} ${lastY}.` : `moves from ${x} ${fromX} at ${y} ${firstY} to ${x} ${toX} at ${y} ${lastY}.`),
+  thresholdMoves: (y: string, fromY: string, toY: string, x: string, fromX: string, toX: string, n: string | null, shrinks: boolean) =>
+    `The interpolation threshold moves from ${x} ${fromX} at ${y} ${fromY} to ${x} ${toX} at ${y} ${toY}` +
+    `${shrinks ? ': the longer the training, the smaller the model that fits the training set' : ''}${n ? ` (train size ${n})` : ''}.`,
   modelNoPeak: (fixed: string) => `Model-wise: no significant double-descent peak at any epoch${fixed ? ` (${fixed})` : ''}.`,
   peakBySize: (parts: string, tracks: boolean) =>
     `Across train sizes the model-wise peak ${tracks ? 'sits at width ≈ n' : 'moves with n'} (each at its latest epoch with a peak): ${parts}.`,

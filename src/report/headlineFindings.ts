@@ -56,6 +56,14 @@ function modelFindings(sec: MapSection): string[] {
       out.push(msg.modelPeakMoves(sec.y, fmt(first.y), sec.x, fmt(first.peak!.x), fmt(p.x), fmt(last.y), noneBefore));
     }
   }
+  // The interpolation threshold over training time (effective model complexity grows with epochs).
+  const withThr = rows.filter((r) => r.threshold !== null).sort((a, b) => a.y - b.y);
+  if (withThr.length >= 2 && withThr[0].threshold !== withThr[withThr.length - 1].threshold) {
+    const a = withThr[0];
+    const b = withThr[withThr.length - 1];
+    const n = main.map.fixed.train_size;
+    out.push(msg.thresholdMoves(sec.y, fmt(a.y), fmt(b.y), sec.x, fmt(a.threshold), fmt(b.threshold), typeof n === 'number' ? fmt(n) : null, b.threshold! < a.threshold!));
+  }
   // Train size: where the peak sits relative to n at every train size (the same noise and condition).
   const sameBut = (key: string) => {
     const rest = Object.entries(main.map.fixed).filter(([k]) => k !== key);
