@@ -67,18 +67,54 @@ function rowsOf(table: ReturnType<typeof tableFromIPC>): RowTable {
   const names = table.schema.fields.map((f) => f.name);
   const canonical = new Set<string>(STORE_COLUMNS);
   const extraNames = names.filter((n) => !canonical.has(n));
-  const out = emptyTable(table.numRows, extraNames) as { -readonly [K in keyof RowTable]: RowTable[K] };
+  const length = table.numRows;
+  // Defaults only for columns the file lacks (allocating all of them costs ~100 MB per million rows).
+  let defaults: RowTable | null = null;
+  const dflt = () => (defaults ??= emptyTable(length, extraNames));
   const num = (name: string): Float64Array => {
     const v = table.getChild(name).toArray() as ArrayLike<number | null>;
     return v instanceof Float64Array ? v : Float64Array.from(v, (x) => (x === null ? NaN : Number(x)));
   };
-  for (const c of NUMERIC_COLUMNS) if (names.includes(c)) (out as Record<string, unknown>)[c] = num(c);
-  for (const c of STRING_COLUMNS) if (names.includes(c)) (out as Record<string, unknown>)[c] = Array.from(table.getChild(c).toArray() as ArrayLike<string | null>, (s) => s ?? '');
-  if (names.includes('status')) out.status = Array.from(table.getChild('status').toArray() as ArrayLike<string | null>, (s) => (s === 'diverged' ? 'diverged' : 'ok') as RunStatus);
+  const out = { length, extra: {} as Record<string, Float64Array> } as { -readonly [K in keyof RowTable]: RowTable[K] };
+  for (const c of NUMERIC_COLUMNS) (out as Record<string, unknown>)[c] = names.includes(c) ? num(c) : dflt()[c];
+  for (const c of STRING_COLUMNS) (out as Record<string, unknown>)[c] = names.includes(c) ? textColumn(table.getChild(c)) : dflt()[c];
+  if (names.includes('status')) out.status = textColumn(table.getChild('status')).map((s) => (s === 'diverged' ? 'diverged' : 'ok') as RunStatus);
+  else out.status = dflt().status;
   if (names.includes('source_line')) {
     const v = table.getChild('source_line').toArray() as ArrayLike<number>;
     out.source_line = v instanceof Int32Array ? v : Int32Array.from(v);
-  }
+  } else out.source_line = dflt().source_line;
   for (const e of extraNames) out.extra[e] = num(e);
+  return out;
+}
+
+/** Dictionary batch internals flechette exposes: the keys and the decoded dictionary. */
+interface DictBatch {
+  length: number;
+  nullCount: number;
+  values: ArrayLike<number>;
+  cache?: ArrayLike<string | null>;
+  at(i: number): unknown;
+}
+
+/**
+ * A text column as strings ("" for null). Dictionary batches without nulls are decoded straight
+ * from their keys (one array lookup per row instead of a method call per row).
+ */
+function textColumn(col: ReturnType<ReturnType<typeof tableFromIPC>['getChild']>): string[] {
+  const out = new Array<string>(col.length);
+  let k = 0;
+  for (const b of col.data as unknown as DictBatch[]) {
+    const keys = b.values;
+    const dict = b.cache;
+    if (b.nullCount === 0 && dict && keys && keys.length >= b.length) {
+      for (let i = 0; i < b.length; i++) out[k++] = dict[keys[i]] ?? '';
+    } else {
+      for (let i = 0; i < b.length; i++) {
+        const v = b.at(i);
+        out[k++] = v === null || v === undefined ? '' : String(v);
+      }
+    }
+  }
   return out;
 }
