@@ -313,6 +313,7 @@ export const report = {
     `Across train sizes the model-wise peak ${tracks ? 'sits at width ≈ n' : 'moves with n'} (each at its latest epoch with a peak): ${parts}.`,
   noiseEffect: (parts: string, trend: 'grows' | 'shrinks' | 'mixed') =>
     `Label noise: the peak's height over its flanks ${trend === 'grows' ? 'grows with noise' : trend === 'shrinks' ? 'shrinks with noise' : 'varies with noise'} (${parts}).`,
+  conditionEffect: (parts: string) => `By condition, the model-wise peak (latest epoch with one): ${parts}.`,
   samplePeaks: (m: string, parts: string, fixed: string) => `Sample-wise: ${m} peaks at ${parts}${fixed ? ` (${fixed})` : ''}.`,
   sampleNoPeak: (fixed: string) => `Sample-wise: no significant peak along train size${fixed ? ` (${fixed})` : ''}.`,
   hurts: (m: string, fixed: string, onset: string, peak: string, rise: string, p: string, ratio: string | null, recovery: string | null, others: number) =>

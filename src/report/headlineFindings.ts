@@ -100,6 +100,18 @@ function modelFindings(sec: MapSection): string[] {
     const trend = diffs.every((d) => d > 0) ? 'grows' : diffs.every((d) => d < 0) ? 'shrinks' : 'mixed';
     out.push(msg.noiseEffect(parts, trend));
   }
+  // Conditions (optimizer, weight decay, ...): the same map under each, when the sweep has several.
+  const rest = Object.entries(main.map.fixed).filter(([k]) => k !== 'condition');
+  const byCondition = sec.variants.filter((v) => typeof v.map.fixed.condition === 'string' && rest.every(([k, val]) => v.map.fixed[k] === val));
+  if (byCondition.length >= 2) {
+    const parts = byCondition
+      .map((v) => {
+        const r = lastPeak(v);
+        return `${v.map.fixed.condition || '(none)'}: ${r ? `width ${fmt(r.peak!.x)}, height ${fmt(r.peak!.prominence)} at ${sec.y} ${fmt(r.y)}` : 'no significant peak'}`;
+      })
+      .join('; ');
+    out.push(msg.conditionEffect(parts));
+  }
   return out;
 }
 

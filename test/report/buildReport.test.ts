@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { buildReport } from '../../src/report/buildReport.js';
+import { tableFromRows } from '../../src/store/tableFromRows.js';
 import { SYN, syntheticRows, syntheticTable } from './syntheticSweep.js';
 
 describe('buildReport', () => {
@@ -50,5 +51,18 @@ describe('buildReport', () => {
     const r = buildReport({ table: single, title: 'one seed', boot: 50 });
     expect(r.cautions.some((c) => c.startsWith('Some cells have one seed'))).toBe(true);
     for (const sec of r.maps) for (const v of sec.variants) for (const row of v.ridge?.rows ?? []) if (row.peak) expect(row.noiseFrom).toBe('curve');
+  });
+
+  it('offers each condition in the selector and compares the peak across conditions', () => {
+    const rows = syntheticRows({ skip: (_w, n, q) => n === 32 || q === 0.1 });
+    const t = tableFromRows([
+      ...rows.map((r) => ({ ...r, condition: 'optimizer=adam' })),
+      ...rows.map((r) => ({ ...r, run: `sgd-${r.run}`, condition: 'optimizer=sgd', test_error: r.test_error + 0.02 })),
+    ]);
+    const r = buildReport({ table: t, title: 'conditions', boot: 50 });
+    const m = r.maps.find((s) => s.kind === 'model')!;
+    expect(m.selector).toContain('condition');
+    expect(new Set(m.variants.map((v) => v.map.fixed.condition))).toEqual(new Set(['optimizer=adam', 'optimizer=sgd']));
+    expect(r.findings.some((f) => f.startsWith('By condition, the model-wise peak') && f.includes('optimizer=sgd: width'))).toBe(true);
   });
 });
