@@ -1,4 +1,4 @@
-import { mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
+import { mkdirSync, readdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { report as msg } from '../messages.js';
 import { renderSpec } from '../render/renderSpec.js';
@@ -80,6 +80,8 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
   const { model, outDir, scale = 2 } = opts;
   const pngDir = join(outDir, 'png');
   mkdirSync(pngDir, { recursive: true });
+  // Charts of an earlier report in the same folder (a map kind this sweep skips) would mislead: drop ours.
+  for (const f of readdirSync(pngDir)) if (/^(map-|hurts-slices|coverage)[^/]*\.(png|vl\.json)$/.test(f)) rmSync(join(pngDir, f), { force: true });
   const pngs: string[] = [];
 
   const pages: DeckPage[] = [];
