@@ -342,13 +342,11 @@ export const report = {
     `${slices} train-size slices were each tested at α = ${alpha}: about ${alpha} × ${slices} rises could be significant by chance alone.`,
   interpolatedPage:
     'Colours between measured cells are interpolated, not measured: a feature that lies between cells (a narrow peak, an edge) can be missed or invented. Check the measured-cells page and the hatching before quoting a value from here.',
-  picked: (kind: string, names: string) => `${kind}-wise map: ${names} chosen automatically (the value with the most data).`,
   skipAxis: (axis: string, n: number, need: number) => `the sweep has ${n} value${n === 1 ? '' : 's'} of ${axis}; this map needs at least ${need}`,
   skipNoCells: 'no cell of the sweep has data on this map',
   // Files and CLI.
   wrote: (what: string, path: string) => `${what}: ${path}`,
   demoSweepMissing: (dir: string) => `no committed demo sweep at ${dir} (run with --fresh to simulate it)`,
-  chromiumMissing: 'headless Chromium not found at /usr/bin/chromium',
   findingsHead: 'Headline findings:',
   heavyTail: (m: string) =>
     `The ${m} is a mean of squared errors, heavy-tailed near the interpolation threshold: one seed can dominate a cell's mean there, so check the seeds in the read-outs before trusting a peak's height.`,
