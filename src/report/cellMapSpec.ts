@@ -22,6 +22,8 @@ export interface CellRecord {
   sd: number | null;
   train: number | null;
   seeds: number[];
+  /** Each seed's value (null where it diverged or was not logged), in the order of `seeds` and `runs`. */
+  values: (number | null)[];
   runs: string[];
   diverged: number;
 }
@@ -58,6 +60,7 @@ export function cellRecords(map: SweepMap): CellRecord[] {
       sd: finiteOrNull(c.cell.stats.sd),
       train: finiteOrNull(c.cell.train?.mean),
       seeds: c.cell.seeds,
+      values: c.cell.values.map((v) => finiteOrNull(v)),
       runs: c.cell.runs,
       diverged: c.cell.diverged,
     };

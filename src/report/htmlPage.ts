@@ -93,7 +93,7 @@ table{border-collapse:collapse;margin:8px 0 12px;font-size:13px}th,td{padding:3p
 .mapwrap{display:flex;gap:16px;align-items:flex-start;flex-wrap:wrap}.chart{min-width:560px}
 .readout{flex:1;min-width:230px;border:1px solid #d5dae2;border-radius:6px;padding:8px 12px;font-size:13px;background:#fafbfc}
 .readout dl{display:grid;grid-template-columns:auto 1fr;gap:2px 10px;margin:6px 0}.readout dt{color:#5b6472}.readout dd{margin:0;font-variant-numeric:tabular-nums}
-.ro-head{font-weight:bold}.ro-sub{color:#5b6472;margin-top:6px}.ro-runs{margin:2px 0;padding-left:18px;max-height:160px;overflow:auto;word-break:break-all}.ro-hint{color:#5b6472}
+.ro-head{font-weight:bold}.ro-val{color:#5b6472}.ro-sub{color:#5b6472;margin-top:6px}.ro-runs{margin:2px 0;padding-left:18px;max-height:160px;overflow:auto;word-break:break-all}.ro-hint{color:#5b6472}
 .selector{font-size:14px}.meta,.legend{color:#5b6472;font-size:12.5px}
 figure{margin:12px 0}figure img{max-width:100%;border:1px solid #e3e6eb}figcaption{color:#5b6472;font-size:12.5px}
 footer{margin-top:40px;color:#5b6472;font-size:12px}

@@ -51,9 +51,14 @@ export const PAGE_SCRIPT = String.raw`
     if (rec.diverged) item('diverged', String(rec.diverged));
     item('train error', fmt(rec.train));
     panel.appendChild(dl);
-    panel.appendChild(el('div', 'runs behind it', 'ro-sub'));
+    panel.appendChild(el('div', 'runs behind it (seed: value)', 'ro-sub'));
     var ul = el('ul', null, 'ro-runs');
-    rec.runs.slice(0, 12).forEach(function (r) { ul.appendChild(el('li', r)); });
+    rec.runs.slice(0, 12).forEach(function (r, k) {
+      var li = el('li');
+      li.appendChild(el('span', r, 'ro-run'));
+      li.appendChild(el('span', ' · seed ' + rec.seeds[k] + ': ' + (rec.values[k] === null || rec.values[k] === undefined ? 'diverged' : fmt(rec.values[k])), 'ro-val'));
+      ul.appendChild(li);
+    });
     if (rec.runs.length > 12) ul.appendChild(el('li', '… ' + (rec.runs.length - 12) + ' more'));
     panel.appendChild(ul);
   }

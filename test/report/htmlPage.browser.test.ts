@@ -125,8 +125,11 @@ describe.skipIf(!hasChromium && !process.env.CI)('report page in headless Chromi
     const p = await pointOf(64, 1000);
     await page.mouse.move(p.x, p.y);
     await page.waitForFunction(() => document.querySelector('#readout-0 .ro-head')?.textContent === 'width 64 · epochs 1000');
-    const runs = await page.$$eval('#readout-0 .ro-runs li', (lis) => lis.map((li) => li.textContent));
-    expect(runs).toContain(EVIL);
+    const runs = await page.$$eval('#readout-0 .ro-run', (spans) => spans.map((x) => x.textContent));
+    expect(runs).toEqual([EVIL, 'b', 'c']);
+    // Each seed's own value beside its run: the fixture's seeds are 0.70, 0.71, 0.72.
+    const vals = await page.$$eval('#readout-0 .ro-val', (spans) => spans.map((x) => x.textContent));
+    expect(vals).toEqual([' · seed 0: 0.7', ' · seed 1: 0.71', ' · seed 2: 0.72']);
     expect(await page.locator('#readout-0 img').count()).toBe(0);
     expect(await page.locator('img[src="x"]').count()).toBe(0);
     expect(await page.textContent('h1')).toBe(`Sweep ${EVIL}`);
