@@ -27,7 +27,7 @@ export interface SeriesNoise extends SeriesView {
   nullSeries(rng: Rng): SeriesView;
 }
 
-function median(sorted: readonly number[]): number {
+function median(sorted: ArrayLike<number>): number {
   const k = sorted.length;
   return k % 2 ? sorted[k >> 1] : (sorted[k / 2 - 1] + sorted[k / 2]) / 2;
 }
@@ -36,18 +36,21 @@ function median(sorted: readonly number[]): number {
 function seedView(n: ArrayLike<number>, means: Float64Array, sds: ArrayLike<number>): SeriesView & { sd: number; df: number; floor: number } {
   let ss = 0;
   let df = 0;
-  const withSd: number[] = [];
+  // Runs once per simulated null series (rows × rounds): a typed array sorted numerically
+  // (same order as a comparator sort for finite values), no per-call array growth.
+  const withSd = new Float64Array(n.length);
+  let m = 0;
   for (let i = 0; i < n.length; i++) {
     if (n[i] >= 2 && Number.isFinite(sds[i])) {
       ss += (n[i] - 1) * sds[i] ** 2;
       df += n[i] - 1;
-      withSd.push(sds[i]);
+      withSd[m++] = sds[i];
     }
   }
-  withSd.sort((a, b) => a - b);
+  const sorted = withSd.subarray(0, m).sort();
   // The floor for any one cell's sd is the median cell sd, not the pooled one: near the
   // interpolation threshold errors are heavy-tailed, and one wild cell must not swamp the rest.
-  const floor = withSd.length ? median(withSd) : NaN;
+  const floor = m ? median(sorted) : NaN;
   const f2 = floor * floor;
   return {
     means,
@@ -78,7 +81,7 @@ function curveView(u: ArrayLike<number>, means: Float64Array): SeriesView & { sd
  */
 export function seriesNoise(cells: readonly Cell[], u: ArrayLike<number>): SeriesNoise {
   const L = cells.length;
-  const n = cells.map((c) => c.stats.n);
+  const n = Float64Array.from(cells, (c) => c.stats.n);
   const means = Float64Array.from(cells, (c) => c.stats.mean);
   let df = 0;
   for (const k of n) if (k >= 2) df += k - 1;

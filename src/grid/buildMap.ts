@@ -65,10 +65,18 @@ function fitMethod(method: MethodName, p: ScatterPoints): FittedField {
 function chooseEpochs(table: RowTable, rows: number[], max: number, notes: string[]): number[] {
   const perEpoch = new Map<number, Set<string>>();
   const runs = new Set<string>();
+  // A run's rows are contiguous: its id string is built once per block, not once per row.
+  let id = '';
+  let lastRow = -2;
   for (const i of rows) {
     const e = table.epochs[i];
     if (!Number.isFinite(e)) continue;
-    const id = `${table.run[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}\u0000${table.seed[i]}`;
+    const p = lastRow;
+    if (!(p >= 0 && table.run[i] === table.run[p] && table.width[i] === table.width[p] && table.train_size[i] === table.train_size[p] &&
+      Object.is(table.seed[i], table.seed[p]))) {
+      id = `${table.run[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}\u0000${table.seed[i]}`;
+    }
+    lastRow = i;
     runs.add(id);
     let s = perEpoch.get(e);
     if (!s) perEpoch.set(e, (s = new Set()));
@@ -186,7 +194,21 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
       }
     } else {
       const counts = new Map<number | string, number>();
-      for (const i of rows) counts.set(valueOf(i), (counts.get(valueOf(i)) ?? 0) + 1);
+      // Counted per stretch of equal values (rows of a run are contiguous): a map update per stretch, not per row.
+      let cur: number | string | undefined;
+      let run = 0;
+      const col = name === 'condition' ? null : table[name];
+      for (const i of rows) {
+        const v = col ? col[i] : valueOf(i);
+        if (run > 0 && v === cur) {
+          run++;
+          continue;
+        }
+        if (run > 0) counts.set(cur!, (counts.get(cur!) ?? 0) + run);
+        cur = v;
+        run = 1;
+      }
+      if (run > 0) counts.set(cur!, (counts.get(cur!) ?? 0) + run);
       let best: number | string | undefined;
       let bestCount = -1;
       for (const [v, c] of counts) {
@@ -205,7 +227,9 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
     fixed[name] = value;
     if (name !== 'epochs') {
       const v = value;
-      rows = rows.filter((i) => (typeof v === 'number' ? sameNumber(valueOf(i) as number, v) : valueOf(i) === v));
+      // Numeric axes read their column directly (this runs over every row of the store).
+      const col = name === 'condition' ? null : table[name];
+      rows = col && typeof v === 'number' ? rows.filter((i) => sameNumber(col[i], v)) : rows.filter((i) => (typeof v === 'number' ? sameNumber(valueOf(i) as number, v) : valueOf(i) === v));
     }
   }
 
