@@ -328,6 +328,10 @@ export const report = {
   coverage: (missing: number, partial: number, diverged: number, complete: number, total: number) =>
     `Still missing against the spec: ${missing} of ${total} planned runs have no data, ${partial} stopped before the target epochs, ${diverged} diverged (${complete} complete).`,
   coverageComplete: (total: number) => `Every one of the ${total} planned runs in the spec is complete.`,
+  unevenSeeds: (min: number, max: number) =>
+    `Seeds per configuration range from ${min} to ${max}: configurations with fewer seeds have wider intervals and weaker tests.`,
+  divergedRuns: (n: number, runs: number) =>
+    `${n} of ${runs} runs diverged somewhere along their curve; their values are left out of the means (marked on the maps).`,
   mapGaps: (kind: string, n: number, total: number) => `${n} of ${total} grid points of the ${kind}-wise map have no data (crossed on the map).`,
   plan: (runs: number, cost: string, reasons: string) => `Next: the plan proposes ${runs} runs costing ${cost}: ${reasons}.`,
   // Cautions: what a figure could make a reader believe wrongly.

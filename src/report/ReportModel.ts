@@ -23,7 +23,9 @@ export interface ReportFacts {
   storeHash: string | null;
   /** When the report was made (ISO). */
   generatedAt: string;
+  /** Rows marked diverged, and the distinct runs they belong to. */
   diverged: number;
+  divergedRuns?: number;
 }
 
 /** One map of a kind at one choice of the fixed values. */

@@ -64,8 +64,12 @@ function facts(table: RowTable, opts: BuildReportOptions, metric: Metric): Repor
   const runs = new Set(table.run);
   const perConfig = new Map<string, Set<number>>();
   let diverged = 0;
+  const divergedRuns = new Set<string>();
   for (let i = 0; i < table.length; i++) {
-    if (table.status[i] === 'diverged') diverged++;
+    if (table.status[i] === 'diverged') {
+      diverged++;
+      divergedRuns.add(table.run[i]);
+    }
     const k = `${table.condition[i]}\u0000${table.label_noise[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}`;
     let s = perConfig.get(k);
     if (!s) perConfig.set(k, (s = new Set()));
@@ -84,6 +88,7 @@ function facts(table: RowTable, opts: BuildReportOptions, metric: Metric): Repor
     storeHash: opts.storeHash ?? null,
     generatedAt: opts.now ?? new Date().toISOString(),
     diverged,
+    divergedRuns: divergedRuns.size,
   };
 }
 
@@ -279,14 +284,14 @@ export function buildReport(opts: BuildReportOptions): ReportModel {
   const coverage = opts.coverage ? coverageSummary(opts.coverage) : null;
   if (coverage && opts.coverage && opts.spec) coverage.figure = coverageSpec({ coverage: opts.coverage, spec: opts.spec });
   const plan = opts.plan ? planSummary(opts.plan) : null;
-  const findings = headlineFindings({ maps, hurts, coverage, plan });
+  const f = facts(table, opts, metric);
+  const findings = headlineFindings({ maps, hurts, coverage, plan, facts: f });
 
   const cautions: string[] = [];
   for (const sec of maps) {
     const main = sec.variants[sec.main];
     cautions.push(...main.cautions);
   }
-  const f = facts(table, opts, metric);
   if (f.seeds.perCellMin === 1) cautions.push(msg.oneSeed);
   if (metric === 'test_loss' || metric === 'train_loss') cautions.push(msg.heavyTail(metricWords(metric)));
   const first = maps[0]?.variants[maps[0].main]?.map;

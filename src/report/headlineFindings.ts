@@ -2,7 +2,7 @@ import type { HurtsResult } from '../analysis/Hurts.js';
 import type { RidgeRow } from '../analysis/Ridge.js';
 import { report as msg } from '../messages.js';
 import { formatCost, formatFixed, formatNumber } from './formatNumber.js';
-import type { CoverageSummary, MapSection, MapVariant, PlanSummary } from './ReportModel.js';
+import type { CoverageSummary, MapSection, MapVariant, PlanSummary, ReportFacts } from './ReportModel.js';
 
 /** Prominence (in pooled standard errors) under which a peak is "inside seed noise" (about a one-sided 95% z level; common practice). */
 export const SIGNIFICANT_SE = 2;
@@ -13,6 +13,8 @@ export interface FindingsInput {
   hurts: HurtsResult | null;
   coverage: CoverageSummary | null;
   plan: PlanSummary | null;
+  /** The sweep's facts (seeds per configuration, diverged runs), when known. */
+  facts?: ReportFacts;
 }
 
 const fmt = (v: number | null | undefined) => formatNumber(v);
@@ -181,6 +183,9 @@ export function headlineFindings(input: FindingsInput): string[] {
     const m = model.variants[model.main]?.map;
     if (m && m.missing.length) out.push(msg.mapGaps('model', m.missing.length, m.missing.length + m.cells.length));
   }
+  const f = input.facts;
+  if (f && f.seeds.perCellMin < f.seeds.perCellMax) out.push(msg.unevenSeeds(f.seeds.perCellMin, f.seeds.perCellMax));
+  if (f && f.divergedRuns) out.push(msg.divergedRuns(f.divergedRuns, f.runs));
   if (input.plan && input.plan.runs.length) {
     const counts = new Map<string, number>();
     for (const r of input.plan.runs) counts.set(r.reason, (counts.get(r.reason) ?? 0) + 1);

@@ -65,4 +65,15 @@ describe('buildReport', () => {
     expect(new Set(m.variants.map((v) => v.map.fixed.condition))).toEqual(new Set(['optimizer=adam', 'optimizer=sgd']));
     expect(r.findings.some((f) => f.startsWith('By condition, the model-wise peak') && f.includes('optimizer=sgd: width'))).toBe(true);
   });
+
+  it('says when runs diverged and when seeds per configuration are uneven', () => {
+    const rows = syntheticRows({ skip: (w, n, q, s) => w === 8 && n === 64 && q === 0.1 && s === 2 });
+    const t = tableFromRows(
+      rows.map((r) => (r.width === 256 && r.train_size === 32 && r.label_noise === 0.2 && r.seed === 1 && r.epochs >= 100 ? { ...r, test_error: NaN, status: 'diverged' as const } : r)),
+    );
+    const r = buildReport({ table: t, title: 'gaps', boot: 50 });
+    expect(r.facts.seeds).toEqual({ distinct: 3, perCellMin: 2, perCellMax: 3 });
+    expect(r.findings).toContain('Seeds per configuration range from 2 to 3: configurations with fewer seeds have wider intervals and weaker tests.');
+    expect(r.findings).toContain('1 of 125 runs diverged somewhere along their curve; their values are left out of the means (marked on the maps).');
+  });
 });
