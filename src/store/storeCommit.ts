@@ -120,7 +120,8 @@ export function recoverStore(dir: string): { rolledForward: boolean; removed: nu
   }
   for (const name of names) {
     const m = TMP.exec(name);
-    if (!m || Number(m[1]) === process.pid || alive(Number(m[1]))) continue;
+    // Our own are stray too: right after taking the lock this process has nothing in flight.
+    if (!m || (Number(m[1]) !== process.pid && alive(Number(m[1])))) continue;
     try {
       unlinkSync(join(dir, name));
       removed++;

@@ -38,7 +38,13 @@ function ageMs(path: string): number {
  */
 function createWithContent(path: string, content: string): boolean {
   const tmp = `${path}.tmp-${process.pid}`;
-  writeFileSync(tmp, content);
+  // A stray temporary of ours may still be a second name of a lock file: never write through it.
+  try {
+    unlinkSync(tmp);
+  } catch {
+    // none
+  }
+  writeFileSync(tmp, content, { flag: 'wx' });
   try {
     linkSync(tmp, path);
     return true;
