@@ -24,8 +24,11 @@ const GNU_TIME = '/usr/bin/time';
 export const haveGnuTime = existsSync(GNU_TIME);
 const WRAPPER = new URL('./rusageWrapper.mjs', import.meta.url).pathname;
 
+const ENTRY = new URL('./datlas-dist.mjs', import.meta.url).pathname;
+
 /**
- * Spawns `node [nodeArgs] bin/datlas args` in cwd and waits for it. Under GNU time the child's
+ * Spawns `node [nodeArgs] bench/datlas-dist.mjs args` (the compiled CLI, as bin/datlas runs it
+ * when dist/ is fresh) in cwd and waits for it. Under GNU time the child's
  * peak RSS covers its worker threads (one process); the wrapper reports the same figure.
  */
 export async function measure(opts: { cwd: string; args: string[]; nodeArgs?: string[]; env?: NodeJS.ProcessEnv }): Promise<Sample> {
@@ -33,7 +36,7 @@ export async function measure(opts: { cwd: string; args: string[]; nodeArgs?: st
   const tmp = mkdtempSync(join(tmpdir(), 'datlas-bench-'));
   const out = join(tmp, 'usage');
   const cmd = haveGnuTime
-    ? [GNU_TIME, '-f', '%e %M %U %S', '-o', out, process.execPath, ...nodeArgs, 'bin/datlas', ...args]
+    ? [GNU_TIME, '-f', '%e %M %U %S', '-o', out, process.execPath, ...nodeArgs, ENTRY, ...args]
     : [process.execPath, ...nodeArgs, WRAPPER, out, ...args];
   const t0 = performance.now();
   const { code, stderr } = await new Promise<{ code: number; stderr: string }>((resolve, reject) => {

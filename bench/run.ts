@@ -1,7 +1,7 @@
 /**
  * npm run bench: speed of the real CLI on a generated sweep (a measurement, not a test).
- * Each step runs `node bin/datlas ...` from a fresh dist/ build as a child process; quick steps
- * run 3 times and report the median wall time, with peak RSS and CPU time.
+ * Each step runs the real CLI from a fresh dist/ build (bench/datlas-dist.mjs: what bin/datlas runs
+ * when dist/ is fresh) as a child process; quick steps run 3 times and report the median wall time, with peak RSS and CPU time.
  *
  *   npm run bench                        the 1M-row steps, simulate --preset demo, --help
  *   npm run bench -- --big               also ingest the 10M-row sweep (BENCH_BIG=1 works too)
@@ -164,7 +164,7 @@ async function main(): Promise<void> {
     steps.push({
       name: 'reingest', what: 're-ingest, nothing changed', args: ['ingest', sweep1m, '--store', store, '--quiet'], rows: 0, reps, target: { wall: 0.3 },
       before: () => {
-        if (!existsSync(join(store, 'manifest.json'))) execFileSync(process.execPath, ['bin/datlas', 'ingest', sweep1m, '--store', store, '--quiet'], { cwd: root });
+        if (!existsSync(join(store, 'manifest.json'))) execFileSync(process.execPath, ['bench/datlas-dist.mjs', 'ingest', sweep1m, '--store', store, '--quiet'], { cwd: root });
       },
     });
   }
@@ -176,7 +176,7 @@ async function main(): Promise<void> {
       rows: 1_000_000, reps, target: { wall: 1.5 },
       before: () => {
         fresh(mapOut)();
-        if (!existsSync(join(store, 'manifest.json'))) execFileSync(process.execPath, ['bin/datlas', 'ingest', sweep1m, '--store', store, '--quiet'], { cwd: root });
+        if (!existsSync(join(store, 'manifest.json'))) execFileSync(process.execPath, ['bench/datlas-dist.mjs', 'ingest', sweep1m, '--store', store, '--quiet'], { cwd: root });
       },
     });
   }
