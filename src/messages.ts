@@ -64,6 +64,35 @@ export const ingestText = {
   storeLine: (dir: string, rows: number, sources: number) => `store ${dir}: ${rows} rows from ${sources} sources`,
   noChange: 'nothing new: every source is already in the store',
   noPaths: 'name at least one log file or folder (or - for stdin), e.g. datlas ingest runs/',
+  // Bad input (issue 10): every outcome names file, line and field where they apply.
+  compressed: (kind: string) => `${kind}-compressed file, not a text log; decompress it first (e.g. gunzip)`,
+  binary: (control: number, bytes: number) => `not a text log: ${control} of its first ${bytes} bytes are control bytes (a binary file?)`,
+  encodingNote: (source: string, encoding: string) =>
+    `${fmtPath(source)}: not UTF-8; read as ${encoding === 'latin1' ? 'Latin-1 (Windows-1252)' : `${encoding.toUpperCase()} (no byte-order mark)`}`,
+  noRows: (source: string, header: boolean) =>
+    header ? `${fmtPath(source)}: header only, no rows yet` : `${fmtPath(source)}: nothing to read (empty file, or its first line is not complete yet)`,
+  unbalancedQuote: (line: number) => `unbalanced quote: the quoted field opened on line ${line} is never closed; reading resumes on the next line`,
+  headerQuote: 'unbalanced quote in the header line; fix the header',
+  headerRepeated: (source: string, line: number, count: number) =>
+    `${fmtPath(source)}: line ${line} repeats the header (logs joined end to end?); ${count} such line${count === 1 ? '' : 's'} skipped`,
+  otherHeader: 'a header with different columns (logs joined end to end?); rows below it are not read until the first header returns: split the file',
+  underOtherHeader: (line: number) => `below a different header (line ${line}); split the joined logs into one file each`,
+  thousandsColumn: (source: string, column: string, example: string) =>
+    `${fmtPath(source)}: column '${column}' has thousands separators ('${example}' read as ${example.replace(/,/g, '')})`,
+  withUnit: (text: string, unit: string) => `not a number: '${text.length > 40 ? `${text.slice(0, 40)}…` : text}' (a unit '${unit}'? write the bare number)`,
+  decimalComma: (text: string) => `not a number: '${text}' (a decimal comma? write ${text.replace(',', '.')})`,
+  fractionColumn: (source: string, column: string, target: string, above: number, total: number) =>
+    `${fmtPath(source)}: column '${column}' read as fractions; ${above} of ${total} values above 1 are rejected (if the column is in percent, add --scale ${target}=percent)`,
+  risingError: (source: string, column: string, target: string, rising: number, runs: number, other: string) =>
+    `${fmtPath(source)}: column '${column}' (read as ${target}) rises by more than 0.3 over training in ${rising} of ${runs} runs; if it is ${other.endsWith('accuracy') ? 'an accuracy' : 'an error'}, map it with --map ${other}=${column}`,
+  restarted: (source: string, run: string, from: number, to: number, line: number, count: number) =>
+    `${fmtPath(source)}: run '${run}' goes back from epoch ${from} to ${to} at line ${line} (a restarted job?)${count > 1 ? ` and ${count - 1} more time${count > 2 ? 's' : ''}` : ''}; for an epoch logged twice the later line is kept`,
+  noMetricRow: 'no metric in this row (test and train error, accuracy and loss all empty)',
+  badArrow: (why: string) => `not a readable Arrow IPC file: ${why}`,
+  badJsonAt: (why: string, line: number) => `not valid JSON at line ${line}: ${why}`,
+  badJsonLineWhy: (why: string) => `not valid JSON: ${why}`,
+  mergedRows: (n: number) =>
+    `${n} row${n === 1 ? '' : 's'} completed a row of the same run and epoch (metrics logged on separate lines or files); counted as duplicates`,
 };
 
 // ── store ────────────────────────────────────────────────────────────────────
@@ -362,7 +391,7 @@ export const report = {
   cautionsHead: 'Read with care:',
   skippedKind: (kind: string, reason: string) => `${kind}-wise map not drawn: ${reason}`,
   defaultTitle: (store: string) => `Sweep report: ${store}`,
-  demoTitle: 'Demo sweep: random features over width, train size, label noise, epochs',
+  demoTitle: 'Demo sweep: random features, width × train size × noise × epochs',
   demoSimulating: (dir: string) => `simulating the demo sweep into ${dir} (600 runs; about a minute on 2 cores)`,
   demoIngestFailed: (dir: string) => `the demo sweep at ${dir} could not be ingested (run datlas ingest ${dir} to see why)`,
   demoHead: (logs: string, rows: number, seconds: number) => `demo: ${rows} logged rows from ${logs}, report and plan in ${seconds.toFixed(1)} s`,

@@ -251,6 +251,14 @@ function draw(ctx: Ctx, b: DeckBlock, x: number, y: number, w: number, maxH: num
   }
 }
 
+/** A block with its text size scaled by f (headings and images unchanged). */
+function scaleBlock(b: DeckBlock, f: number): DeckBlock {
+  if (b.kind === 'text') return { ...b, size: (b.size ?? 12) * f };
+  if (b.kind === 'bullets') return { ...b, size: (b.size ?? 12) * f };
+  if (b.kind === 'table') return { ...b, size: (b.size ?? 10.5) * f };
+  return b;
+}
+
 /** Lays out and draws the pages; returns the PDF bytes. */
 export async function composeDeck(opts: DeckOptions): Promise<Buffer> {
   const { pages, footer = '', width = 960, height = 540 } = opts;
@@ -269,10 +277,13 @@ export async function composeDeck(opts: DeckOptions): Promise<Buffer> {
     ctx.fillRect(0, 0, width, height);
     ctx.fillStyle = '#2b4c7e';
     ctx.fillRect(0, 0, width, 5);
-    ctx.font = `bold 22px "${FONT}"`;
+    // A long title shrinks (down to 16 px) before it is cut.
+    let titleSize = 22;
+    ctx.font = `bold ${titleSize}px "${FONT}"`;
+    while (titleSize > 16 && ctx.measureText(page.title).width > width - 2 * MARGIN) ctx.font = `bold ${--titleSize}px "${FONT}"`;
     ctx.fillStyle = INK;
     ctx.textAlign = 'left';
-    ctx.fillText(fit(ctx, page.title, width - 2 * MARGIN), MARGIN, 20);
+    ctx.fillText(fit(ctx, page.title, width - 2 * MARGIN), MARGIN, 20 + (22 - titleSize) / 2);
     let top = 52;
     if (page.subtitle) {
       ctx.font = `12px "${FONT}"`;
@@ -292,9 +303,14 @@ export async function composeDeck(opts: DeckOptions): Promise<Buffer> {
     const relSum = rel.reduce((a, v) => a + v, 0);
     const usable = width - 2 * MARGIN - GAP * 2 * (page.columns.length - 1);
     let x = MARGIN;
-    page.columns.forEach((col, ci) => {
+    page.columns.forEach((column, ci) => {
       const w = (usable * rel[ci]) / relSum;
-      const fixed = col.reduce((h, b) => h + (b.kind === 'image' ? 0 : measure(ctx, b, w) + GAP), 0);
+      const heightOf = (blocks: DeckBlock[]) => blocks.reduce((h, b) => h + (b.kind === 'image' ? 0 : measure(ctx, b, w) + GAP), 0);
+      // Text that does not fit shrinks a little (to 75%) before anything is cut at the bottom.
+      let col = column;
+      const hasImage = column.some((b) => b.kind === 'image');
+      for (let f = 0.95; !hasImage && f >= 0.75 && heightOf(col) > bottom - top; f -= 0.05) col = column.map((b) => scaleBlock(b, f));
+      const fixed = heightOf(col);
       const nImages = col.filter((b) => b.kind === 'image').length;
       const imageH = nImages ? Math.max(40, (bottom - top - fixed) / nImages) : 0;
       let y = top;
