@@ -1,4 +1,4 @@
-import { dictionary, float64, int32, tableFromArrays, tableFromIPC, tableToIPC, utf8 } from '@uwdata/flechette';
+import { batchType, Column, columnFromArray, columnFromValues, dictionary, float64, int32, tableFromArrays, tableFromColumns, tableFromIPC, tableToIPC, utf8 } from '@uwdata/flechette';
 import { emptyTable, NUMERIC_COLUMNS, STRING_COLUMNS } from './RowTable.js';
 import type { RowTable, RunStatus } from './RowTable.js';
 
@@ -36,8 +36,14 @@ export function rowsToArrow(t: RowTable, sink?: { write(bytes: Uint8Array): void
       else if (col instanceof Int32Array) types[name] = int32() as never;
     }
   }
-  // flechette's typings want plain arrays or typed arrays; ours are exactly that.
-  const table = tableFromArrays(data as [string, unknown[]][], { types });
+  // Text columns are dictionary-encoded here (keys looked up once per stretch of equal values),
+  // number columns passed zero-copy; flechette's per-value builder took ~0.5 s per million rows.
+  // An empty table takes flechette's builder, which declares the types of empty columns.
+  const table =
+    t.length > 0
+      ? tableFromColumns(data.map(([name, col]) => [name, name in types ? dictionaryColumn(col as readonly string[]) : columnFromArray(col as Float64Array)] as [string, Column<unknown>]))
+      : // flechette's typings want plain arrays or typed arrays; ours are exactly that.
+        tableFromArrays(data as [string, unknown[]][], { types });
   // Schema metadata (the store's commit id) is written into the file's schema and footer.
   if (metadata) table.schema.metadata = new Map(Object.entries(metadata));
   if (!sink) return tableToIPC(table, { format: 'file' })!;
@@ -46,6 +52,36 @@ export function rowsToArrow(t: RowTable, sink?: { write(bytes: Uint8Array): void
   // flechette's typings omit the sink option that encodeIPC accepts.
   tableToIPC(table, { format: 'file', sink: s } as Parameters<typeof tableToIPC>[1]);
   return null;
+}
+
+/** A dictionary-encoded utf8 column (int32 keys, no nulls: a missing text is ""). */
+function dictionaryColumn(values: readonly string[]): Column<unknown> {
+  const index = new Map<string, number>();
+  const dict: string[] = [];
+  const keys = new Int32Array(values.length);
+  let last = '';
+  let lastKey = -1;
+  for (let i = 0; i < values.length; i++) {
+    const v = values[i] ?? '';
+    if (v !== last || lastKey < 0) {
+      let k = index.get(v);
+      if (k === undefined) {
+        k = dict.length;
+        dict.push(v);
+        index.set(v, k);
+      }
+      last = v;
+      lastKey = k;
+    }
+    keys[i] = lastKey;
+  }
+  const type = dictionary(utf8(), int32());
+  // flechette types batchType's result as any: it is the DictionaryBatch class for this type.
+  const DictBatch = batchType(type);
+  const batch = new DictBatch({ length: values.length, nullCount: 0, type, validity: new Uint8Array(0), values: keys });
+  // The dictionary column must carry the very value-type object of `type`: the IPC writer finds ids by it.
+  batch.setDictionary(columnFromValues(dict, type.dictionary));
+  return new Column([batch], type);
 }
 
 /** Schema metadata key of the commit id shared by rows.arrow and manifest.json. */
