@@ -21,12 +21,19 @@ export interface RawTable {
   length: number;
   /** 1-based line (text) or record number (JSON array, Arrow) of each row. */
   lines: number[];
-  /** Rows that could not be split into fields (bad JSON, wrong field count): row index → problem. */
-  rowErrors: Map<number, { field: string; reason: string }>;
+  /**
+   * Rows that could not be split into fields (bad JSON, wrong field count): row index → problem.
+   * `skip` marks a line that is not a row at all (a repeated header): neither read nor rejected.
+   */
+  rowErrors: Map<number, { field: string; reason: string; skip?: boolean }>;
   /** Per-source constants (a run directory's config, the scalar keys of a JSON object file). */
   constants: Record<string, RawValue>;
   /** Line of an incomplete last row (a log still being written), or 0. */
   pendingLine: number;
+  /** Text encoding when it was guessed (not UTF-8, no byte-order mark): noted to the user. */
+  encoding?: string;
+  /** Lines repeating the header (logs joined end to end), skipped: the first one and how many. */
+  headerRepeats?: { line: number; count: number };
 }
 
 export function emptyRaw(format: string): RawTable {

@@ -217,6 +217,7 @@ export async function ingestSources(opts: IngestOptions): Promise<IngestResult> 
       delete manifest.sources[p.key]; // retried next time
     }
     rejects.push(...merged.rejects);
+    if (merged.merged > 0) result.notes.push(ingestText.mergedRows(merged.merged));
     result.conflicts = merged.conflicts;
     result.displaced = merged.displaced;
     result.rejects = rejects;

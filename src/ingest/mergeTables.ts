@@ -22,6 +22,12 @@ export interface MergeResult {
   conflicts: number;
   /** Stored rows from earlier ingests that lost a conflict to a newer source. */
   displaced: number;
+  /**
+   * Rows that completed another row of the same run and epoch instead of conflicting with it
+   * (each holds values only where the other has none: train and test metrics logged on separate
+   * lines or files). Counted among the duplicates.
+   */
+  merged: number;
 }
 
 const KEPT = 0;
@@ -64,6 +70,40 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
     for (const e of extraNames) if (!same(ta.extra[e]?.[ia] ?? NaN, tb.extra[e]?.[ib] ?? NaN)) return false;
     return true;
   };
+  // Same run and epoch, and every value either equal or missing on one side.
+  const complementary = (a: number, b: number): boolean => {
+    const ta = tables[tableOf[a]];
+    const tb = tables[tableOf[b]];
+    const ia = a - offset[tableOf[a]];
+    const ib = b - offset[tableOf[b]];
+    if (ta.status[ia] !== tb.status[ib] || ta.condition[ia] !== tb.condition[ib]) return false;
+    for (const c of NUMERIC_COLUMNS) {
+      const x = ta[c][ia];
+      const y = tb[c][ib];
+      if (!(same(x, y) || x !== x || y !== y)) return false;
+    }
+    for (const e of extraNames) {
+      const x = ta.extra[e]?.[ia] ?? NaN;
+      const y = tb.extra[e]?.[ib] ?? NaN;
+      if (!(same(x, y) || x !== x || y !== y)) return false;
+    }
+    return true;
+  };
+  // Fills the holder's missing values from the other row (the holder keeps its provenance).
+  const complete = (holder: number, from: number) => {
+    const th = tables[tableOf[holder]];
+    const tf = tables[tableOf[from]];
+    const ih = holder - offset[tableOf[holder]];
+    const iff = from - offset[tableOf[from]];
+    for (const c of NUMERIC_COLUMNS) if (th[c][ih] !== th[c][ih]) th[c][ih] = tf[c][iff];
+    for (const e of extraNames) {
+      const v = tf.extra[e]?.[iff];
+      if (v === undefined || v !== v) continue;
+      if (!th.extra[e]) th.extra[e] = new Float64Array(th.length).fill(NaN);
+      if (th.extra[e][ih] !== th.extra[e][ih]) th.extra[e][ih] = v;
+    }
+  };
+  let merged = 0;
   const rowOf = (slot: number) => {
     const ti = tableOf[slot];
     return { t: tables[ti], i: slot - offset[ti] };
@@ -86,6 +126,12 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
     }
     if (equal(holder, slot)) {
       disposition[slot] = DUPLICATE;
+      return;
+    }
+    if (complementary(holder, slot)) {
+      complete(holder, slot);
+      disposition[slot] = DUPLICATE;
+      merged++;
       return;
     }
     conflicts++;
@@ -184,7 +230,7 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
       k++;
     }
   });
-  return { table: out, accepted, duplicates, conflictLost, rejects, conflicts, displaced };
+  return { table: out, accepted, duplicates, conflictLost, rejects, conflicts, displaced, merged };
 }
 
 /** The rows of a table whose source is not in `drop` (a changed source's earlier rows are replaced). */

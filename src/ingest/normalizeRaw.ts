@@ -2,7 +2,7 @@ import { emptyTable, NUMERIC_COLUMNS } from '../store/RowTable.js';
 import type { NumericColumn, RowTable, RunStatus } from '../store/RowTable.js';
 import { cellAt } from './RawTable.js';
 import type { RawColumn, RawTable, RawValue } from './RawTable.js';
-import { CELL_BAD, CELL_MISSING, CELL_NONFINITE, isNumericColumn, parseColumn } from './parseNumbers.js';
+import { CELL_BAD, CELL_MISSING, CELL_NONFINITE, isNumericColumn, notNumberHint, parseColumn } from './parseNumbers.js';
 import type { ParsedColumn } from './parseNumbers.js';
 import { isFractionTarget, matchTarget, nameKey, TARGETS } from './synonyms.js';
 import type { Target } from './synonyms.js';
@@ -80,6 +80,12 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
   const { source, map = {}, set = {}, seedFrom, scale = {} } = opts;
   const n = raw.length;
   const notes: string[] = [];
+  if (raw.encoding) notes.push(ingestText.encodingNote(source, raw.encoding));
+  if (raw.headerRepeats) notes.push(ingestText.headerRepeated(source, raw.headerRepeats.line, raw.headerRepeats.count));
+  if (n === 0 && !raw.pendingLine) {
+    notes.push(ingestText.noRows(source, raw.names.length > 0));
+    return { table: emptyTable(0), rejects: [], read: 0, pending: 0, mapping: {}, notes };
+  }
   const mapping: Record<string, string> = {};
   const colOf: Partial<Record<Target, number>> = {};
   const constOf: Partial<Record<Target, RawValue>> = {};
@@ -179,7 +185,9 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     if (j !== undefined) parsed[t] = parseColumn(raw.columns[j], n);
     else if (constOf[t] !== undefined) constNum[t] = numberOf(constOf[t]);
   }
-  // Percent scale, per column: a '%' sign, a forced --scale, or values in (1, 100].
+  // Percent scale, per column: a '%' sign, a forced --scale, a name saying so ('err (%)', 'acc_pct'),
+  // or more than a quarter of the values in (1, 100] with none above 100. A few stray values above
+  // 1 in a column of fractions are bad rows (rejected below), not a reason to divide the good ones.
   for (const t of numericTargets) {
     if (!isFractionTarget(t)) continue;
     const p = parsed[t];
@@ -187,13 +195,28 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     const forced = scale[t];
     if (p) {
       let max = -Infinity;
-      for (let i = 0; i < n; i++) if (p.kind[i] === 0 && p.values[i] > max) max = p.values[i];
-      const percent = forced ? forced === 'percent' : !p.percentSign && max > 1 && max <= 100;
+      let above = 0;
+      let finite = 0;
+      for (let i = 0; i < n; i++) {
+        if (p.kind[i] !== 0) continue;
+        const v = p.values[i];
+        finite++;
+        if (v > max) max = v;
+        if (v > 1) above++;
+      }
+      const named = /%|percent|pct/i.test(raw.names[colOf[t]!]);
+      const percent = forced ? forced === 'percent' : !p.percentSign && max > 1 && max <= 100 && (named || above * 4 > finite);
       if (percent && !p.percentSign) {
         for (let i = 0; i < n; i++) p.values[i] /= 100;
-        notes.push(ingestText.percentColumn(source, raw.names[colOf[t]!], t));
+        notes.push(ingestText.percentColumn(source, clip(raw.names[colOf[t]!]), t));
+      } else if (!forced && !p.percentSign && above > 0) {
+        notes.push(ingestText.fractionColumn(source, clip(raw.names[colOf[t]!]), t, above, finite));
       }
     } else if (c && (forced === 'percent' || (!forced && c.value > 1 && c.value <= 100))) c.value /= 100;
+  }
+  for (const t of numericTargets) {
+    const ex = parsed[t]?.thousands;
+    if (ex !== undefined) notes.push(ingestText.thousandsColumn(source, clip(raw.names[colOf[t]!]), ex));
   }
 
   // 6. Per-row checks and output, column arrays only (no per-row objects on this path).
@@ -265,16 +288,20 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
   const Kwall = K.wall_seconds;
   let k = 0;
   const last = { run: '', width: NaN, train_size: NaN, label_noise: NaN, seed: NaN, condition: '' };
-  const reject = (i: number, field: string, reason: string) => rejects.push({ source, line: raw.lines[i], field, reason });
+  const reject = (i: number, field: string, reason: string) => rejects.push({ source, line: raw.lines[i], field: clip(field), reason });
+  let skipped = 0;
   rows: for (let i = 0; i < n; i++) {
     const err = raw.rowErrors.size > 0 ? raw.rowErrors.get(i) : undefined;
     if (err) {
-      reject(i, err.field, err.reason);
+      if (err.skip) skipped++; // not a row (a repeated header line)
+      else reject(i, err.field, err.reason);
       continue;
     }
     if (badAt[i] >= 0) {
       const b = badSources[badAt[i]];
-      reject(i, b.field, ingestText.notANumber(text(cellAt(raw.columns[b.j], i))));
+      const cell = text(cellAt(raw.columns[b.j], i));
+      const hint = notNumberHint(cell);
+      reject(i, b.field, hint === null ? ingestText.notANumber(cell) : 'unit' in hint ? ingestText.withUnit(cell, hint.unit) : ingestText.decimalComma(cell));
       continue;
     }
     const width = Vw[i];
@@ -298,9 +325,11 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     }
 
     // Metrics: errors are fractions in [0,1]; accuracy becomes 1 − accuracy; non-finite = diverged.
-    // (Written out per metric: this loop runs once per row of every log.)
+    // An empty cell is "not measured at this epoch" (test metrics are often logged every k epochs):
+    // the row stays when any other metric has a value. (Written out per metric: hot loop.)
     let status: RunStatus = 'ok';
     let anyTest = false;
+    let anyTrain = false;
     let te = NaN;
     let tr = NaN;
     let tl = NaN;
@@ -334,6 +363,7 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
         from = 'train_accuracy';
       }
       if (kind !== CELL_MISSING) {
+        anyTrain = true;
         if (kind === CELL_NONFINITE) status = 'diverged';
         else if (v >= -1e-12 && v <= 1 + 1e-12) tr = v < 0 ? 0 : v > 1 ? 1 : v;
         else {
@@ -352,6 +382,7 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
       }
     }
     if (Krl[i] !== CELL_MISSING) {
+      anyTrain = true;
       if (Krl[i] === CELL_NONFINITE) status = 'diverged';
       else if (Vrl[i] >= 0) trl = Vrl[i];
       else {
@@ -359,8 +390,8 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
         continue;
       }
     }
-    if (!anyTest) {
-      reject(i, noMetricField, ingestText.noMetric);
+    if (!anyTest && !anyTrain) {
+      reject(i, noMetricField, ingestText.noMetricRow);
       continue;
     }
     if (statusConst || (statusCol && /^(diverged|failed|nan|inf|crashed)$/i.test(text(cellAt(statusCol, i))))) status = 'diverged';
@@ -413,7 +444,64 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     for (const e of extraParsed) out.extra[e.name][k] = e.p.values[i];
     k++;
   }
-  return { table: sliceTable(out, k), rejects, read: n + (raw.pendingLine ? 1 : 0), pending: raw.pendingLine ? 1 : 0, mapping, notes };
+  const table = sliceTable(out, k);
+  curveNotes(table, { source, notes, mapping });
+  return { table, rejects, read: n - skipped + (raw.pendingLine ? 1 : 0), pending: raw.pendingLine ? 1 : 0, mapping, notes };
+}
+
+/** Column names in messages: a header can hold a megabyte-long "name". */
+function clip(name: string): string {
+  return name.length > 80 ? `${name.slice(0, 80)}…` : name;
+}
+
+/**
+ * Notes on the accepted curves of one source (values are kept as given):
+ * - a run whose epochs go backwards (a job restarted from a checkpoint re-logs epochs; for an
+ *   epoch logged twice mergeTables keeps the later line);
+ * - an error column that rises over training in most runs: usually an accuracy read as an error
+ *   (or, after the 1 − x conversion, an error mapped as an accuracy).
+ */
+function curveNotes(t: RowTable, ctx: { source: string; notes: string[]; mapping: Record<string, string> }): void {
+  let restarts = 0;
+  let first: { run: string; from: number; to: number; line: number } | null = null;
+  for (let k = 1; k < t.length; k++) {
+    if (t.run[k] === t.run[k - 1] && t.epochs[k] < t.epochs[k - 1]) {
+      if (restarts++ === 0) first = { run: t.run[k], from: t.epochs[k - 1], to: t.epochs[k], line: t.source_line[k] };
+    }
+  }
+  if (first) ctx.notes.push(ingestText.restarted(ctx.source, clip(first.run), first.from, first.to, first.line, restarts));
+  for (const col of ['train_error', 'test_error'] as const) {
+    const v = t[col];
+    let runs = 0;
+    let rising = 0;
+    let k = 0;
+    while (k < t.length) {
+      let j = k + 1;
+      while (j < t.length && t.run[j] === t.run[k]) j++;
+      // First and last finite value at the run's smallest and largest epochs.
+      let lo = -1;
+      let hi = -1;
+      let points = 0;
+      for (let r = k; r < j; r++) {
+        if (!Number.isFinite(v[r])) continue;
+        points++;
+        if (lo < 0 || t.epochs[r] < t.epochs[lo]) lo = r;
+        if (hi < 0 || t.epochs[r] >= t.epochs[hi]) hi = r;
+      }
+      if (points >= 3) {
+        runs++;
+        if (v[hi] - v[lo] > 0.3) rising++;
+      }
+      k = j;
+    }
+    if (runs > 0 && rising * 3 >= runs * 2) {
+      // From an error column: maybe an accuracy. From an accuracy column (1 − x): maybe an error.
+      const acc = col === 'test_error' ? 'test_accuracy' : 'train_accuracy';
+      const fromError = ctx.mapping[col];
+      const name = fromError ?? ctx.mapping[acc] ?? col;
+      ctx.notes.push(ingestText.risingError(ctx.source, clip(name), col, rising, runs, fromError !== undefined ? acc : col));
+    }
+  }
 }
 
 export function formatCondition(pairs: [string, string][]): string {

@@ -17,6 +17,23 @@ export interface ParsedColumn {
   kind: Uint8Array;
   /** Some cells carried a '%' sign (already divided by 100). */
   percentSign: boolean;
+  /** The first cell written with thousands separators ("4,000"), read without them. */
+  thousands?: string;
+}
+
+/** "4,000" or "1,250,000.5": groups of three digits after a non-zero lead ("0,5" is a decimal comma). */
+const THOUSANDS = /^[-+]?[1-9]\d{0,2}(,\d{3})+(\.\d+)?$/;
+/** A number followed by a unit ("4000 samples", "12.5s"). */
+const WITH_UNIT = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*([A-Za-zµ][A-Za-z0-9µ/_ ]*)$/;
+const DECIMAL_COMMA = /^[-+]?\d+,\d+$/;
+
+/** Why a cell that is not a number is not one, for the rejection message: a unit, a decimal comma, or null. */
+export function notNumberHint(text: string): { unit: string } | { decimalComma: true } | null {
+  const t = text.trim();
+  const u = WITH_UNIT.exec(t);
+  if (u && !(u[3].toLowerCase() in NONFINITE)) return { unit: u[3].trim() };
+  if (DECIMAL_COMMA.test(t)) return { decimalComma: true };
+  return null;
 }
 
 /** Parses one column into numbers in a single pass (cell kinds say why a value is NaN). */
@@ -38,10 +55,12 @@ export function parseColumn(col: RawColumn, n: number): ParsedColumn {
         kind[row] = sub.kind[k];
       });
       percentSign = sub.percentSign;
+      if (sub.thousands !== undefined) return { values, kind, percentSign, thousands: sub.thousands };
     }
     return { values, kind, percentSign };
   }
   const values = new Float64Array(n);
+  let thousands: string | undefined;
   if (col instanceof Float64Array) {
     for (let i = 0; i < n; i++) {
       const v = col[i];
@@ -83,12 +102,15 @@ export function parseColumn(col: RawColumn, n: number): ParsedColumn {
     } else if (t.endsWith('%') && t.length > 1 && Number.isFinite(+t.slice(0, -1))) {
       values[i] = +t.slice(0, -1) / 100;
       percentSign = true;
+    } else if (THOUSANDS.test(t)) {
+      values[i] = +t.replace(/,/g, '');
+      thousands ??= t;
     } else {
       values[i] = NaN;
       kind[i] = CELL_BAD;
     }
   }
-  return { values, kind, percentSign };
+  return thousands === undefined ? { values, kind, percentSign } : { values, kind, percentSign, thousands };
 }
 
 /** Whether every non-empty cell of a column reads as a number (so it is a metric, not a label). */
@@ -96,7 +118,7 @@ export function isNumericColumn(col: RawColumn, n: number): boolean {
   if (col instanceof Float64Array) return true;
   if (col instanceof NumTextColumn) {
     if (col.texts.size === n) return isNumericColumn([...col.texts.values()], col.texts.size);
-    for (const t of col.texts.values()) if (t.trim() !== '' && !(t.trim().toLowerCase() in NONFINITE)) return false;
+    for (const t of col.texts.values()) if (t.trim() !== '' && !(t.trim().toLowerCase() in NONFINITE) && !THOUSANDS.test(t.trim())) return false;
     return true;
   }
   let any = false;
@@ -109,7 +131,7 @@ export function isNumericColumn(col: RawColumn, n: number): boolean {
     }
     if (typeof c !== 'string') return false;
     const v = +c;
-    if (v !== v && !(c.trim().toLowerCase() in NONFINITE)) return false;
+    if (v !== v && !(c.trim().toLowerCase() in NONFINITE) && !THOUSANDS.test(c.trim())) return false;
     if (c.trim() === '') continue;
     any = true;
   }

@@ -1,4 +1,6 @@
-import { emptyRaw } from './RawTable.js';
+import { cellAt, emptyRaw } from './RawTable.js';
+import { NumTextColumn } from './NumTextColumn.js';
+import { matchTarget } from './synonyms.js';
 import type { RawTable, RawValue } from './RawTable.js';
 import { tokenizeWhitespace } from './tokenizeDelimited.js';
 import { tokenizeToColumns } from './tokenizeToColumns.js';
@@ -21,6 +23,7 @@ export function rawFromDelimited(text: string, delimiter: ',' | '\t' | 'whitespa
     raw.length = t.lines.length;
     raw.rowErrors = t.rowErrors;
     raw.pendingLine = t.pendingLine;
+    markHeaderLines(raw);
     return raw;
   }
   let columns: RawValue[][] = [];
@@ -35,13 +38,81 @@ export function rawFromDelimited(text: string, delimiter: ',' | '\t' | 'whitespa
     const row = raw.length;
     raw.lines.push(line);
     raw.length = row + 1;
-    if (count !== width) raw.rowErrors.set(row, { field: '', reason: ingestText.fieldCount(width, count) });
+    if (count !== width) raw.rowErrors.set(row, { field: count < width ? raw.names[count] : '', reason: ingestText.fieldCount(width, count) });
     for (let j = 0; j < width; j++) columns[j][row] = j < count ? fields[j] : '';
   });
   raw.columns = columns;
   // A header still being written is not a row; only a data row can be pending.
   raw.pendingLine = width === 0 ? 0 : end.pendingLine;
+  markHeaderLines(raw);
   return raw;
+}
+
+/**
+ * Header lines inside the data, from logs joined end to end (`cat run*.csv > all.csv`): a line
+ * repeating the header is skipped (it is not a row); a header with other columns is rejected and
+ * so are the rows below it until the first header returns, since reading them with the first
+ * header's columns would put values in the wrong places. Only rows whose first cell is text are
+ * looked at, so numeric logs pay nothing.
+ */
+function markHeaderLines(raw: RawTable): void {
+  const width = raw.names.length;
+  if (width === 0 || raw.length === 0) return;
+  const col0 = raw.columns[0];
+  const candidates: number[] = [];
+  if (col0 instanceof NumTextColumn) for (const i of col0.texts.keys()) candidates.push(i);
+  else for (let i = 0; i < raw.length; i++) if (typeof col0[i] === 'string') candidates.push(i);
+  if (candidates.length === 0) return;
+  candidates.sort((a, b) => a - b);
+  const text = (j: number, i: number): string | null => {
+    const v = cellAt(raw.columns[j], i);
+    return typeof v === 'string' && v.trim() !== '' && Number.isNaN(Number(v)) ? v.trim() : null;
+  };
+  const headerNames = new Set(raw.names);
+  const kind = (i: number): 'repeat' | 'other' | null => {
+    if (text(0, i) === null) return null;
+    // Any number in the row makes it a data row (checked first: the common, cheap answer).
+    for (let j = 1; j < width; j++) {
+      const v = cellAt(raw.columns[j], i);
+      if (typeof v === 'number' ? !Number.isNaN(v) : v !== undefined && v !== null && String(v).trim() !== '' && !Number.isNaN(Number(v))) return null;
+    }
+    let same = !raw.rowErrors.has(i);
+    let named = 0;
+    for (let j = 0; j < width; j++) {
+      const t = text(j, i);
+      if (t === null) {
+        same = false;
+        continue;
+      }
+      if (t !== raw.names[j]) same = false;
+      if (headerNames.has(t) || matchTarget(t)) named++;
+    }
+    if (same) return 'repeat';
+    return named >= Math.min(2, width) ? 'other' : null;
+  };
+  let repeats = 0;
+  let firstRepeat = 0;
+  let otherFrom = -1;
+  let otherLine = 0;
+  const closeOther = (to: number) => {
+    for (let r = otherFrom + 1; r < to; r++) if (!raw.rowErrors.has(r)) raw.rowErrors.set(r, { field: '', reason: ingestText.underOtherHeader(otherLine) });
+    otherFrom = -1;
+  };
+  for (const i of candidates) {
+    const k = kind(i);
+    if (k === null) continue;
+    if (otherFrom >= 0) closeOther(i);
+    if (k === 'repeat') {
+      raw.rowErrors.set(i, { field: '', reason: '', skip: true });
+      if (repeats++ === 0) firstRepeat = raw.lines[i];
+    } else {
+      raw.rowErrors.set(i, { field: '', reason: ingestText.otherHeader });
+      otherFrom = i;
+      otherLine = raw.lines[i];
+    }
+  }
+  if (otherFrom >= 0) closeOther(raw.length);
+  if (repeats > 0) raw.headerRepeats = { line: firstRepeat, count: repeats };
 }
 
 

@@ -15,6 +15,19 @@ export function parseJsonLenient(text: string): unknown {
   }
 }
 
+/** JSON.parse's reason without the echo of the input (which can be a whole huge line). */
+function jsonWhy(err: unknown): string {
+  const m = (err as Error).message.split('\n')[0];
+  return m.replace(/^(Unexpected token .*?), ".*$/, '$1').replace(/ in JSON at position \d+.*$/, '').slice(0, 120);
+}
+
+/** 1-based line of a character offset. */
+function lineAt(text: string, offset: number): number {
+  let line = 1;
+  for (let p = text.indexOf('\n'); p >= 0 && p < offset; p = text.indexOf('\n', p + 1)) line++;
+  return line;
+}
+
 function asRecord(v: unknown): Record<string, unknown> | null {
   return v !== null && typeof v === 'object' && !Array.isArray(v) ? (v as Record<string, unknown>) : null;
 }
@@ -36,8 +49,8 @@ export function rawFromJsonLines(text: string): RawTable {
       let rec: Record<string, unknown> | null = null;
       try {
         rec = asRecord(parseJsonLenient(body));
-      } catch {
-        rc.addError(line, ingestText.badJsonLine);
+      } catch (err) {
+        rc.addError(line, ingestText.badJsonLineWhy(jsonWhy(err)));
       }
       if (rec) rc.add(flattenRecord(rec), line);
       else if (rc.raw.lines[rc.raw.length - 1] !== line) rc.addError(line, ingestText.notARecord);
@@ -81,15 +94,19 @@ function fromColumnar(obj: Record<string, unknown>, format: string): RawTable | 
  */
 export function rawFromJson(text: string): RawTable {
   let value: unknown;
+  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  if (body.trim() === '') return emptyRaw('json');
   try {
-    value = parseJsonLenient(text.charCodeAt(0) === 0xfeff ? text.slice(1) : text);
+    value = parseJsonLenient(body);
   } catch (err) {
     const trimmed = text.trim();
     if (trimmed.startsWith('{') && trimmed.includes('\n')) {
       const jl = rawFromJsonLines(text);
       if (jl.length > 0 && jl.rowErrors.size < jl.length) return jl;
     }
-    throw new Error(ingestText.badJson((err as Error).message));
+    const at = /at position (\d+)/.exec((err as Error).message);
+    if (at) throw new Error(ingestText.badJsonAt(jsonWhy(err), lineAt(body, Number(at[1]))));
+    throw new Error(ingestText.badJson(jsonWhy(err)));
   }
   if (Array.isArray(value)) return fromRecords(value, 'json');
   const obj = asRecord(value);

@@ -1,11 +1,12 @@
 import { readFileSync } from 'node:fs';
 import { basename, extname } from 'node:path';
 import { createRequire } from 'node:module';
-import { flattenRecord } from './RawTable.js';
+import { emptyRaw, flattenRecord } from './RawTable.js';
 import type { RawTable, RawValue } from './RawTable.js';
 import { rawFromDelimited } from './rawFromDelimited.js';
 import { parseJsonLenient, rawFromJson, rawFromJsonLines } from './rawFromJson.js';
 import { rawFromArrow } from './rawFromArrow.js';
+import { decodeHead, decodeText } from './decodeText.js';
 import { ingestText } from '../messages.js';
 
 export type SourceFormat = 'csv' | 'tsv' | 'text' | 'jsonl' | 'json' | 'arrow';
@@ -26,7 +27,7 @@ const ARROW_MAGIC = [0x41, 0x52, 0x52, 0x4f, 0x57, 0x31]; // "ARROW1"
 /** Guesses the format of text (or bytes) from its start: JSON, Arrow, tab, comma or whitespace. */
 export function sniffFormat(bytes: Uint8Array): SourceFormat {
   if (ARROW_MAGIC.every((b, i) => bytes[i] === b) || (bytes[0] === 0xff && bytes[1] === 0xff && bytes[2] === 0xff && bytes[3] === 0xff)) return 'arrow';
-  const head = new TextDecoder().decode(bytes.subarray(0, 4096)).replace(/^\uFEFF/, '').trimStart();
+  const head = decodeHead(bytes).replace(/^\uFEFF/, '').trimStart();
   if (head.startsWith('[')) return 'json';
   if (head.startsWith('{')) {
     const first = head.split('\n')[0].trim();
@@ -45,8 +46,21 @@ export function sniffFormat(bytes: Uint8Array): SourceFormat {
 
 /** Reads bytes of a known format into a RawTable (pure: no file access). Throws on an unreadable file. */
 export function rawFromBytes(bytes: Uint8Array, format: SourceFormat): RawTable {
-  if (format === 'arrow') return rawFromArrow(bytes);
-  const text = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString('utf8');
+  if (bytes.byteLength === 0) return emptyRaw(format);
+  if (format === 'arrow') {
+    try {
+      return rawFromArrow(bytes);
+    } catch (err) {
+      throw new Error(ingestText.badArrow((err as Error).message.split('\n')[0]));
+    }
+  }
+  const decoded = decodeText(bytes);
+  const raw = rawFromText(decoded.text, format);
+  if (decoded.guessed) raw.encoding = decoded.encoding;
+  return raw;
+}
+
+function rawFromText(text: string, format: Exclude<SourceFormat, 'arrow'>): RawTable {
   switch (format) {
     case 'csv':
       return rawFromDelimited(text, ',');

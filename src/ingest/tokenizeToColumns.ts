@@ -81,9 +81,28 @@ export function tokenizeToColumns(text: string, delimiter: string): DelimitedCol
         break;
       }
       if (!closed) {
-        // An unterminated quote: the row is still being written.
-        unterminated = true;
-        break;
+        // No closing quote anywhere after this one. In a file that stops mid-line: a row still
+        // being written (a quoted field may span lines), pending. In a file that ends cleanly: a
+        // broken row. It is rejected and, since the rest of the text holds no quote, reading
+        // resumes cleanly on the next line.
+        let e = i + 1;
+        while (e < n && text.charCodeAt(e) !== LF && text.charCodeAt(e) !== CR) e++;
+        const last = text.charCodeAt(n - 1);
+        if (e >= n || (last !== LF && last !== CR)) {
+          unterminated = true;
+          break;
+        }
+        if (width < 0) throw new Error(ingestText.headerQuote);
+        for (let k = Math.min(count, width); k < width; k++) columns[k].push(NaN);
+        rowErrors.set(row, { field: count < width ? names[count] : '', reason: ingestText.unbalancedQuote(line) });
+        lines.push(rowLine);
+        row++;
+        i = e + 1;
+        if (text.charCodeAt(e) === CR && text.charCodeAt(i) === LF) i++;
+        line++;
+        rowLine = line;
+        count = 0;
+        continue;
       }
       let j2 = i;
       while (j2 < n) {
@@ -130,7 +149,7 @@ export function tokenizeToColumns(text: string, delimiter: string): DelimitedCol
       columns = names.map(() => new NumTextColumn(capacity));
     } else {
       if (count !== width) {
-        rowErrors.set(row, { field: '', reason: ingestText.fieldCount(width, count) });
+        rowErrors.set(row, { field: count < width ? names[count] : '', reason: ingestText.fieldCount(width, count) });
         for (let j = count; j < width; j++) columns[j].push(NaN);
       }
       lines.push(rowLine);

@@ -1,4 +1,4 @@
-import { existsSync, readdirSync, statSync } from 'node:fs';
+import { existsSync, readdirSync, realpathSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { formatOfName, runDirectoryFiles } from './readSource.js';
 
@@ -37,8 +37,20 @@ export function walkInputs(paths: readonly string[], opts: { skip?: readonly str
     seen.add(s.key);
     sources.push(s);
   };
+  // Real paths of the folders walked: a symbolic link back up the tree must not loop (or read
+  // the same logs again under another name).
+  const visited = new Set<string>();
   const walkDir = (dir: string) => {
     if (skip.has(resolve(dir))) return;
+    let real: string;
+    try {
+      real = realpathSync(dir);
+    } catch (err) {
+      missing.push({ path: dir, reason: (err as NodeJS.ErrnoException).code ?? (err as Error).message });
+      return;
+    }
+    if (visited.has(real)) return;
+    visited.add(real);
     let names: string[];
     try {
       names = readdirSync(dir).sort();

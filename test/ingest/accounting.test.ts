@@ -49,7 +49,7 @@ describe('accounting on a deliberately messy sweep', () => {
     const rejected = parseRejected(readFileSync(join(store, 'rejected.csv'), 'utf8'));
     const where = rejected.map((x) => `${x.source === a ? 'a' : 'b'}:${x.line}:${x.field}:${x.reason.split(':')[0]}`).sort();
     expect(where).toEqual([
-      'a:10::expected 8 fields (as in the header), got 7',
+      'a:10:train_err:expected 8 fields (as in the header), got 7',
       'a:5:test_err:not a number',
       'a:7:width:width must be > 0, got -4',
       'a:8:run:conflict',
