@@ -12,8 +12,8 @@ import { ingestText } from '../messages.js';
  * Header names are trimmed; a row with a different number of fields than the header is kept
  * as a row error (rejected with its line), never silently padded.
  */
-export function rawFromDelimited(text: string, delimiter: ',' | '\t' | 'whitespace'): RawTable {
-  const format = delimiter === ',' ? 'csv' : delimiter === '\t' ? 'tsv' : 'text';
+export function rawFromDelimited(text: string, delimiter: ',' | ';' | '\t' | 'whitespace'): RawTable {
+  const format = delimiter === ',' || delimiter === ';' ? 'csv' : delimiter === '\t' ? 'tsv' : 'text';
   const raw = emptyRaw(format);
   if (delimiter !== 'whitespace') {
     const t = tokenizeToColumns(text, delimiter);
@@ -95,7 +95,8 @@ function markHeaderLines(raw: RawTable): void {
   let otherFrom = -1;
   let otherLine = 0;
   const closeOther = (to: number) => {
-    for (let r = otherFrom + 1; r < to; r++) if (!raw.rowErrors.has(r)) raw.rowErrors.set(r, { field: '', reason: ingestText.underOtherHeader(otherLine) });
+    // The fence explains these rows better than a field count would.
+    for (let r = otherFrom + 1; r < to; r++) raw.rowErrors.set(r, { field: '', reason: ingestText.underOtherHeader(otherLine) });
     otherFrom = -1;
   };
   for (const i of candidates) {

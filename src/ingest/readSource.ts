@@ -40,7 +40,7 @@ export function sniffFormat(bytes: Uint8Array): SourceFormat {
   }
   const first = head.split(/\r?\n/)[0];
   if (first.includes('\t')) return 'tsv';
-  if (first.includes(',')) return 'csv';
+  if (first.includes(',') || first.includes(';')) return 'csv';
   return 'text';
 }
 
@@ -60,10 +60,17 @@ export function rawFromBytes(bytes: Uint8Array, format: SourceFormat): RawTable 
   return raw;
 }
 
+/** Comma, or semicolon for spreadsheet exports of locales whose decimal mark is the comma. */
+function csvDelimiter(text: string): ',' | ';' {
+  const end = text.indexOf('\n');
+  const header = end < 0 ? text : text.slice(0, end);
+  return header.includes(';') && !header.includes(',') ? ';' : ',';
+}
+
 function rawFromText(text: string, format: Exclude<SourceFormat, 'arrow'>): RawTable {
   switch (format) {
     case 'csv':
-      return rawFromDelimited(text, ',');
+      return rawFromDelimited(text, csvDelimiter(text));
     case 'tsv':
       return rawFromDelimited(text, '\t');
     case 'text':
