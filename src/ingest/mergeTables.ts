@@ -1,4 +1,4 @@
-import { emptyTable, NUMERIC_COLUMNS } from '../store/RowTable.js';
+import { allocTable, emptyTable, NUMERIC_COLUMNS } from '../store/RowTable.js';
 import type { RowTable } from '../store/RowTable.js';
 import type { Reject } from './normalizeRaw.js';
 import { ingestText } from '../messages.js';
@@ -198,7 +198,8 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
     else if (d === DUPLICATE) duplicates[ti - 1]++;
     else conflictLost[ti - 1]++;
   }
-  const out = emptyTable(kept, extraNames);
+  // Every canonical column of every kept row is copied below: no need to fill first.
+  const out = allocTable(kept, extraNames);
   let k = 0;
   tables.forEach((t, ti) => {
     const base = offset[ti];

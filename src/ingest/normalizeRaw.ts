@@ -1,4 +1,4 @@
-import { emptyTable, NUMERIC_COLUMNS } from '../store/RowTable.js';
+import { allocTable, emptyTable, NUMERIC_COLUMNS } from '../store/RowTable.js';
 import type { NumericColumn, RowTable, RunStatus } from '../store/RowTable.js';
 import { cellAt } from './RawTable.js';
 import type { RawColumn, RawTable, RawValue } from './RawTable.js';
@@ -222,7 +222,8 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
   // 6. Per-row checks and output, column arrays only (no per-row objects on this path).
   const extraNames = extraCols.map((e) => e.name).filter((x) => !(NUMERIC_COLUMNS as readonly string[]).includes(x));
   const extraParsed = extraCols.filter((e) => extraNames.includes(e.name)).map((e) => ({ name: e.name, j: e.j, p: parseColumn(raw.columns[e.j], n) }));
-  const out = emptyTable(n, extraNames);
+  // Every column of every kept row is written below: no need to fill first.
+  const out = allocTable(n, extraNames);
   const rejects: Reject[] = [];
   const fieldName = (t: Target) => (colOf[t] !== undefined ? raw.names[colOf[t]!] : mapping[t] ?? t);
   // Every numeric target as full-length value and kind arrays (constants repeated, absent = missing).

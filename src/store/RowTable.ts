@@ -85,6 +85,37 @@ export function emptyTable(length: number, extraNames: readonly string[] = []): 
   };
 }
 
+/**
+ * A table of `length` rows with its columns allocated but not filled (numbers 0, text unset), for
+ * writers that set every canonical column of every row: filling first would cost a pass over each
+ * column (ingest does this per file and again for the merged million rows). Extras are NaN-filled
+ * since a writer may lack some of them.
+ */
+export function allocTable(length: number, extraNames: readonly string[] = []): RowTable {
+  const extra: Record<string, Float64Array> = {};
+  for (const name of extraNames) extra[name] = new Float64Array(length).fill(NaN);
+  const text = () => new Array<string>(length);
+  return {
+    length,
+    run: text(),
+    condition: text(),
+    source: text(),
+    source_line: new Int32Array(length),
+    status: new Array<RunStatus>(length),
+    seed: new Float64Array(length),
+    width: new Float64Array(length),
+    epochs: new Float64Array(length),
+    train_size: new Float64Array(length),
+    label_noise: new Float64Array(length),
+    test_error: new Float64Array(length),
+    train_error: new Float64Array(length),
+    test_loss: new Float64Array(length),
+    train_loss: new Float64Array(length),
+    wall_seconds: new Float64Array(length),
+    extra,
+  };
+}
+
 /** Which metric a sweep supports by default: test_error when any row has it, else test_loss. */
 export function defaultMetric(table: RowTable): Metric {
   for (let i = 0; i < table.length; i++) if (Number.isFinite(table.test_error[i])) return 'test_error';
