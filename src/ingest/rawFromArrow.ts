@@ -1,9 +1,14 @@
-import { tableFromIPC } from '@uwdata/flechette';
+import { createRequire } from 'node:module';
+import type * as Flechette from '@uwdata/flechette';
 import { emptyRaw } from './RawTable.js';
 import type { RawTable, RawValue } from './RawTable.js';
 
+// flechette is loaded when an Arrow log is read, not whenever ingest starts (~50 ms).
+const requireHere = createRequire(import.meta.url);
+
 /** An Arrow IPC file or stream: each column as read (numbers stay typed, 64-bit integers become numbers). */
 export function rawFromArrow(bytes: Uint8Array): RawTable {
+  const { tableFromIPC } = requireHere('@uwdata/flechette') as typeof Flechette;
   const table = tableFromIPC(bytes, { useBigInt: false });
   const raw = emptyRaw('arrow');
   raw.length = table.numRows;

@@ -1,6 +1,13 @@
-import { batchType, Column, columnFromArray, columnFromValues, dictionary, float64, int32, tableFromArrays, tableFromColumns, tableFromIPC, tableToIPC, utf8 } from '@uwdata/flechette';
+import { createRequire } from 'node:module';
+import type * as Flechette from '@uwdata/flechette';
 import { emptyTable, NUMERIC_COLUMNS, STRING_COLUMNS } from './RowTable.js';
 import type { RowTable, RunStatus } from './RowTable.js';
+
+// flechette (~50 ms to load) only once rows are encoded or decoded: `datlas ingest` of unchanged
+// files, which reads just the manifest, never pays for it.
+const requireHere = createRequire(import.meta.url);
+let flechette: typeof Flechette | null = null;
+const fl = (): typeof Flechette => (flechette ??= requireHere('@uwdata/flechette') as typeof Flechette);
 
 /** Column order in rows.arrow: run, seed, the axes, condition, metrics, status, provenance, extras. */
 export const STORE_COLUMNS = ['run', 'seed', 'width', 'epochs', 'train_size', 'label_noise', 'condition', 'test_error', 'train_error',
@@ -13,6 +20,7 @@ export const STORE_COLUMNS = ['run', 'seed', 'width', 'epochs', 'train_size', 'l
  */
 export function rowsToArrow(t: RowTable, sink?: { write(bytes: Uint8Array): void }, metadata?: Record<string, string>): Uint8Array | null {
   const data: [string, unknown[] | Float64Array | Int32Array][] = [];
+  const { columnFromArray, dictionary, float64, int32, tableFromArrays, tableFromColumns, tableToIPC, utf8 } = fl();
   const types: Record<string, ReturnType<typeof dictionary>> = {};
   for (const c of STORE_COLUMNS) {
     // Typed arrays without a declared type take flechette's zero-copy path (Int32 → int32, Float64 → float64).
@@ -41,7 +49,7 @@ export function rowsToArrow(t: RowTable, sink?: { write(bytes: Uint8Array): void
   // An empty table takes flechette's builder, which declares the types of empty columns.
   const table =
     t.length > 0
-      ? tableFromColumns(data.map(([name, col]) => [name, name in types ? dictionaryColumn(col as readonly string[]) : columnFromArray(col as Float64Array)] as [string, Column<unknown>]))
+      ? tableFromColumns(data.map(([name, col]) => [name, name in types ? dictionaryColumn(col as readonly string[]) : columnFromArray(col as Float64Array)] as [string, Flechette.Column<unknown>]))
       : // flechette's typings want plain arrays or typed arrays; ours are exactly that.
         tableFromArrays(data as [string, unknown[]][], { types });
   // Schema metadata (the store's commit id) is written into the file's schema and footer.
@@ -55,7 +63,8 @@ export function rowsToArrow(t: RowTable, sink?: { write(bytes: Uint8Array): void
 }
 
 /** A dictionary-encoded utf8 column (int32 keys, no nulls: a missing text is ""). */
-function dictionaryColumn(values: readonly string[]): Column<unknown> {
+function dictionaryColumn(values: readonly string[]): Flechette.Column<unknown> {
+  const { batchType, Column, columnFromValues, dictionary, int32, utf8 } = fl();
   const index = new Map<string, number>();
   const dict: string[] = [];
   const keys = new Int32Array(values.length);
@@ -94,12 +103,12 @@ export function rowsFromArrow(bytes: Uint8Array): RowTable {
 
 /** Decodes rows.arrow with the commit id it carries (null for files without one). */
 export function readRowsArrow(bytes: Uint8Array): { table: RowTable; commit: string | null } {
-  const table = tableFromIPC(bytes, { useBigInt: false });
+  const table = fl().tableFromIPC(bytes, { useBigInt: false });
   const commit = table.schema.metadata?.get(COMMIT_KEY) ?? null;
   return { table: rowsOf(table), commit };
 }
 
-function rowsOf(table: ReturnType<typeof tableFromIPC>): RowTable {
+function rowsOf(table: ReturnType<typeof Flechette.tableFromIPC>): RowTable {
   const names = table.schema.fields.map((f) => f.name);
   const canonical = new Set<string>(STORE_COLUMNS);
   const extraNames = names.filter((n) => !canonical.has(n));
@@ -137,7 +146,7 @@ interface DictBatch {
  * A text column as strings ("" for null). Dictionary batches without nulls are decoded straight
  * from their keys (one array lookup per row instead of a method call per row).
  */
-function textColumn(col: ReturnType<ReturnType<typeof tableFromIPC>['getChild']>): string[] {
+function textColumn(col: ReturnType<ReturnType<typeof Flechette.tableFromIPC>['getChild']>): string[] {
   const out = new Array<string>(col.length);
   let k = 0;
   for (const b of col.data as unknown as DictBatch[]) {
