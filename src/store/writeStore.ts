@@ -47,6 +47,13 @@ export function writeStore(opts: { dir: string; table: RowTable; manifest: Manif
       table,
       {
         write(b) {
+          // A large buffer (a whole number column) goes straight to the file: copying 100 MB
+          // into gather buffers cost more than the writes it saved.
+          if (b.byteLength >= 1 << 18) {
+            flush();
+            writeAll(fd, b);
+            return;
+          }
           parts.push(b);
           size += b.byteLength;
           if (size >= 1 << 20) flush();
