@@ -28,15 +28,15 @@ const ENTRY = new URL('./datlas-dist.mjs', import.meta.url).pathname;
 
 /**
  * Spawns `node [nodeArgs] bench/datlas-dist.mjs args` (the compiled CLI, as bin/datlas runs it
- * when dist/ is fresh) in cwd and waits for it. Under GNU time the child's
+ * when dist/ is fresh; `entry` points at another checkout's copy for A/B runs) in cwd and waits for it. Under GNU time the child's
  * peak RSS covers its worker threads (one process); the wrapper reports the same figure.
  */
-export async function measure(opts: { cwd: string; args: string[]; nodeArgs?: string[]; env?: NodeJS.ProcessEnv }): Promise<Sample> {
-  const { cwd, args, nodeArgs = [], env = process.env } = opts;
+export async function measure(opts: { cwd: string; args: string[]; nodeArgs?: string[]; env?: NodeJS.ProcessEnv; entry?: string }): Promise<Sample> {
+  const { cwd, args, nodeArgs = [], env = process.env, entry = ENTRY } = opts;
   const tmp = mkdtempSync(join(tmpdir(), 'datlas-bench-'));
   const out = join(tmp, 'usage');
   const cmd = haveGnuTime
-    ? [GNU_TIME, '-f', '%e %M %U %S', '-o', out, process.execPath, ...nodeArgs, ENTRY, ...args]
+    ? [GNU_TIME, '-f', '%e %M %U %S', '-o', out, process.execPath, ...nodeArgs, entry, ...args]
     : [process.execPath, ...nodeArgs, WRAPPER, out, ...args];
   const t0 = performance.now();
   const { code, stderr } = await new Promise<{ code: number; stderr: string }>((resolve, reject) => {

@@ -9,13 +9,15 @@
  *   npm run bench -- --profile           also profile (--cpu-prof) each step that misses its target
  *   npm run bench -- --label after       tag the results (bench/out/results-after.json as well)
  *   npm run bench -- --reps 5
+ *   npm run bench -- --cli-root /tmp/old --label before   the CLI of another checkout (A/B under the same load)
  *
  * Data goes to bench/work/ (generated, not committed), results to bench/out/results.json.
  */
 import { execFileSync } from 'node:child_process';
+import { copyFileSync } from 'node:fs';
 import { cpus, freemem, loadavg, totalmem, platform, release } from 'node:os';
 import { existsSync, mkdirSync, rmSync, writeFileSync } from 'node:fs';
-import { dirname, join } from 'node:path';
+import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { makeSweep, SWEEP_10M, SWEEP_1M } from './makeSweep.js';
 import { haveGnuTime, measure } from './measure.js';
@@ -39,6 +41,10 @@ const profile = has('--profile');
 const reps = Number(value('--reps') ?? 3);
 const label = value('--label') ?? '';
 const only = value('--only')?.split(',');
+/** Checkout whose CLI is measured (its dist/ is built and run); the workload stays under this one. */
+const cliRoot = value('--cli-root') ? resolve(value('--cli-root')!) : root;
+const entry = join(cliRoot, 'bench/datlas-dist.mjs');
+if (!existsSync(entry)) copyFileSync(join(root, 'bench/datlas-dist.mjs'), entry);
 
 interface Step {
   name: string;
@@ -78,8 +84,8 @@ const load1 = () => loadavg()[0];
 
 /** Rebuilds dist/ when a source is newer (others edit src/ while the bench runs). */
 function ensureBuilt(): void {
-  if (builtAt(root) >= newestSource(root)) return;
-  execFileSync(process.execPath, [join(root, 'scripts/build.mjs')], { cwd: root, stdio: 'inherit' });
+  if (builtAt(cliRoot) >= newestSource(cliRoot)) return;
+  execFileSync(process.execPath, [join(cliRoot, 'scripts/build.mjs')], { cwd: cliRoot, stdio: 'inherit' });
 }
 
 function fmtBytes(b: number): string {
@@ -94,7 +100,7 @@ async function runStep(step: Step): Promise<StepResult> {
     step.before?.();
     ensureBuilt();
     loads.push(load1());
-    const s = await measure({ cwd: root, args: step.args });
+    const s = await measure({ cwd: root, args: step.args, entry });
     if (s.code !== 0) {
       failed = `exit ${s.code}: ${s.stderr.trim().split('\n').slice(-3).join(' | ')}`;
       break;
@@ -118,7 +124,7 @@ async function runStep(step: Step): Promise<StepResult> {
     mkdirSync(dir, { recursive: true });
     step.before?.();
     ensureBuilt();
-    await measure({ cwd: root, args: step.args, nodeArgs: ['--cpu-prof', '--cpu-prof-dir', dir] });
+    await measure({ cwd: root, args: step.args, entry, nodeArgs: ['--cpu-prof', '--cpu-prof-dir', dir] });
     result.profile = summarizeProfiles(dir, 15);
     process.stderr.write(`${step.name} profile:\n${formatSummary(result.profile)}\n`);
   }
@@ -133,17 +139,18 @@ async function main(): Promise<void> {
   };
   let commit = '';
   try {
-    commit = execFileSync('git', ['rev-parse', '--short', 'HEAD'], { cwd: root, encoding: 'utf8' }).trim();
+    commit = execFileSync('git', ['rev-parse', '--short', 'HEAD'], { cwd: cliRoot, encoding: 'utf8' }).trim();
   } catch {
     // Not a git checkout: the results say so by an empty commit.
   }
   console.log(`descent-atlas bench  ${new Date().toISOString()}  ${machine.cores} × ${machine.cpu}, ${machine.memory}, node ${machine.node}`);
+  if (cliRoot !== root) console.log(`CLI measured: ${cliRoot} (commit ${commit || 'unknown'})`);
   console.log(`load average at start: ${loadStart.map((l) => l.toFixed(2)).join(' ')}`);
   if (loadStart[0] > 1.5) console.log(`warning: load average ${loadStart[0].toFixed(2)} > 1.5 — other work shares the cores; wall times are inflated`);
 
   mkdirSync(work, { recursive: true });
   mkdirSync(outDir, { recursive: true });
-  execFileSync(process.execPath, [join(root, 'scripts/build.mjs')], { cwd: root, stdio: 'inherit' });
+  ensureBuilt();
 
   const want = (name: string) => !only || only.includes(name);
   const needs1m = ['ingest', 'reingest', 'map'].some(want);
@@ -164,7 +171,7 @@ async function main(): Promise<void> {
     steps.push({
       name: 'reingest', what: 're-ingest, nothing changed', args: ['ingest', sweep1m, '--store', store, '--quiet'], rows: 0, reps, target: { wall: 0.3 },
       before: () => {
-        if (!existsSync(join(store, 'manifest.json'))) execFileSync(process.execPath, ['bench/datlas-dist.mjs', 'ingest', sweep1m, '--store', store, '--quiet'], { cwd: root });
+        if (!existsSync(join(store, 'manifest.json'))) execFileSync(process.execPath, [entry, 'ingest', sweep1m, '--store', store, '--quiet'], { cwd: root });
       },
     });
   }
@@ -176,7 +183,7 @@ async function main(): Promise<void> {
       rows: 1_000_000, reps, target: { wall: 1.5 },
       before: () => {
         fresh(mapOut)();
-        if (!existsSync(join(store, 'manifest.json'))) execFileSync(process.execPath, ['bench/datlas-dist.mjs', 'ingest', sweep1m, '--store', store, '--quiet'], { cwd: root });
+        if (!existsSync(join(store, 'manifest.json'))) execFileSync(process.execPath, [entry, 'ingest', sweep1m, '--store', store, '--quiet'], { cwd: root });
       },
     });
   }
@@ -220,7 +227,7 @@ async function main(): Promise<void> {
   console.log(`\nload average at end: ${loadEnd.map((l) => l.toFixed(2)).join(' ')}${loadEnd[0] > 1.5 ? ' (machine busy: figures noisy)' : ''}`);
   console.log('cpu s = user + system seconds of the child (above the wall time: more than one core worked)');
 
-  const json = { date: new Date().toISOString(), label, commit, machine, loadStart, loadEnd, steps: results };
+  const json = { date: new Date().toISOString(), label, commit, cliRoot, machine, loadStart, loadEnd, steps: results };
   writeFileSync(join(outDir, 'results.json'), `${JSON.stringify(json, null, 2)}\n`);
   if (label) writeFileSync(join(outDir, `results-${label}.json`), `${JSON.stringify(json, null, 2)}\n`);
   console.log(`wrote ${join('bench/out', 'results.json')}${label ? ` and bench/out/results-${label}.json` : ''}`);
