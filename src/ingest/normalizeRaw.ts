@@ -302,7 +302,8 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
       const b = badSources[badAt[i]];
       const cell = text(cellAt(raw.columns[b.j], i));
       const hint = notNumberHint(cell);
-      reject(i, b.field, hint === null ? ingestText.notANumber(cell) : 'unit' in hint ? ingestText.withUnit(cell, hint.unit) : ingestText.decimalComma(cell));
+      const shown = oneLine(cell);
+      reject(i, b.field, hint === null ? ingestText.notANumber(shown) : 'unit' in hint ? ingestText.withUnit(shown, hint.unit) : ingestText.decimalComma(shown));
       continue;
     }
     const width = Vw[i];
@@ -450,9 +451,16 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
   return { table, rejects, read: n - skipped + (raw.pendingLine ? 1 : 0), pending: raw.pendingLine ? 1 : 0, mapping, notes };
 }
 
-/** Column names in messages: a header can hold a megabyte-long "name". */
+/** Column names in messages: a header can hold a megabyte-long "name" (or line breaks, when quoted). */
 function clip(name: string): string {
-  return name.length > 80 ? `${name.slice(0, 80)}…` : name;
+  const s = oneLine(name);
+  return s.length > 80 ? `${s.slice(0, 80)}…` : s;
+}
+
+/** Cell text in a one-line message: line breaks and other control characters written as escapes. */
+function oneLine(s: string): string {
+  // eslint-disable-next-line no-control-regex
+  return /[\u0000-\u001f\u007f]/.test(s) ? s.replace(/[\u0000-\u001f\u007f]/g, (c) => JSON.stringify(c).slice(1, -1)) : s;
 }
 
 /**
