@@ -43,8 +43,8 @@ const coreCell = [
   fc.double({ min: 0, max: 1, noNaN: true }).map((x) => x.toFixed(4)),
 ];
 const plausibleRow = (extra: number) =>
-  fc.tuple(...coreCell.map((c) => fc.oneof({ weight: 9, arbitrary: c }, { weight: 1, arbitrary: cell })), fc.array(cell, { minLength: extra, maxLength: extra }))
-    .map(([a, b, c, rest]) => [a, b, c, ...rest]);
+  fc.tuple(fc.tuple(...coreCell.map((c) => fc.oneof({ weight: 9, arbitrary: c }, { weight: 1, arbitrary: cell }))), fc.array(cell, { minLength: extra, maxLength: extra }))
+    .map(([core, rest]): string[] => [...core, ...rest]);
 const csvRows = header.chain((extraNames) => {
   const names = [...CORE, ...extraNames.filter((x) => !CORE.includes(x))];
   const row = fc.oneof({ weight: 9, arbitrary: plausibleRow(names.length - 3) }, { weight: 1, arbitrary: fc.array(cell, { maxLength: 9 }) });
