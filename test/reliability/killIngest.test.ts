@@ -9,7 +9,7 @@ import { checkStore, leftovers, prng, spawnCli, writeLog } from './storeCheck.js
 // lock; a killed ingest leaves the old store or the new one, never a corrupt one). Each round adds
 // a log and ingests the whole folder; the next round's ingest must clear the stale lock and pick
 // up whatever the killed one did not commit. Run `node scripts/build.mjs` first for speed.
-const ROUNDS = 36;
+const ROUNDS = 45;
 let dir = '';
 beforeAll(() => {
   dir = mkdtempSync(join(tmpdir(), 'datlas-kill-'));
@@ -40,11 +40,13 @@ describe('kill -9 during ingest', () => {
     for (let round = 0; round < ROUNDS; round++) {
       total += writeLog(join(logs, `r${String(round).padStart(2, '0')}.csv`), `r${round}`, 4, 100);
       const before = state.rows;
-      // Even rounds: a moment anywhere in the ingest. Odd rounds: inside the write, a moment after
-      // the first new store file appears (the part a random moment rarely hits).
-      const inWrite = round % 2 === 1;
-      const killAfterMs = Math.round(rand() * (inWrite ? 80 : span));
-      const kill = inWrite ? { killOnFile: { dir: store, match: /\.tmp-\d+-/, afterMs: killAfterMs }, killAfterMs: 5000 } : { killAfterMs };
+      // A third of the rounds: a moment anywhere in the ingest. A third: inside the write, up to
+      // 25 ms after the first new store file appears. A third: inside the commit, up to 3 ms after
+      // the commit log appears (the few milliseconds a random moment rarely hits).
+      const mode = (['anywhere', 'write', 'commit'] as const)[round % 3];
+      const killAfterMs = Math.round(rand() * (mode === 'anywhere' ? span : mode === 'write' ? 25 : 3));
+      const match = mode === 'write' ? /\.tmp-\d+-/ : /^commit\.json/;
+      const kill = mode === 'anywhere' ? { killAfterMs } : { killOnFile: { dir: store, match, afterMs: killAfterMs }, killAfterMs: 5000 };
       const child = await spawnCli(['ingest', logs, '--store', store, '--quiet', '--wait', '60'], kill);
       if (child.signal !== 'SIGKILL') {
         expect(child.code, child.stderr).toBe(0);
@@ -55,7 +57,7 @@ describe('kill -9 during ingest', () => {
       if (left.includes('commit.json')) outcome.halfCommitted++;
       state = await checkStore(store);
       // Old store, or the new one holding every log in the folder: nothing in between.
-      expect([before, total], `round ${round} killed ${killAfterMs} ms after ${inWrite ? 'the write began' : 'the start'}`).toContain(state.rows);
+      expect([before, total], `round ${round} killed ${killAfterMs} ms after ${mode === 'anywhere' ? 'the start' : `the ${mode} began`}`).toContain(state.rows);
       expect(state.acceptedSum).toBe(state.rows);
       if (state.rows === total) outcome.new++;
       else outcome.old++;
