@@ -58,7 +58,8 @@ export function walkInputs(paths: readonly string[], opts: { skip?: readonly str
       missing.push({ path: dir, reason: (err as NodeJS.ErrnoException).code ?? (err as Error).message });
       return;
     }
-    if (names.includes('manifest.json') && names.includes('rows.arrow')) return; // a store, not logs
+    // A store, not logs (commit.json alone: a first write cut short before its renames).
+    if ((names.includes('manifest.json') && names.includes('rows.arrow')) || names.includes('commit.json')) return;
     const files: string[] = [];
     const dirs: string[] = [];
     const stats = new Map<string, { size: number; mtimeMs: number }>();
