@@ -236,8 +236,16 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
       K[t] = p.kind;
     } else {
       const c = constNum[t];
-      V[t] = new Float64Array(n).fill(c ? c.value : NaN);
-      K[t] = new Uint8Array(n).fill(c ? c.kind : CELL_MISSING);
+      if (c) {
+        V[t] = new Float64Array(n).fill(c.value);
+        K[t] = new Uint8Array(n).fill(c.kind);
+      } else {
+        // Absent targets share one read-only pair of arrays (most logs lack half the targets, and
+        // typed-array allocations were the single hottest line of ingest).
+        const a = absentColumns(n);
+        V[t] = a.values;
+        K[t] = a.kind;
+      }
     }
   }
   // The first unparseable cell of each row, found column by column.
@@ -511,6 +519,13 @@ function curveNotes(t: RowTable, ctx: { source: string; notes: string[]; mapping
       ctx.notes.push(ingestText.risingError(ctx.source, clip(name), col, rising, runs, fromError !== undefined ? acc : col));
     }
   }
+}
+
+/** NaN values and CELL_MISSING kinds of length n, reused while n repeats (never written to). */
+let absent: { values: Float64Array; kind: Uint8Array } | null = null;
+function absentColumns(n: number): { values: Float64Array; kind: Uint8Array } {
+  if (!absent || absent.values.length !== n) absent = { values: new Float64Array(n).fill(NaN), kind: new Uint8Array(n).fill(CELL_MISSING) };
+  return absent;
 }
 
 export function formatCondition(pairs: [string, string][]): string {
