@@ -59,23 +59,28 @@ function markHeaderLines(raw: RawTable): void {
   const width = raw.names.length;
   if (width === 0 || raw.length === 0) return;
   const col0 = raw.columns[0];
-  const candidates: number[] = [];
-  if (col0 instanceof NumTextColumn) for (const i of col0.texts.keys()) candidates.push(i);
-  else for (let i = 0; i < raw.length; i++) if (typeof col0[i] === 'string') candidates.push(i);
-  if (candidates.length === 0) return;
-  candidates.sort((a, b) => a - b);
+  // Rows whose first cell is text, in row order (a column's texts are kept in the order read).
+  let candidates: Iterable<number>;
+  if (col0 instanceof NumTextColumn) {
+    if (col0.texts.size === 0) return;
+    candidates = col0.texts.keys();
+  } else {
+    const rows: number[] = [];
+    for (let i = 0; i < raw.length; i++) if (typeof col0[i] === 'string') rows.push(i);
+    candidates = rows;
+  }
   const text = (j: number, i: number): string | null => {
     const v = cellAt(raw.columns[j], i);
     return typeof v === 'string' && v.trim() !== '' && Number.isNaN(Number(v)) ? v.trim() : null;
   };
   const headerNames = new Set(raw.names);
   const kind = (i: number): 'repeat' | 'other' | null => {
-    if (text(0, i) === null) return null;
     // Any number in the row makes it a data row (checked first: the common, cheap answer).
     for (let j = 1; j < width; j++) {
       const v = cellAt(raw.columns[j], i);
       if (typeof v === 'number' ? !Number.isNaN(v) : v !== undefined && v !== null && String(v).trim() !== '' && !Number.isNaN(Number(v))) return null;
     }
+    if (text(0, i) === null) return null;
     let same = !raw.rowErrors.has(i);
     let named = 0;
     for (let j = 0; j < width; j++) {
