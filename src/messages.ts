@@ -107,6 +107,8 @@ export const storeText = {
     `store ${dir} is locked by another ingest${pid ? ` (pid ${pid})` : ''}; waited ${seconds} s. Try again when it finishes, or raise --wait`,
   cannotLock: (dir: string, why: string) => `cannot lock store ${dir}: ${why}`,
   cannotRecover: (dir: string, why: string) => `store ${dir}: cannot finish the write an interrupted ingest left: ${why}`,
+  mixedWrites: (dir: string) =>
+    `store ${dir}: rows.arrow and manifest.json come from different writes (a file copied in by hand?); move the store aside and ingest the logs again`,
 };
 
 // ── simulate ─────────────────────────────────────────────────────────────────

@@ -73,7 +73,9 @@ export async function readStore(dir: string): Promise<{ table: RowTable; manifes
     }
     const sameCommit = manifest.commit === undefined || commit === null ? true : manifest.commit === commit;
     if (sameCommit && table.length === manifest.rows) return { table, manifest };
-    if (attempt >= 20) throw new UserError(storeText.inconsistent(dir, manifest.rows, table.length));
+    if (attempt >= 20) {
+      throw new UserError(table.length === manifest.rows ? storeText.mixedWrites(dir) : storeText.inconsistent(dir, manifest.rows, table.length));
+    }
     await new Promise((r) => setTimeout(r, 50));
   }
 }
