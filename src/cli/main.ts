@@ -7,6 +7,8 @@ import type { CommandSpec } from './CommandSpec.js';
 /**
  * Command registry. Each entry loads its module only when that command runs (or its --help is
  * asked for), so `datlas --help` never pays for heavy imports. Keep one line per command.
+ * `CommandSpec<any>`: each command types its own arguments; the registry only passes yargs'
+ * parsed object through, so it erases them on purpose.
  */
 const COMMANDS: Record<string, { describe: string; load: () => Promise<{ command: CommandSpec<any> }> }> = {
   // registry:start (one line per command, keep alphabetical)
