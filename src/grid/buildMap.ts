@@ -55,6 +55,43 @@ export function parseCondition(condition: string): Map<string, string> {
 
 const sameNumber = (a: number, b: number) => a === b || Math.abs(a - b) <= 1e-9 * Math.max(Math.abs(a), Math.abs(b));
 
+// The row loops below run over every row of the store. As small functions of their own they are
+// compiled to machine code after a few thousand iterations; inside buildMap (called once per
+// command) they stayed in the slower tiers for most of a million rows.
+
+/** Rows with a finite metric or a diverged mark. */
+function informativeRows(metric: Float64Array, status: readonly string[]): number[] {
+  const rows: number[] = [];
+  for (let i = 0; i < metric.length; i++) if (Number.isFinite(metric[i]) || status[i] === 'diverged') rows.push(i);
+  return rows;
+}
+
+/** Adds the count of each value over `rows`, one map update per stretch of equal values (rows of a run are contiguous). */
+function countStretches(rows: readonly number[], col: Float64Array | ((i: number) => number | string), counts: Map<number | string, number>): void {
+  const fn = typeof col === 'function' ? col : null;
+  const arr = typeof col === 'function' ? null : col;
+  let cur: number | string | undefined;
+  let run = 0;
+  for (let r = 0; r < rows.length; r++) {
+    const v = arr ? arr[rows[r]] : fn!(rows[r]);
+    if (run > 0 && v === cur) {
+      run++;
+      continue;
+    }
+    if (run > 0) counts.set(cur!, (counts.get(cur!) ?? 0) + run);
+    cur = v;
+    run = 1;
+  }
+  if (run > 0) counts.set(cur!, (counts.get(cur!) ?? 0) + run);
+}
+
+/** The rows whose value in `col` is `v` (up to rounding). */
+function rowsNear(rows: readonly number[], col: Float64Array, v: number): number[] {
+  const out: number[] = [];
+  for (let r = 0; r < rows.length; r++) if (sameNumber(col[rows[r]], v)) out.push(rows[r]);
+  return out;
+}
+
 function fitMethod(method: MethodName, p: ScatterPoints): FittedField {
   if (method === 'linear') return linearField(p);
   if (method === 'thin-plate') return thinPlateField(p);
@@ -160,8 +197,7 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
 
   // Rows that carry information: a finite metric, or a diverged mark.
   const metricCol = table[metric];
-  let rows: number[] = [];
-  for (let i = 0; i < table.length; i++) if (Number.isFinite(metricCol[i]) || table.status[i] === 'diverged') rows.push(i);
+  let rows: number[] = informativeRows(metricCol, table.status);
   if (rows.length === 0) throw new UserError(msg.noMetric(metric));
   for (const [key, want] of Object.entries(at)) {
     if (!isKey(key)) continue;
@@ -194,21 +230,7 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
       }
     } else {
       const counts = new Map<number | string, number>();
-      // Counted per stretch of equal values (rows of a run are contiguous): a map update per stretch, not per row.
-      let cur: number | string | undefined;
-      let run = 0;
-      const col = name === 'condition' ? null : table[name];
-      for (const i of rows) {
-        const v = col ? col[i] : valueOf(i);
-        if (run > 0 && v === cur) {
-          run++;
-          continue;
-        }
-        if (run > 0) counts.set(cur!, (counts.get(cur!) ?? 0) + run);
-        cur = v;
-        run = 1;
-      }
-      if (run > 0) counts.set(cur!, (counts.get(cur!) ?? 0) + run);
+      countStretches(rows, name === 'condition' ? valueOf : table[name], counts);
       let best: number | string | undefined;
       let bestCount = -1;
       for (const [v, c] of counts) {
@@ -229,7 +251,7 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
       const v = value;
       // Numeric axes read their column directly (this runs over every row of the store).
       const col = name === 'condition' ? null : table[name];
-      rows = col && typeof v === 'number' ? rows.filter((i) => sameNumber(col[i], v)) : rows.filter((i) => (typeof v === 'number' ? sameNumber(valueOf(i) as number, v) : valueOf(i) === v));
+      rows = col && typeof v === 'number' ? rowsNear(rows, col, v) : rows.filter((i) => (typeof v === 'number' ? sameNumber(valueOf(i) as number, v) : valueOf(i) === v));
     }
   }
 
