@@ -4,8 +4,11 @@
 // (including its freshness check, so start-up costs the same).
 import { builtAt, newestSource } from '../scripts/freshness.mjs';
 import { fileURLToPath } from 'node:url';
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
 void (builtAt(root) >= newestSource(root));
-const { main } = await import('../dist/src/cli/main.js');
+// The bundle when the build made one (as bin/datlas); a checkout from before bundling has none.
+const { main } = existsSync(join(root, 'dist/bundle/main.js')) ? await import('../dist/bundle/main.js') : await import('../dist/src/cli/main.js');
 process.exitCode = await main(process.argv.slice(2));
