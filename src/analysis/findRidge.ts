@@ -34,6 +34,26 @@ export interface RidgeOptions {
 
 type RidgeMap = Pick<SweepMap, 'kind' | 'x' | 'y' | 'cells' | 'fixed' | 'metric'>;
 
+/** Prominence in standard errors of the peak-minus-base difference. */
+function zIn(v: SeriesView, lp: LocalPeak): number {
+  const se = v.pairSe(lp.index, lp.keyBase);
+  return se > 0 ? lp.prominence / se : lp.prominence > 0 ? Infinity : 0;
+}
+
+/** The tallest bump of a series in SE units: the statistic of the look-elsewhere check. */
+function tallestZ(v: SeriesView): number {
+  let best = 0;
+  for (const lp of localPeaks(v.means)) best = Math.max(best, zIn(v, lp));
+  return best;
+}
+
+/** FNV-1a of a string: a 32-bit number for seeding a random stream from a noise shape. */
+function hashKey(key: string): number {
+  let h = 0x811c9dc5;
+  for (let i = 0; i < key.length; i++) h = Math.imul(h ^ key.charCodeAt(i), 0x01000193);
+  return h >>> 0;
+}
+
 /** Peak location in transformed x: parabola through the cell and its two neighbours, clipped to that bracket. */
 function refine(u: readonly number[], m: ArrayLike<number>, k: number): number {
   if (k <= 0 || k >= u.length - 1) return u[k];
@@ -75,6 +95,20 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
     row.push({ x: mc.x, cell: mc.cell });
   }
   const ys = [...new Set([...map.y.values, ...byY.keys()])].sort((a, b) => a - b);
+  // Rows with the same noise shape (seeds per cell, or coordinates for curve noise) share one
+  // simulated null distribution (the simulation dominated the run time, 71 rows × 1,000 rows of
+  // noise). Its random stream is seeded by the shape, so a row's p-value does not depend on
+  // which other rows exist or come first.
+  const nullByShape = new Map<string, (observed: number) => number>();
+  const searchWide = (noise: ReturnType<typeof seriesNoise>) => {
+    let pOf = nullByShape.get(noise.nullKey);
+    if (!pOf) {
+      const rng = seededRng(deriveSeed(seed ^ 0x27d4eb2f, hashKey(noise.nullKey)));
+      pOf = searchWideP({ noise, rounds: nullRounds, rng, maxStat: tallestZ });
+      nullByShape.set(noise.nullKey, pOf);
+    }
+    return pOf;
+  };
 
   const rows: RidgeRow[] = ys.map((y, rowIndex) => {
     const all = (byY.get(y) ?? []).filter((p) => Number.isFinite(tx.to(p.x))).sort((a, b) => a.x - b.x);
@@ -92,30 +126,16 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
     const row: RidgeRow = { y, peak: null, others: [], threshold, thresholdAtEdge: crossing?.atEdge ?? false, ratio: null, noiseFrom: noise.from, noiseSd: noise.sd, insideNoise: null };
     if (pts.length < 3) return row;
 
-    // Prominence in standard errors of the peak-minus-base difference.
-    const zIn = (v: SeriesView, lp: LocalPeak): number => {
-      const se = v.pairSe(lp.index, lp.keyBase);
-      return se > 0 ? lp.prominence / se : lp.prominence > 0 ? Infinity : 0;
-    };
     const zOf = (lp: LocalPeak) => zIn(noise, lp);
     const scored = localPeaks(means).map((lp) => ({ lp, z: zOf(lp), p: NaN }));
-    // One random stream per row: the same seed gives the same answer whatever other rows exist.
+    // One bootstrap stream per row: the same seed gives the same answer whatever other rows exist.
     const rng = seededRng(deriveSeed(seed, rowIndex));
     const rep = new Float64Array(means.length);
     const tall = scored.filter((s) => s.z >= minProminence);
     if (tall.length > 0 && alpha < 1 && nullRounds > 0 && Number.isFinite(noise.sd)) {
       // Look-elsewhere check: the tallest of a row's several noise bumps clears 2 SE far more
       // often than one comparison would; compare with the tallest bump of simulated flat rows.
-      const pOf = searchWideP({
-        noise,
-        rounds: nullRounds,
-        rng,
-        maxStat: (v) => {
-          let best = 0;
-          for (const lp of localPeaks(v.means)) best = Math.max(best, zIn(v, lp));
-          return best;
-        },
-      });
+      const pOf = searchWide(noise);
       for (const s of tall) s.p = pOf(s.z);
     }
     const passes = (s: { z: number; p: number }) => s.z >= minProminence && !(s.p >= alpha);

@@ -25,6 +25,11 @@ export interface SeriesNoise extends SeriesView {
    * statistic in SE units computed on it has the null distribution of the observed statistic.
    */
   nullSeries(rng: Rng): SeriesView;
+  /**
+   * What nullSeries depends on (seeds per cell, or the coordinates for a curve estimate): noise
+   * models with equal keys have the same null distribution, so one simulation can serve them all.
+   */
+  nullKey: string;
 }
 
 function median(sorted: ArrayLike<number>): number {
@@ -95,6 +100,7 @@ export function seriesNoise(cells: readonly Cell[], u: ArrayLike<number>): Serie
       df: view.df,
       means,
       pairSe: view.pairSe,
+      nullKey: `seeds:${n.join(',')}`,
       nullSeries(rng) {
         // Homoscedastic unit Gaussian seeds: the SE-scaled statistics are scale-free.
         const m = new Float64Array(L);
@@ -135,6 +141,7 @@ export function seriesNoise(cells: readonly Cell[], u: ArrayLike<number>): Serie
     df: 0,
     means,
     pairSe: view.pairSe,
+    nullKey: `curve:${Array.from(u).join(',')}`,
     nullSeries(rng) {
       const m = new Float64Array(L);
       for (let i = 0; i < L; i++) m[i] = rng.normal();
