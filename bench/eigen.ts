@@ -5,16 +5,11 @@
  */
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { eigenBasis, symmetricEigen } from '../src/simulate/symmetricEigen.js';
+import { mulberry32 } from '../src/random/mulberry32.js';
 
 function randomSymmetric(n: number, seed: number): Float64Array {
-  let s = seed >>> 0;
-  const rand = () => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296 - 0.5;
-  };
+  const u = mulberry32(seed);
+  const rand = () => u() - 0.5;
   const a = new Float64Array(n * n);
   for (let i = 0; i < n; i++)
     for (let j = 0; j <= i; j++) {

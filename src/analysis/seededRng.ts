@@ -1,3 +1,5 @@
+import { mulberry32 } from '../random/mulberry32.js';
+
 /** A small deterministic random source: same seed, same stream on every machine. */
 export interface Rng {
   /** Uniform on [0, 1). */
@@ -13,14 +15,7 @@ export interface Rng {
  * bootstrap resampling; results must be reproducible, not cryptographic.
  */
 export function seededRng(seed: number): Rng {
-  let s = (Math.floor(seed) ^ 0x9e3779b9) >>> 0;
-  const next = (): number => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+  const next = mulberry32((Math.floor(seed) ^ 0x9e3779b9) >>> 0);
   let spare: number | null = null;
   return {
     next,

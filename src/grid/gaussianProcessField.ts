@@ -1,6 +1,7 @@
 import type { FittedField, GridField, ScatterPoints } from './Interpolator.js';
 import { cholesky, choleskyInverseDiagonal, choleskyLogDet, choleskySolve, forwardSolve, forwardSolveMany } from './linalg.js';
 import { nelderMead } from './nelderMead.js';
+import { mulberry32 } from '../random/mulberry32.js';
 
 /** Hyper-parameters are fitted on at most this many points (a fixed-seed random subset beyond it). */
 export const GP_FIT_SUBSET = 256;
@@ -38,18 +39,6 @@ export interface GpOptions {
 export function matern52(r: number): number {
   const s = Math.sqrt(5) * r;
   return (1 + s + (s * s) / 3) * Math.exp(-s);
-}
-
-/** Deterministic pseudo-random numbers (mulberry32) so fits are reproducible. */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }
 
 interface Data {

@@ -1,6 +1,7 @@
 import type { Cell, SeedStats } from '../../src/cells/Cell.js';
 import type { MapAxis, MapCell, SweepMap } from '../../src/grid/SweepMap.js';
 import type { Metric } from '../../src/store/RowTable.js';
+import { mulberry32 } from '../../src/random/mulberry32.js';
 
 /** Seed statistics computed directly (test-side, independent of src/cells). */
 export function stats(values: readonly number[]): SeedStats {
@@ -66,14 +67,7 @@ export function makeMap(opts: {
 
 /** mulberry32 + Box–Muller, test-side, so the tests do not reuse the code under test for their data. */
 export function testRng(seed: number): { u: () => number; z: () => number } {
-  let s = seed >>> 0;
-  const u = () => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+  const u = mulberry32(seed);
   const z = () => Math.sqrt(-2 * Math.log(1 - u())) * Math.cos(2 * Math.PI * u());
   return { u, z };
 }

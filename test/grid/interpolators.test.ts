@@ -5,18 +5,10 @@ import { cholesky, forwardSolve } from '../../src/grid/linalg.js';
 import type { FittedField, ScatterPoints } from '../../src/grid/Interpolator.js';
 import { linearField } from '../../src/grid/linearField.js';
 import { THIN_PLATE_GLOBAL_MAX, thinPlateField } from '../../src/grid/thinPlateField.js';
+import { mulberry32 } from '../../src/random/mulberry32.js';
 
 /** Deterministic uniform numbers (mulberry32) so failures reproduce. */
-function rng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const rng = mulberry32;
 
 function scatter(n: number, f: (x: number, y: number) => number, seed = 1, noise: number | null = null): ScatterPoints {
   const r = rng(seed);

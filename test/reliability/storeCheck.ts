@@ -7,20 +7,12 @@ import { tableFromIPC } from 'apache-arrow';
 import { readStore } from '../../src/store/readStore.js';
 import type { RowTable } from '../../src/store/RowTable.js';
 import type { Manifest } from '../../src/store/Manifest.js';
+import { mulberry32 } from '../../src/random/mulberry32.js';
 
 export const BIN = fileURLToPath(new URL('../../bin/datlas', import.meta.url));
 
-/** Deterministic pseudo-random numbers (mulberry32), so a failing run can be replayed. */
-export function prng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** Deterministic pseudo-random numbers, so a failing run can be replayed. */
+export const prng = mulberry32;
 
 /** A CSV log of `runs` runs × `epochs` epochs whose run ids start with `prefix`. */
 export function writeLog(path: string, prefix: string, runs: number, epochs: number): number {
