@@ -7,13 +7,12 @@ export function writeAll(fd: number, bytes: Uint8Array): void {
   while (off < bytes.byteLength) off += writeSync(fd, bytes, off, bytes.byteLength - off);
 }
 
-/**
- * Writes a file beside its target, fsyncs it, renames it over the target and fsyncs the folder.
- * `data` may be a function that writes to the open file (streaming large content).
- */
-export function atomicWrite(path: string, data: Uint8Array | string | ((fd: number) => void)): void {
-  const tmp = `${path}.tmp-${process.pid}`;
-  const fd = openSync(tmp, 'w');
+/** File content: bytes, text, or a function that writes to the open file (streaming large content). */
+export type FileData = Uint8Array | string | ((fd: number) => void);
+
+/** Writes `data` to `path` (created or truncated) and fsyncs it before closing. */
+export function writeSynced(path: string, data: FileData): void {
+  const fd = openSync(path, 'w');
   try {
     if (typeof data === 'function') data(fd);
     else writeAll(fd, typeof data === 'string' ? Buffer.from(data, 'utf8') : data);
@@ -21,6 +20,12 @@ export function atomicWrite(path: string, data: Uint8Array | string | ((fd: numb
   } finally {
     closeSync(fd);
   }
+}
+
+/** Writes a file beside its target, fsyncs it, renames it over the target and fsyncs the folder. */
+export function atomicWrite(path: string, data: FileData): void {
+  const tmp = `${path}.tmp-${process.pid}`;
+  writeSynced(tmp, data);
   renameSync(tmp, path);
   try {
     const dfd = openSync(dirname(path), 'r');

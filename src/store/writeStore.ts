@@ -1,24 +1,13 @@
-import { closeSync, fsyncSync, mkdirSync, openSync } from 'node:fs';
+import { mkdirSync } from 'node:fs';
 import { randomBytes } from 'node:crypto';
 import type { RowTable } from './RowTable.js';
 import type { Manifest } from './Manifest.js';
 import type { Reject } from '../ingest/normalizeRaw.js';
-import { writeAll } from './atomicWrite.js';
+import { writeAll, writeSynced } from './atomicWrite.js';
 import { formatRejected } from './rejectedCsv.js';
 import { COMMIT_KEY, rowsToArrow } from './rowsArrow.js';
 import { storeFiles } from './storeFiles.js';
 import { commitFiles, tmpName } from './storeCommit.js';
-
-function writeFile(path: string, data: Uint8Array | string | ((fd: number) => void)): void {
-  const fd = openSync(path, 'w');
-  try {
-    if (typeof data === 'function') data(fd);
-    else writeAll(fd, typeof data === 'string' ? Buffer.from(data, 'utf8') : data);
-    fsyncSync(fd);
-  } finally {
-    closeSync(fd);
-  }
-}
 
 /**
  * Writes a store (call under its lock). The three files are written beside their targets, then
@@ -32,8 +21,8 @@ export function writeStore(opts: { dir: string; table: RowTable; manifest: Manif
   const f = storeFiles(dir);
   const commit = randomBytes(8).toString('hex');
   const tmp = { rejected: tmpName(f.rejected, commit), rows: tmpName(f.rows, commit), manifest: tmpName(f.manifest, commit) };
-  writeFile(tmp.rejected, formatRejected(rejected));
-  writeFile(tmp.rows, (fd) => {
+  writeSynced(tmp.rejected, formatRejected(rejected));
+  writeSynced(tmp.rows, (fd) => {
     // Small chunks are gathered so the file gets few large writes.
     let parts: Uint8Array[] = [];
     let size = 0;
@@ -63,7 +52,7 @@ export function writeStore(opts: { dir: string; table: RowTable; manifest: Manif
     );
     flush();
   });
-  writeFile(tmp.manifest, `${JSON.stringify({ ...manifest, commit, rows: table.length, extra: Object.keys(table.extra) }, null, 2)}\n`);
+  writeSynced(tmp.manifest, `${JSON.stringify({ ...manifest, commit, rows: table.length, extra: Object.keys(table.extra) }, null, 2)}\n`);
   commitFiles(dir, commit, [
     { tmp: tmp.rejected, target: f.rejected },
     { tmp: tmp.rows, target: f.rows },
