@@ -91,8 +91,13 @@ function countStretches(rows: readonly number[], col: Float64Array | ((i: number
 
 /** The rows whose value in `col` is `v` (up to rounding). */
 function rowsNear(rows: readonly number[], col: Float64Array, v: number): number[] {
-  const out: number[] = [];
-  for (let r = 0; r < rows.length; r++) if (sameNumber(col[rows[r]], v)) out.push(rows[r]);
+  // Counted, then filled (as informativeRows): often nearly every row matches.
+  let count = 0;
+  for (let r = 0; r < rows.length; r++) if (sameNumber(col[rows[r]], v)) count++;
+  if (count === rows.length) return rows.slice();
+  const out = new Array<number>(count);
+  let k = 0;
+  for (let r = 0; r < rows.length; r++) if (sameNumber(col[rows[r]], v)) out[k++] = rows[r];
   return out;
 }
 
