@@ -29,7 +29,7 @@ if (force || builtAt(root) < newestSource(root)) {
  * parallelSweep find their worker as `./parseWorker.js` / `./sweepWorker.js` next to the code that
  * starts it, and chunks sit in the same folder). vega and vega-lite are bundled too, as chunks
  * loaded only by the commands that draw (their hundreds of small modules cost ~0.3 s to load one
- * by one); canvas (native), the Arrow readers, arquero and yaml stay external and load on use; the
+ * by one); canvas (native), the Arrow readers and yaml stay external and load on use; the
  * commands stay separate chunks so `--help` loads none of them. Without esbuild
  * (a production install) or on a bundling error the bundle is removed and dist/src is used.
  */
@@ -49,7 +49,7 @@ async function bundle() {
       target: 'node20',
       chunkNames: 'chunk-[hash]',
       sourcemap: true,
-      external: ['canvas', 'arquero', 'apache-arrow', '@uwdata/flechette', 'yaml', 'tsx', 'esbuild'],
+      external: ['canvas', 'apache-arrow', '@uwdata/flechette', 'yaml', 'tsx', 'esbuild'],
       // Bundled CommonJS dependencies (cli-progress, @stdlib) call require() for Node built-ins.
       banner: { js: "import { createRequire as __datlasRequire } from 'node:module'; const require = __datlasRequire(import.meta.url);" },
       logLevel: 'error',

@@ -8,7 +8,7 @@ export interface GlobalOptions {
 }
 
 /**
- * One datlas command. The module that exports it must stay light (no vega, canvas, arquero or
+ * One datlas command. The module that exports it must stay light (no vega, canvas or
  * arrow at top level) so `datlas --help` is fast: import heavy libraries inside `run`.
  */
 export interface CommandSpec<A = Record<string, unknown>> {
