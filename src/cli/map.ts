@@ -105,7 +105,7 @@ export const command: CommandSpec<MapArgs> = {
       .option('ridge', { type: 'boolean', default: true, describe: 'also locate the double-descent ridge and put it in the file (--no-ridge skips)' })
       .option('store', { type: 'string', default: 'atlas-store', describe: 'store directory' })
       .option('out', { type: 'string', default: '.', describe: 'directory the map files go to' })
-      .option('format', { type: 'string', default: 'json', describe: `comma-separated output formats; available now: ${FORMATS.join(', ')} (images come with their vega-lite spec, .vl.json)` }),
+      .option('format', { type: 'string', default: 'json', describe: `comma-separated output formats: ${FORMATS.join(', ')} (images come with their vega-lite spec, .vl.json)` }),
   async run(args) {
     const formats = parseFormats(args.format);
     const raster = parseRaster(args.raster || '256x256');

@@ -97,6 +97,6 @@ describe('datlas map', () => {
     const r = runCli(['map', '--help']);
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/datlas map --kind model/);
-    expect(r.stdout).toMatch(/available now: json/);
+    expect(r.stdout).toMatch(/output formats: json, png, svg, pdf/);
   });
 });
