@@ -9,6 +9,7 @@ import type { Target } from './synonyms.js';
 import { emptyTable, NUMERIC_COLUMNS } from '../store/RowTable.js';
 import type { RowTable, RunStatus } from '../store/RowTable.js';
 import { ingestText } from '../messages.js';
+import { dictionaryEncode } from '../store/dictionaryEncode.js';
 
 /** Normalisation options in a form that can cross to a worker thread (the regex as text). */
 export interface PortableOptions {
@@ -84,28 +85,6 @@ export interface PackedTable {
 }
 
 export function packTable(t: RowTable): { packed: PackedTable; transfer: ArrayBuffer[] } {
-  const encode = (col: readonly string[]) => {
-    const index = new Map<string, number>();
-    const dict: string[] = [];
-    const codes = new Int32Array(col.length);
-    let last = '';
-    let lastCode = -1;
-    for (let i = 0; i < col.length; i++) {
-      const s = col[i];
-      if (s !== last || lastCode < 0) {
-        let c = index.get(s);
-        if (c === undefined) {
-          c = dict.length;
-          dict.push(s);
-          index.set(s, c);
-        }
-        last = s;
-        lastCode = c;
-      }
-      codes[i] = lastCode;
-    }
-    return { dict, codes };
-  };
   const numeric: Record<string, Float64Array> = {};
   for (const c of NUMERIC_COLUMNS) numeric[c] = t[c];
   const packed: PackedTable = {
@@ -113,7 +92,7 @@ export function packTable(t: RowTable): { packed: PackedTable; transfer: ArrayBu
     numeric,
     extra: t.extra,
     source_line: t.source_line,
-    text: { run: encode(t.run), condition: encode(t.condition), source: encode(t.source), status: encode(t.status) },
+    text: { run: dictionaryEncode(t.run), condition: dictionaryEncode(t.condition), source: dictionaryEncode(t.source), status: dictionaryEncode(t.status) },
   };
   const transfer = [...Object.values(numeric), ...Object.values(t.extra), t.source_line, ...Object.values(packed.text).map((x) => x.codes)]
     .map((a) => a.buffer as ArrayBuffer);

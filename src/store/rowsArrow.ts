@@ -2,6 +2,7 @@ import { createRequire } from 'node:module';
 import type * as Flechette from '@uwdata/flechette';
 import { emptyTable, NUMERIC_COLUMNS, STRING_COLUMNS } from './RowTable.js';
 import type { RowTable, RunStatus } from './RowTable.js';
+import { dictionaryEncode } from './dictionaryEncode.js';
 
 // flechette (~50 ms to load) only once rows are encoded or decoded: `datlas ingest` of unchanged
 // files, which reads just the manifest, never pays for it.
@@ -65,25 +66,7 @@ export function rowsToArrow(t: RowTable, sink?: { write(bytes: Uint8Array): void
 /** A dictionary-encoded utf8 column (int32 keys, no nulls: a missing text is ""). */
 function dictionaryColumn(values: readonly string[]): Flechette.Column<unknown> {
   const { batchType, Column, columnFromValues, dictionary, int32, utf8 } = fl();
-  const index = new Map<string, number>();
-  const dict: string[] = [];
-  const keys = new Int32Array(values.length);
-  let last = '';
-  let lastKey = -1;
-  for (let i = 0; i < values.length; i++) {
-    const v = values[i] ?? '';
-    if (v !== last || lastKey < 0) {
-      let k = index.get(v);
-      if (k === undefined) {
-        k = dict.length;
-        dict.push(v);
-        index.set(v, k);
-      }
-      last = v;
-      lastKey = k;
-    }
-    keys[i] = lastKey;
-  }
+  const { dict, codes: keys } = dictionaryEncode(values);
   const type = dictionary(utf8(), int32());
   // flechette types batchType's result as any: it is the DictionaryBatch class for this type.
   const DictBatch = batchType(type);

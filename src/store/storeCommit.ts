@@ -2,6 +2,7 @@ import { closeSync, existsSync, fsyncSync, openSync, readdirSync, readFileSync, 
 import { basename, join } from 'node:path';
 import { atomicWrite } from './atomicWrite.js';
 import { storeFiles } from './storeFiles.js';
+import { processAlive } from './processAlive.js';
 
 /**
  * A store update replaces three files (rows.arrow, manifest.json, rejected.csv) and no file
@@ -81,15 +82,6 @@ export function commitFiles(dir: string, commit: string, files: CommitFile[]): v
   applyCommit(dir, { commit, files });
 }
 
-function alive(pid: number): boolean {
-  try {
-    process.kill(pid, 0);
-    return true;
-  } catch (err) {
-    return (err as NodeJS.ErrnoException).code === 'EPERM';
-  }
-}
-
 /**
  * Brings a store to its last committed state (call right after taking the lock): finishes a
  * commit a killed writer left half done, discards a damaged commit log, and removes temporaries
@@ -121,7 +113,7 @@ export function recoverStore(dir: string): { rolledForward: boolean; removed: nu
   for (const name of names) {
     const m = TMP.exec(name);
     // Our own are stray too: right after taking the lock this process has nothing in flight.
-    if (!m || (Number(m[1]) !== process.pid && alive(Number(m[1])))) continue;
+    if (!m || (Number(m[1]) !== process.pid && processAlive(Number(m[1])))) continue;
     try {
       unlinkSync(join(dir, name));
       removed++;

@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import { UserError } from '../UserError.js';
 import { storeText } from '../messages.js';
 import { recoverStore } from './storeCommit.js';
+import { processAlive } from './processAlive.js';
 
 export interface StoreLock {
   release(): void;
@@ -13,15 +14,6 @@ export interface StoreLock {
 const UNREADABLE_STALE_MS = 10_000;
 /** Breaking a stale lock takes microseconds; a breaker mark older than this was left by a killed process. */
 const BREAKER_STALE_MS = 5_000;
-
-function alive(pid: number): boolean {
-  try {
-    process.kill(pid, 0);
-    return true;
-  } catch (err) {
-    return (err as NodeJS.ErrnoException).code === 'EPERM';
-  }
-}
 
 function ageMs(path: string): number {
   try {
@@ -162,7 +154,7 @@ export async function lockStore(dir: string, waitSeconds: number): Promise<Store
     }
     const pid = info && typeof info.pid === 'number' ? info.pid : 0;
     if (pid) holder = pid;
-    const stale = pid ? info!.host === hostname() && !alive(pid) : ageMs(path) > UNREADABLE_STALE_MS;
+    const stale = pid ? info!.host === hostname() && !processAlive(pid) : ageMs(path) > UNREADABLE_STALE_MS;
     if (stale && breakStale(path, seen)) continue;
     if (Date.now() >= deadline) throw new UserError(storeText.locked(dir, holder, waitSeconds));
     await new Promise((r) => setTimeout(r, 25));
