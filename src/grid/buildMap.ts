@@ -1,6 +1,6 @@
 import type { Cell } from '../cells/Cell.js';
 import { buildCells } from '../cells/buildCells.js';
-import { selectRows } from '../cells/selectRows.js';
+import { selectRows } from '../store/selectRows.js';
 import { mapMessages as msg } from '../messages.js';
 import type { Metric, RowTable } from '../store/RowTable.js';
 import { AXES, defaultMetric } from '../store/RowTable.js';

@@ -2,6 +2,7 @@ import { allocTable, emptyTable, NUMERIC_COLUMNS } from '../store/RowTable.js';
 import type { RowTable } from '../store/RowTable.js';
 import type { Reject } from './normalizeRaw.js';
 import { ingestText } from '../messages.js';
+import { selectRows } from '../store/selectRows.js';
 
 export interface MergeInput {
   /** Accepted rows of one source. */
@@ -240,15 +241,5 @@ export function dropSources(t: RowTable, drop: ReadonlySet<string>): RowTable {
   const keep: number[] = [];
   for (let i = 0; i < t.length; i++) if (!drop.has(t.source[i])) keep.push(i);
   if (keep.length === t.length) return t;
-  const out = emptyTable(keep.length, Object.keys(t.extra));
-  keep.forEach((i, k) => {
-    out.run[k] = t.run[i];
-    out.condition[k] = t.condition[i];
-    out.source[k] = t.source[i];
-    out.source_line[k] = t.source_line[i];
-    out.status[k] = t.status[i];
-    for (const c of NUMERIC_COLUMNS) out[c][k] = t[c][i];
-    for (const e of Object.keys(t.extra)) out.extra[e][k] = t.extra[e][i];
-  });
-  return out;
+  return selectRows(t, keep);
 }

@@ -1,5 +1,5 @@
-import type { RowTable } from '../store/RowTable.js';
-import { NUMERIC_COLUMNS } from '../store/RowTable.js';
+import type { RowTable } from './RowTable.js';
+import { NUMERIC_COLUMNS } from './RowTable.js';
 
 /** A new table holding the rows at `indices` (in that order); columns are copied, never shared. */
 export function selectRows(table: RowTable, indices: ArrayLike<number>): RowTable {
