@@ -1,11 +1,7 @@
+import { medianSorted } from './quantile.js';
+
 /** Consistency factor of the median absolute deviation for a normal distribution (1/Φ⁻¹(3/4)). */
 const MAD_NORMAL = 1.482602218505602;
-
-function median(v: number[]): number {
-  const s = [...v].sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
 
 /**
  * Noise level of a single-seed curve, estimated from the curve itself: Gasser, Sroka &
@@ -25,5 +21,5 @@ export function curveNoise(x: ArrayLike<number>, y: ArrayLike<number>): number {
     r.push(Math.abs(a * y[i - 1] + b * y[i + 1] - y[i]) / Math.sqrt(a * a + b * b + 1));
   }
   if (r.length === 0) return NaN;
-  return MAD_NORMAL * median(r);
+  return MAD_NORMAL * medianSorted([...r].sort((a, b) => a - b));
 }

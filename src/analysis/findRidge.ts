@@ -1,6 +1,6 @@
 import type { Cell } from '../cells/Cell.js';
 import type { SweepMap } from '../grid/SweepMap.js';
-import { axisTransform } from './axisTransform.js';
+import { axisTransform } from '../grid/axisScale.js';
 import { thresholdCrossing } from './findThreshold.js';
 import { localPeaks } from './localPeaks.js';
 import type { LocalPeak } from './localPeaks.js';

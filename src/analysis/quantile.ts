@@ -7,3 +7,9 @@ export function quantileSorted(sorted: ArrayLike<number>, q: number): number {
   const hi = Math.min(n - 1, lo + 1);
   return sorted[lo] + (h - lo) * (sorted[hi] - sorted[lo]);
 }
+
+/** The median of sorted values (the mean of the middle two for an even count). */
+export function medianSorted(sorted: ArrayLike<number>): number {
+  const k = sorted.length;
+  return k % 2 ? sorted[k >> 1] : (sorted[k / 2 - 1] + sorted[k / 2]) / 2;
+}

@@ -1,6 +1,7 @@
 import type { Cell } from '../cells/Cell.js';
 import { curveNoise } from './curveNoise.js';
 import type { Rng } from './seededRng.js';
+import { medianSorted } from './quantile.js';
 
 /** Means of a series and the standard error of a difference between two of them. */
 export interface SeriesView {
@@ -32,11 +33,6 @@ export interface SeriesNoise extends SeriesView {
   nullKey: string;
 }
 
-function median(sorted: ArrayLike<number>): number {
-  const k = sorted.length;
-  return k % 2 ? sorted[k >> 1] : (sorted[k / 2 - 1] + sorted[k / 2]) / 2;
-}
-
 /** Per-cell n, mean, sd → pooled sd, df and the pair standard error rule. */
 function seedView(n: ArrayLike<number>, means: Float64Array, sds: ArrayLike<number>): SeriesView & { sd: number; df: number; floor: number } {
   let ss = 0;
@@ -55,7 +51,7 @@ function seedView(n: ArrayLike<number>, means: Float64Array, sds: ArrayLike<numb
   const sorted = withSd.subarray(0, m).sort();
   // The floor for any one cell's sd is the median cell sd, not the pooled one: near the
   // interpolation threshold errors are heavy-tailed, and one wild cell must not swamp the rest.
-  const floor = m ? median(sorted) : NaN;
+  const floor = m ? medianSorted(sorted) : NaN;
   const f2 = floor * floor;
   return {
     means,

@@ -33,6 +33,17 @@ export function fromScale(scale: AxisScale, t: number): number {
   return scale === 'log2' ? 2 ** t : t;
 }
 
+/** Forward and inverse maps between data units and transformed units, as functions. */
+export interface AxisTransform {
+  to: (v: number) => number;
+  from: (u: number) => number;
+}
+
+/** log2 for geometric axes, identity for linear ones: the functions themselves, for hot loops. */
+export function axisTransform(scale: AxisScale): AxisTransform {
+  return scale === 'log2' ? { to: Math.log2, from: (u) => 2 ** u } : { to: (v) => v, from: (u) => u };
+}
+
 /**
  * values.length + 1 cell edges: midpoints between neighbours in transformed units (geometric
  * midpoints on log2 axes), the outer edges half a gap outside. A single value gets a cell of one

@@ -12,6 +12,7 @@ import type { KeyEntry } from './figureKey.js';
 import { FIGURE_CONFIG } from './figureConfig.js';
 import { figureWarnings } from './figureWarnings.js';
 import { paintCells, paintHatchSwatch, paintRaster } from './paintImage.js';
+import { axisTransform } from '../grid/axisScale.js';
 
 /** One panel of a (possibly faceted) heatmap. */
 export interface MapPanel {
@@ -127,7 +128,7 @@ export function facetHeatmapSpec(panels: MapPanel[], opts: HeatmapOptions = {}):
     if (image) {
       // The image spans this panel's own edges; pixels are laid out in the transformed space.
       const frac = (a: MapAxis, d: [number, number]) => {
-        const t = a.scale === 'log2' ? Math.log2 : (v: number) => v;
+        const t = axisTransform(a.scale).to;
         return (t(a.edges[a.edges.length - 1]) - t(a.edges[0])) / (t(d[1]) - t(d[0]));
       };
       const w = Math.max(1, Math.round(width * pixelRatio * frac(map.x, xDomain)));

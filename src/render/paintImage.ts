@@ -1,5 +1,6 @@
 import { ORIGIN_INTERPOLATED, ORIGIN_OUTSIDE } from '../grid/SweepMap.js';
 import type { AxisScale, MapAxis, SweepMap } from '../grid/SweepMap.js';
+import { axisTransform } from '../grid/axisScale.js';
 
 /**
  * Paints a map panel as RGBA pixels covering exactly the axis domains (edges[0] … edges[n]),
@@ -25,7 +26,7 @@ export const MISSING_RGB = [217, 217, 217] as const;
 /** Hatch stripes: white at this opacity over the interpolated colour. */
 const HATCH_ALPHA = 0.55;
 
-const tf = (scale: AxisScale) => (scale === 'log2' ? Math.log2 : (v: number) => v);
+const tf = (scale: AxisScale) => axisTransform(scale).to;
 
 /** Transformed coordinate of each pixel centre along an axis (n pixels spanning the edges). */
 function pixelCoords(axis: Pick<MapAxis, 'scale' | 'edges'>, n: number, reverse: boolean): Float64Array {
