@@ -1,3 +1,5 @@
+import { quoteCsvField } from '../csv/quoteCsvField.js';
+
 /**
  * One CSV cell: RFC 4180 quoting (fields with a comma, double quote, CR or LF are quoted, quotes
  * doubled), and text that a spreadsheet would run as a formula (starting with = + - @, tab or CR)
@@ -10,7 +12,7 @@ export function csvCell(value: string | number | null): string {
   if (typeof value === 'number') return Number.isFinite(value) ? String(value) : '';
   let v = value;
   if (/^'*[=+\-@\t\r]/.test(v)) v = `'${v}`;
-  return /[",\r\n]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v;
+  return quoteCsvField(v);
 }
 
 /** The inverse of the spreadsheet guard of `csvCell` on an unquoted cell value. */

@@ -1,6 +1,7 @@
 import { mkdir, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import type { RowTable } from '../store/RowTable.js';
+import { quoteCsvField } from '../csv/quoteCsvField.js';
 
 /** How a sweep's logs are laid out on disk, like real sweeps do it. */
 export const LOG_SHAPES = ['csv', 'jsonl', 'dirs'] as const;
@@ -93,6 +94,5 @@ function tidy(v: number): number {
 /** RFC 4180 field: quoted when it holds a comma, quote or line break. */
 function csvField(v: string | number | null): string {
   if (v === null) return '';
-  const s = String(v);
-  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+  return quoteCsvField(String(v));
 }

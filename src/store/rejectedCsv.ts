@@ -1,16 +1,12 @@
 import type { Reject } from '../ingest/normalizeRaw.js';
 import { tokenizeDelimited } from '../ingest/tokenizeDelimited.js';
+import { quoteCsvField } from '../csv/quoteCsvField.js';
 
 export const REJECTED_HEADER = ['source', 'line', 'field', 'reason'] as const;
 
-/** RFC 4180 quoting: fields with a comma, quote or line break are quoted, quotes doubled. */
-function quote(s: string): string {
-  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
 export function formatRejected(rows: readonly Reject[]): string {
   let out = `${REJECTED_HEADER.join(',')}\n`;
-  for (const r of rows) out += `${quote(r.source)},${r.line},${quote(r.field)},${quote(r.reason)}\n`;
+  for (const r of rows) out += `${quoteCsvField(r.source)},${r.line},${quoteCsvField(r.field)},${quoteCsvField(r.reason)}\n`;
   return out;
 }
 
