@@ -27,12 +27,35 @@ const WRAPPER = new URL('./rusageWrapper.mjs', import.meta.url).pathname;
 const ENTRY = new URL('./datlas-dist.mjs', import.meta.url).pathname;
 
 /**
+ * The variables bin/datlas's `#!/usr/bin/env -S NAME=value … node` line sets, so the bench runs
+ * the CLI in the environment a user's `datlas` gets (`${NAME}` expanded as env -S does).
+ */
+export function launcherEnv(launcher: string, base: NodeJS.ProcessEnv): Record<string, string> {
+  let first = '';
+  try {
+    first = readFileSync(launcher, 'utf8').split('\n', 1)[0];
+  } catch {
+    return {};
+  }
+  const m = /^#!\S*env\s+-S\s+(.*)$/.exec(first);
+  if (!m) return {};
+  const out: Record<string, string> = {};
+  for (const word of m[1].split(/\s+/)) {
+    const eq = /^([A-Za-z_][A-Za-z0-9_]*)=(.*)$/.exec(word);
+    if (!eq) break;
+    out[eq[1]] = eq[2].replace(/\$\{([A-Za-z_][A-Za-z0-9_]*)\}/g, (_all, name: string) => base[name] ?? '');
+  }
+  return out;
+}
+
+/**
  * Spawns `node [nodeArgs] bench/datlas-dist.mjs args` (the compiled CLI, as bin/datlas runs it
  * when dist/ is fresh; `entry` points at another checkout's copy for A/B runs) in cwd and waits for it. Under GNU time the child's
  * peak RSS covers its worker threads (one process); the wrapper reports the same figure.
  */
 export async function measure(opts: { cwd: string; args: string[]; nodeArgs?: string[]; env?: NodeJS.ProcessEnv; entry?: string }): Promise<Sample> {
-  const { cwd, args, nodeArgs = [], env = process.env, entry = ENTRY } = opts;
+  const { cwd, args, nodeArgs = [], entry = ENTRY } = opts;
+  const env = { ...(opts.env ?? process.env), ...launcherEnv(join(entry, '../../bin/datlas'), opts.env ?? process.env) };
   const tmp = mkdtempSync(join(tmpdir(), 'datlas-bench-'));
   const out = join(tmp, 'usage');
   const cmd = haveGnuTime
