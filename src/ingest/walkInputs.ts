@@ -1,5 +1,6 @@
 import { existsSync, readdirSync, realpathSync, statSync } from 'node:fs';
-import { join, resolve } from 'node:path';
+import type { Dirent } from 'node:fs';
+import { join, resolve, sep } from 'node:path';
 import { formatOfName, runDirectoryFiles } from './readSource.js';
 
 /** One thing to ingest: a file, a run directory (config + metrics), or stdin. */
@@ -51,27 +52,37 @@ export function walkInputs(paths: readonly string[], opts: { skip?: readonly str
     }
     if (visited.has(real)) return;
     visited.add(real);
-    let names: string[];
+    let entries: Dirent[];
     try {
-      names = readdirSync(dir).sort();
+      entries = readdirSync(dir, { withFileTypes: true });
     } catch (err) {
       missing.push({ path: dir, reason: (err as NodeJS.ErrnoException).code ?? (err as Error).message });
       return;
     }
+    entries.sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
     // A store, not logs (commit.json alone: a first write cut short before its renames).
-    if ((names.includes('manifest.json') && names.includes('rows.arrow')) || names.includes('commit.json')) return;
+    const has = (n: string) => entries.some((e) => e.name === n);
+    if ((has('manifest.json') && has('rows.arrow')) || has('commit.json')) return;
+    // Paths are built by concatenation below one normalised prefix: join and resolve per file
+    // were most of the cost of walking thousands of logs (re-ingest of unchanged files is this walk).
+    const base = join(dir);
+    const prefix = base === '.' ? '' : base.endsWith(sep) ? base : base + sep;
+    const absPrefix = resolve(dir) + (resolve(dir).endsWith(sep) ? '' : sep);
     const files: string[] = [];
     const dirs: string[] = [];
     const stats = new Map<string, { size: number; mtimeMs: number }>();
-    for (const name of names) {
+    for (const e of entries) {
+      const name = e.name;
       if (name.startsWith('.')) continue;
-      const p = join(dir, name);
-      let st;
-      try {
-        st = statSync(p);
-      } catch {
+      if (e.isDirectory()) {
+        dirs.push(name);
         continue;
       }
+      // Only files of a known format (or a run folder's config) need their size and mtime;
+      // symbolic links are followed by the stat.
+      if (!e.isFile() && !e.isSymbolicLink()) continue;
+      const st = statSync(prefix + name, { throwIfNoEntry: false });
+      if (!st) continue;
       if (st.isDirectory()) dirs.push(name);
       else if (st.isFile()) {
         files.push(name);
@@ -80,15 +91,14 @@ export function walkInputs(paths: readonly string[], opts: { skip?: readonly str
     }
     const rd = runDirectoryFiles(files);
     if (rd) {
-      const metrics = join(dir, rd.metrics);
       const st = stats.get(rd.metrics)!;
-      add({ key: resolve(metrics), given: metrics, kind: 'rundir', config: join(dir, rd.config), size: st.size, mtime: st.mtimeMs });
+      add({ key: absPrefix + rd.metrics, given: prefix + rd.metrics, kind: 'rundir', config: prefix + rd.config, size: st.size, mtime: st.mtimeMs });
       return;
     }
     for (const name of files) {
       if (formatOfName(name) === null) continue;
       const st = stats.get(name)!;
-      add({ key: resolve(join(dir, name)), given: join(dir, name), kind: 'file', size: st.size, mtime: st.mtimeMs });
+      add({ key: absPrefix + name, given: prefix + name, kind: 'file', size: st.size, mtime: st.mtimeMs });
     }
     for (const name of dirs) walkDir(join(dir, name));
   };
