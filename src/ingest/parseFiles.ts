@@ -1,5 +1,4 @@
 import { availableParallelism } from 'node:os';
-import { Worker } from 'node:worker_threads';
 import { createRequire } from 'node:module';
 import { pathToFileURL } from 'node:url';
 import { readSourceFile, unpackTable } from './readSourceFile.js';
@@ -36,6 +35,8 @@ export async function parseFiles(jobs: FileJob[], sizes: number[], opts: ParseFi
   const url = new URL(fromSource ? './parseWorker.ts' : './parseWorker.js', import.meta.url);
   const tsxApi = fromSource ? pathToFileURL(createRequire(import.meta.url).resolve('tsx/esm/api').replace(/\.cjs$/, '.mjs')).href : '';
   const boot = `import(${JSON.stringify(tsxApi)}).then((m) => { m.register(); return import(${JSON.stringify(url.href)}); });`;
+  // node:worker_threads loads only when there is enough to parse (re-ingests of unchanged files never).
+  const { Worker } = createRequire(import.meta.url)('node:worker_threads') as typeof import('node:worker_threads');
   const pool = Array.from({ length: workers }, () => (fromSource ? new Worker(boot, { eval: true }) : new Worker(url)));
   const results = new Array<FileOutcome>(jobs.length);
   // Batches of about 4 MB or 64 files keep messages few without starving a worker at the end.

@@ -1,5 +1,5 @@
-import { createHash } from 'node:crypto';
 import { readFileSync, statSync } from 'node:fs';
+import { createRequire } from 'node:module';
 import type { FileStamp } from '../store/Manifest.js';
 import { formatOfBytes, rawFromBytes, readConfigFile } from './readSource.js';
 import type { SourceFormat } from './readSource.js';
@@ -34,7 +34,11 @@ export type FileOutcome =
   | { kind: 'parsed'; stamp: FileStamp; config?: FileStamp; format: string; norm: Normalized }
   | { kind: 'failed'; stamp: FileStamp; config?: FileStamp; format: string; failure: string };
 
-export const sha256 = (b: Uint8Array) => createHash('sha256').update(b).digest('hex');
+// node:crypto (~6 ms to load) only once a file is actually read: a re-ingest of unchanged files
+// hashes nothing.
+const requireHere = createRequire(import.meta.url);
+let crypto: typeof import('node:crypto') | null = null;
+export const sha256 = (b: Uint8Array) => (crypto ??= requireHere('node:crypto') as typeof import('node:crypto')).createHash('sha256').update(b).digest('hex');
 
 /**
  * Reads, hashes, parses and normalises one file. Pure apart from reading the file, so a pool

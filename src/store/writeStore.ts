@@ -1,5 +1,5 @@
 import { mkdirSync } from 'node:fs';
-import { randomBytes } from 'node:crypto';
+import { createRequire } from 'node:module';
 import type { RowTable } from './RowTable.js';
 import type { Manifest } from './Manifest.js';
 import type { Reject } from '../ingest/normalizeRaw.js';
@@ -19,6 +19,8 @@ export function writeStore(opts: { dir: string; table: RowTable; manifest: Manif
   const { dir, table, manifest, rejected } = opts;
   mkdirSync(dir, { recursive: true });
   const f = storeFiles(dir);
+  // node:crypto loads here, not with the module: commands that only read the store never need it.
+  const { randomBytes } = createRequire(import.meta.url)('node:crypto') as typeof import('node:crypto');
   const commit = randomBytes(8).toString('hex');
   const tmp = { rejected: tmpName(f.rejected, commit), rows: tmpName(f.rows, commit), manifest: tmpName(f.manifest, commit) };
   writeSynced(tmp.rejected, formatRejected(rejected));
