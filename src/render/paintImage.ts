@@ -147,20 +147,36 @@ export function paintCells(map: Pick<SweepMap, 'x' | 'y' | 'cells'>, opts: Paint
   }
   const cx = cellIndex(pixelCoords(map.x, W, false), map.x);
   const cy = cellIndex(pixelCoords(map.y, H, true), map.y);
+  // One colour per grid point, then whole pixel rows: a row is copied from the one above when both
+  // fall in the same cells (a 2× image of a 40×71 map has ~700k pixels but only 71 distinct rows).
+  const rgba = new Uint8Array(grid.length * 4);
+  for (let k = 0; k < grid.length; k++) {
+    const v = grid[k];
+    if (Number.isFinite(v)) setColor(rgba, k * 4, v, opts);
+    else {
+      rgba[k * 4] = MISSING_RGB[0];
+      rgba[k * 4 + 1] = MISSING_RGB[1];
+      rgba[k * 4 + 2] = MISSING_RGB[2];
+      rgba[k * 4 + 3] = 255;
+    }
+  }
   const px = new Uint8Array(W * H * 4);
+  const rowBytes = W * 4;
   for (let y = 0; y < H; y++) {
     if (cy[y] < 0) continue;
+    if (y > 0 && cy[y] === cy[y - 1]) {
+      px.copyWithin(y * rowBytes, (y - 1) * rowBytes, y * rowBytes);
+      continue;
+    }
+    const base = cy[y] * nx;
     for (let x = 0; x < W; x++) {
       if (cx[x] < 0) continue;
-      const v = grid[cy[y] * nx + cx[x]];
       const o = (y * W + x) * 4;
-      if (Number.isFinite(v)) setColor(px, o, v, opts);
-      else {
-        px[o] = MISSING_RGB[0];
-        px[o + 1] = MISSING_RGB[1];
-        px[o + 2] = MISSING_RGB[2];
-        px[o + 3] = 255;
-      }
+      const q = (base + cx[x]) * 4;
+      px[o] = rgba[q];
+      px[o + 1] = rgba[q + 1];
+      px[o + 2] = rgba[q + 2];
+      px[o + 3] = rgba[q + 3];
     }
   }
   return px;
