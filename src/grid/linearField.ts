@@ -90,15 +90,20 @@ export function linearField(p: ScatterPoints): FittedField {
     nbr[c].add(a).add(b);
   }
   const loo = new Float64Array(n).fill(NaN);
+  // One triangulator per star size, refilled and updated in place: constructing one allocates nine
+  // typed arrays, and the stars of a few thousand points needed ~60 ms mostly for that.
+  const byStarSize = new Map<number, Delaunator<Float64Array>>();
   for (let i = 0; i < n; i++) {
     const ids = [...nbr[i]];
     if (ids.length < 3) continue;
-    const local = new Float64Array(2 * ids.length);
+    let ld = byStarSize.get(ids.length);
+    const local = ld ? ld.coords : new Float64Array(2 * ids.length);
     ids.forEach((id, k) => {
       local[2 * k] = p.x[id];
       local[2 * k + 1] = p.y[id];
     });
-    const ld = new Delaunator(local);
+    if (ld) ld.update();
+    else byStarSize.set(ids.length, (ld = new Delaunator(local)));
     const lt = ld.triangles;
     for (let t = 0; t < lt.length; t += 3) {
       const a = ids[lt[t]];
