@@ -135,7 +135,11 @@ export function buildCells(table: RowTable, opts: BuildCellsOptions = {}): Cell[
   };
 
   for (const rows of runs) {
-    rows.sort((a, b) => table.epochs[a] - table.epochs[b]);
+    // Logs are nearly always in epoch order already: check before sorting (a sort per run was a
+    // good part of building a map's cells).
+    let sorted = true;
+    for (let k = 1; k < rows.length && sorted; k++) if (!(table.epochs[rows[k - 1]] <= table.epochs[rows[k]])) sorted = false;
+    if (!sorted) rows.sort((a, b) => table.epochs[a] - table.epochs[b]);
     const first = rows[0];
     const ck = configKey(first);
     let byEpoch = configs.get(ck);

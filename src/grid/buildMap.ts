@@ -3,7 +3,7 @@ import { buildCells } from '../cells/buildCells.js';
 import { selectRows } from '../store/selectRows.js';
 import { mapMessages as msg } from '../messages.js';
 import type { Metric, RowTable } from '../store/RowTable.js';
-import { AXES, defaultMetric } from '../store/RowTable.js';
+import { AXES, defaultMetric, textReader, textValues } from '../store/RowTable.js';
 import { UserError, usageError } from '../UserError.js';
 import { cellEdges, detectScale, fromScale, toScale } from './axisScale.js';
 import { gaussianProcessField } from './gaussianProcessField.js';
@@ -60,18 +60,21 @@ const sameNumber = (a: number, b: number) => a === b || Math.abs(a - b) <= 1e-9 
 // command) they stayed in the slower tiers for most of a million rows.
 
 /** Rows with a finite metric or a diverged mark. */
-function informativeRows(metric: Float64Array, status: readonly string[]): number[] {
+function informativeRows(metric: Float64Array, status: (i: number) => string): Int32Array {
   // Counted first, then filled: a million pushes spent their time growing and copying the array.
+  // The status is read only where the metric is missing.
   let count = 0;
-  for (let i = 0; i < metric.length; i++) if (Number.isFinite(metric[i]) || status[i] === 'diverged') count++;
-  const rows = new Array<number>(count);
+  for (let i = 0; i < metric.length; i++) if (Number.isFinite(metric[i]) || status(i) === 'diverged') count++;
+  // Row lists are Int32Arrays: a million-element JS array is 8 MB of fresh garbage-collected
+  // memory, twice the size and far slower to fault in than a typed array.
+  const rows = new Int32Array(count);
   let k = 0;
-  for (let i = 0; i < metric.length; i++) if (Number.isFinite(metric[i]) || status[i] === 'diverged') rows[k++] = i;
+  for (let i = 0; i < metric.length; i++) if (Number.isFinite(metric[i]) || status(i) === 'diverged') rows[k++] = i;
   return rows;
 }
 
 /** Adds the count of each value over `rows`, one map update per stretch of equal values (rows of a run are contiguous). */
-function countStretches(rows: readonly number[], col: Float64Array | ((i: number) => number | string), counts: Map<number | string, number>): void {
+function countStretches(rows: Int32Array, col: Float64Array | ((i: number) => number | string), counts: Map<number | string, number>): void {
   const fn = typeof col === 'function' ? col : null;
   const arr = typeof col === 'function' ? null : col;
   let cur: number | string | undefined;
@@ -90,12 +93,12 @@ function countStretches(rows: readonly number[], col: Float64Array | ((i: number
 }
 
 /** The rows whose value in `col` is `v` (up to rounding). */
-function rowsNear(rows: readonly number[], col: Float64Array, v: number): number[] {
+function rowsNear(rows: Int32Array, col: Float64Array, v: number): Int32Array {
   // Counted, then filled (as informativeRows): often nearly every row matches.
   let count = 0;
   for (let r = 0; r < rows.length; r++) if (sameNumber(col[rows[r]], v)) count++;
-  if (count === rows.length) return rows.slice();
-  const out = new Array<number>(count);
+  if (count === rows.length) return rows; // row lists are never changed in place
+  const out = new Int32Array(count);
   let k = 0;
   for (let r = 0; r < rows.length; r++) if (sameNumber(col[rows[r]], v)) out[k++] = rows[r];
   return out;
@@ -108,19 +111,21 @@ function fitMethod(method: MethodName, p: ScatterPoints): FittedField {
 }
 
 /** Epochs an epochs axis uses: all logged ones, or (too many) those most runs logged, or a log-spaced subset. */
-function chooseEpochs(table: RowTable, rows: number[], max: number, notes: string[]): number[] {
+function chooseEpochs(table: RowTable, rows: Int32Array, max: number, notes: string[]): number[] {
   const perEpoch = new Map<number, Set<string>>();
   const runs = new Set<string>();
+  const run = textReader(table, 'run');
   // A run's rows are contiguous: its id string is built once per block, not once per row.
   let id = '';
   let lastRow = -2;
-  for (const i of rows) {
+  for (let r = 0; r < rows.length; r++) {
+    const i = rows[r];
     const e = table.epochs[i];
     if (!Number.isFinite(e)) continue;
     const p = lastRow;
-    if (!(p >= 0 && table.run[i] === table.run[p] && table.width[i] === table.width[p] && table.train_size[i] === table.train_size[p] &&
+    if (!(p >= 0 && run(i) === run(p) && table.width[i] === table.width[p] && table.train_size[i] === table.train_size[p] &&
       Object.is(table.seed[i], table.seed[p]))) {
-      id = `${table.run[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}\u0000${table.seed[i]}`;
+      id = `${run(i)}\u0000${table.width[i]}\u0000${table.train_size[i]}\u0000${table.seed[i]}`;
     }
     lastRow = i;
     runs.add(id);
@@ -169,7 +174,9 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   const yName = opts.y ?? kindAxes.y;
   // Condition keys (weight_decay, optimizer, ...) can be axes (numeric ones) or fixed with --at.
   const parsed = new Map<string, Map<string, string>>();
-  for (const c of new Set(table.condition)) parsed.set(c, parseCondition(c));
+  for (const c of textValues(table, 'condition')) parsed.set(c, parseCondition(c));
+  // Row loops read text through the store's codes when it has them (no whole-column decoding).
+  const condition = textReader(table, 'condition');
   const keyValues = new Map<string, string[]>();
   for (const m of parsed.values()) for (const [k, v] of m) keyValues.set(k, [...(keyValues.get(k) ?? []), v]);
   const conditionKeys = [...keyValues.keys()].filter((k) => !(FIXABLE as readonly string[]).includes(k)).sort();
@@ -206,24 +213,25 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
 
   // Rows that carry information: a finite metric, or a diverged mark.
   const metricCol = table[metric];
-  let rows: number[] = informativeRows(metricCol, table.status);
+  let rows: Int32Array = informativeRows(metricCol, textReader(table, 'status'));
   if (rows.length === 0) throw new UserError(msg.noMetric(metric));
   for (const [key, want] of Object.entries(at)) {
     if (!isKey(key)) continue;
     const match = (v: number | string | undefined) => (typeof v === 'number' && typeof want === 'number' ? sameNumber(v, want) : v !== undefined && String(v) === String(want));
-    const kept = rows.filter((i) => match(keyValue(table.condition[i], key)));
-    if (kept.length === 0) throw new UserError(msg.atValueAbsent(key, want, [...new Set(rows.map((i) => keyValue(table.condition[i], key)).filter((v) => v !== undefined))] as (number | string)[]));
+    const kept = rows.filter((i) => match(keyValue(condition(i), key)));
+    if (kept.length === 0) throw new UserError(msg.atValueAbsent(key, want, [...new Set(Array.from(rows, (i) => keyValue(condition(i), key)).filter((v) => v !== undefined))] as (number | string)[]));
     rows = kept;
   }
 
   const fixed: Record<string, number | string> = {};
   for (const [key, v] of Object.entries(at)) if (isKey(key)) fixed[key] = v;
   const picked: string[] = [];
-  const hasConditions = rows.some((i) => restOf(table.condition[i]) !== '');
+  // Only a condition that has something left can be in a row (a store of one condition never loops).
+  const hasConditions = textValues(table, 'condition').some((c) => restOf(c) !== '') && rows.some((i) => restOf(condition(i)) !== '');
   for (const name of PICK_ORDER) {
     if (name === xName || name === yName) continue;
     if (name === 'condition' && !hasConditions && at.condition === undefined) continue;
-    const valueOf = (i: number): number | string => (name === 'condition' ? restOf(table.condition[i]) : table[name][i]);
+    const valueOf = (i: number): number | string => (name === 'condition' ? restOf(condition(i)) : table[name][i]);
     const given = at[name];
     let value: number | string;
     if (given !== undefined) {
@@ -234,7 +242,7 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
       }
       // Epochs need not be logged exactly: runs are aligned to it along their own curves.
       if (name !== 'epochs' && !rows.some((i) => (typeof value === 'number' ? sameNumber(valueOf(i) as number, value) : valueOf(i) === value))) {
-        const available = [...new Set(rows.map(valueOf))].sort((a, b) => (typeof a === 'number' && typeof b === 'number' ? a - b : String(a) < String(b) ? -1 : 1));
+        const available = [...new Set(Array.from(rows, valueOf))].sort((a, b) => (typeof a === 'number' && typeof b === 'number' ? a - b : String(a) < String(b) ? -1 : 1));
         throw new UserError(msg.atValueAbsent(name, value, available));
       }
     } else {
@@ -270,8 +278,9 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   if (fixed.epochs !== undefined) {
     // Runs that stopped before the fixed epoch: say how many, since they silently thin the cells.
     const last = new Map<string, number>();
+    const run = textReader(table, 'run');
     for (const i of rows) {
-      const id = `${table.run[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}\u0000${table.seed[i]}`;
+      const id = `${run(i)}\u0000${table.width[i]}\u0000${table.train_size[i]}\u0000${table.seed[i]}`;
       last.set(id, Math.max(last.get(id) ?? -Infinity, table.epochs[i]));
     }
     const short = [...last.values()].filter((e) => e < (fixed.epochs as number)).length;

@@ -57,6 +57,39 @@ export interface RowTable {
    * (e.g. the linear simulator's `sigma2`, `signal_in`, `signal_out`). Kept, never used to split cells.
    */
   readonly extra: Record<string, Float64Array>;
+  /**
+   * Text columns as dictionary codes, when the table has them (a store read from rows.arrow):
+   * row i holds dict[codes[i]]. Row loops over a whole store read these instead of the string
+   * arrays, which are then never built (a million-element array costs ~40 ms, mostly in faulting
+   * in fresh memory). Never written to: a derived table has none.
+   */
+  readonly codes?: Partial<Record<TextColumn, TextCodes>>;
+}
+
+/** The text columns (status included). */
+export type TextColumn = 'run' | 'condition' | 'source' | 'status';
+
+/** A dictionary-coded text column (as in rows.arrow). */
+export interface TextCodes {
+  readonly codes: Int32Array;
+  readonly dict: readonly string[];
+}
+
+/** Row i of a text column, through its codes when the table has them. */
+export function textReader<C extends TextColumn>(t: RowTable, name: C): (i: number) => RowTable[C][number] {
+  const coded = t.codes?.[name];
+  if (coded) {
+    const { codes, dict } = coded;
+    return (i) => dict[codes[i]] as RowTable[C][number];
+  }
+  const col = t[name];
+  return (i) => col[i] as RowTable[C][number];
+}
+
+/** The distinct values of a text column (its dictionary when coded: every entry is used). */
+export function textValues(t: RowTable, name: TextColumn): string[] {
+  const coded = t.codes?.[name];
+  return coded ? [...new Set(coded.dict)] : [...new Set<string>(t[name])];
 }
 
 /** An empty table with `length` rows: numbers NaN, strings "", status "ok". */

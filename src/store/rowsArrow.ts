@@ -1,7 +1,7 @@
 import { createRequire } from 'node:module';
 import type * as Flechette from '@uwdata/flechette';
 import { emptyTable, NUMERIC_COLUMNS, STRING_COLUMNS } from './RowTable.js';
-import type { RowTable, RunStatus } from './RowTable.js';
+import type { RowTable, RunStatus, TextCodes, TextColumn } from './RowTable.js';
 import { dictionaryEncode } from './dictionaryEncode.js';
 
 // flechette (~50 ms to load) only once rows are encoded or decoded: `datlas ingest` of unchanged
@@ -105,9 +105,22 @@ function rowsOf(table: ReturnType<typeof Flechette.tableFromIPC>): RowTable {
   };
   const out = { length, extra: {} as Record<string, Float64Array> } as { -readonly [K in keyof RowTable]: RowTable[K] };
   for (const c of NUMERIC_COLUMNS) (out as Record<string, unknown>)[c] = names.includes(c) ? num(c) : dflt()[c];
-  for (const c of STRING_COLUMNS) (out as Record<string, unknown>)[c] = names.includes(c) ? textColumn(table.getChild(c)) : dflt()[c];
-  if (names.includes('status')) out.status = textColumn(table.getChild('status')).map((s) => (s === 'diverged' ? 'diverged' : 'ok') as RunStatus);
-  else out.status = dflt().status;
+  // Text columns are decoded on first use: a million-element array of strings costs ~40 ms to
+  // build (most of it faulting in fresh memory), and a map never looks at `source`.
+  const codes: Partial<Record<TextColumn, TextCodes>> = {};
+  const asStatus = (s: string): RunStatus => (s === 'diverged' ? 'diverged' : 'ok');
+  for (const c of [...STRING_COLUMNS, 'status'] as const) {
+    if (!names.includes(c)) {
+      (out as Record<string, unknown>)[c] = dflt()[c];
+      continue;
+    }
+    const col = table.getChild(c);
+    const f = c === 'status' ? asStatus : (s: string) => s;
+    lazy(out, c, () => textColumn(col, f));
+    const coded = dictionaryCodes(col, f);
+    if (coded) codes[c] = coded;
+  }
+  out.codes = codes;
   if (names.includes('source_line')) {
     const v = table.getChild('source_line').toArray() as ArrayLike<number>;
     out.source_line = v instanceof Int32Array ? v : Int32Array.from(v);
@@ -125,22 +138,46 @@ interface DictBatch {
   at(i: number): unknown;
 }
 
+/** A text column's codes and dictionary, when it is one dictionary batch without nulls (as our writer makes it). */
+function dictionaryCodes(col: ReturnType<ReturnType<typeof Flechette.tableFromIPC>['getChild']>, f: (s: string) => string): TextCodes | null {
+  const batches = col.data as unknown as DictBatch[];
+  if (batches.length !== 1) return null;
+  const b = batches[0];
+  if (b.nullCount !== 0 || !b.cache || !(b.values instanceof Int32Array) || b.values.length < b.length) return null;
+  return { codes: b.values.subarray(0, b.length), dict: Array.from(b.cache, (s) => f(s ?? '')) };
+}
+
+/** Defines `key` on `obj` as computed on first read, then kept (a plain writable value from then on). */
+function lazy<T extends object, K extends keyof T>(obj: T, key: K, make: () => T[K]): void {
+  Object.defineProperty(obj, key, {
+    configurable: true,
+    enumerable: true,
+    get() {
+      const value = make();
+      Object.defineProperty(obj, key, { value, writable: true, configurable: true, enumerable: true });
+      return value;
+    },
+  });
+}
+
 /**
- * A text column as strings ("" for null). Dictionary batches without nulls are decoded straight
- * from their keys (one array lookup per row instead of a method call per row).
+ * A text column as strings ("" for null), each passed through `f`. Dictionary batches without
+ * nulls are decoded straight from their keys, `f` applied once per dictionary entry (one array
+ * lookup per row instead of a method call per row).
  */
-function textColumn(col: ReturnType<ReturnType<typeof Flechette.tableFromIPC>['getChild']>): string[] {
-  const out = new Array<string>(col.length);
+function textColumn<S extends string>(col: ReturnType<ReturnType<typeof Flechette.tableFromIPC>['getChild']>, f: (s: string) => S): S[] {
+  const out = new Array<S>(col.length);
   let k = 0;
   for (const b of col.data as unknown as DictBatch[]) {
     const keys = b.values;
     const dict = b.cache;
     if (b.nullCount === 0 && dict && keys && keys.length >= b.length) {
-      for (let i = 0; i < b.length; i++) out[k++] = dict[keys[i]] ?? '';
+      const mapped = Array.from(dict, (s) => f(s ?? ''));
+      for (let i = 0; i < b.length; i++) out[k++] = mapped[keys[i]] ?? f('');
     } else {
       for (let i = 0; i < b.length; i++) {
         const v = b.at(i);
-        out[k++] = v === null || v === undefined ? '' : String(v);
+        out[k++] = f(v === null || v === undefined ? '' : String(v));
       }
     }
   }

@@ -1,12 +1,14 @@
-import type { RowTable } from './RowTable.js';
-import { NUMERIC_COLUMNS } from './RowTable.js';
+import type { RowTable, TextColumn } from './RowTable.js';
+import { NUMERIC_COLUMNS, textReader } from './RowTable.js';
 
 /** A new table holding the rows at `indices` (in that order); columns are copied, never shared. */
 export function selectRows(table: RowTable, indices: ArrayLike<number>): RowTable {
   const n = indices.length;
-  const pickS = <T>(col: readonly T[]): T[] => {
-    const out = new Array<T>(n);
-    for (let k = 0; k < n; k++) out[k] = col[indices[k]];
+  // Text through the codes when the table has them: the whole columns need not be decoded.
+  const pickS = <C extends TextColumn>(name: C): RowTable[C][number][] => {
+    const at = textReader(table, name);
+    const out = new Array<RowTable[C][number]>(n);
+    for (let k = 0; k < n; k++) out[k] = at(indices[k]);
     return out;
   };
   const pickF = (col: Float64Array): Float64Array => {
@@ -21,11 +23,11 @@ export function selectRows(table: RowTable, indices: ArrayLike<number>): RowTabl
   const numeric = Object.fromEntries(NUMERIC_COLUMNS.map((c) => [c, pickF(table[c])])) as Record<(typeof NUMERIC_COLUMNS)[number], Float64Array>;
   return {
     length: n,
-    run: pickS(table.run),
-    condition: pickS(table.condition),
-    source: pickS(table.source),
+    run: pickS('run'),
+    condition: pickS('condition'),
+    source: pickS('source'),
     source_line: sourceLine,
-    status: pickS(table.status),
+    status: pickS('status'),
     ...numeric,
     extra,
   };
