@@ -1,6 +1,5 @@
 import { availableParallelism } from 'node:os';
-import { createRequire } from 'node:module';
-import { pathToFileURL } from 'node:url';
+import { startWorker } from '../workers/startWorker.js';
 import { readSourceFile, unpackTable } from './readSourceFile.js';
 import type { FileJob, FileOutcome } from './readSourceFile.js';
 import type { PackedOutcome } from './parseWorker.js';
@@ -30,14 +29,7 @@ export async function parseFiles(jobs: FileJob[], sizes: number[], opts: ParseFi
       return o;
     });
   }
-  // Under the TypeScript sources (tsx), the worker needs tsx too.
-  const fromSource = import.meta.url.endsWith('.ts');
-  const url = new URL(fromSource ? './parseWorker.ts' : './parseWorker.js', import.meta.url);
-  const tsxApi = fromSource ? pathToFileURL(createRequire(import.meta.url).resolve('tsx/esm/api').replace(/\.cjs$/, '.mjs')).href : '';
-  const boot = `import(${JSON.stringify(tsxApi)}).then((m) => { m.register(); return import(${JSON.stringify(url.href)}); });`;
-  // node:worker_threads loads only when there is enough to parse (re-ingests of unchanged files never).
-  const { Worker } = createRequire(import.meta.url)('node:worker_threads') as typeof import('node:worker_threads');
-  const pool = Array.from({ length: workers }, () => (fromSource ? new Worker(boot, { eval: true }) : new Worker(url)));
+  const pool = Array.from({ length: workers }, () => startWorker({ base: import.meta.url, name: 'parseWorker' }));
   const results = new Array<FileOutcome>(jobs.length);
   // Batches of about 4 MB or 64 files keep messages few without starving a worker at the end.
   const batches: number[][] = [];

@@ -1,7 +1,5 @@
-import { Worker } from 'node:worker_threads';
-import { createRequire } from 'node:module';
-import { pathToFileURL } from 'node:url';
-import { dirname, join } from 'node:path';
+import type { Worker } from 'node:worker_threads';
+import { startWorker } from '../workers/startWorker.js';
 import type { RowTable } from '../store/RowTable.js';
 import { concatTables } from './concatTables.js';
 import { featuresTask, featuresTasks, resolveFeaturesOptions } from './featuresSweep.js';
@@ -11,10 +9,6 @@ import type { FeaturesSweepOptions } from './featuresSweep.js';
  * featuresSweep across worker threads: the (seed, train size) tasks go to `workers` threads,
  * largest first, and the rows come back in the same order as the in-process sweep, so the
  * result is identical apart from the measured wall_seconds.
- *
- * From the compiled dist/ the worker loads sweepWorker.js directly; from the TypeScript sources
- * (tsx) a small bootstrap registers tsx inside the worker first, since loader hooks of the main
- * thread do not reach worker threads on Node 20.
  */
 export async function featuresSweepParallel(opts: FeaturesSweepOptions & { workers: number }): Promise<RowTable> {
   const r = resolveFeaturesOptions(opts);
@@ -25,7 +19,7 @@ export async function featuresSweepParallel(opts: FeaturesSweepOptions & { worke
   const results: RowTable[] = new Array(tasks.length);
   // Largest train size first: the longest tasks start early and the tail stays short.
   const queue = tasks.map((t, i) => ({ t, i })).sort((a, b) => b.t.trainSize - a.t.trainSize || a.i - b.i);
-  const pool = Array.from({ length: workers }, () => startWorker());
+  const pool = Array.from({ length: workers }, () => startWorker({ base: import.meta.url, name: 'sweepWorker' }));
   try {
     await new Promise<void>((resolve, reject) => {
       let finished = 0;
@@ -65,14 +59,4 @@ export async function featuresSweepParallel(opts: FeaturesSweepOptions & { worke
     await Promise.all(pool.map((w) => w.terminate()));
   }
   return concatTables(results);
-}
-
-function startWorker(): Worker {
-  const here = import.meta.url;
-  if (!here.endsWith('.ts')) return new Worker(new URL('./sweepWorker.js', here));
-  // The ESM build of tsx's API (its CommonJS build cannot register hooks from a worker).
-  const tsxApi = pathToFileURL(join(dirname(createRequire(here).resolve('tsx/package.json')), 'dist/esm/api/index.mjs')).href;
-  const entry = new URL('./sweepWorker.ts', here).href;
-  const boot = `import(${JSON.stringify(tsxApi)}).then((m) => { m.register(); return import(${JSON.stringify(entry)}); });`;
-  return new Worker(boot, { eval: true });
 }
