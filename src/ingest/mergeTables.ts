@@ -1,6 +1,6 @@
 import { allocTable, emptyTable, NUMERIC_COLUMNS } from '../store/RowTable.js';
 import type { RowTable } from '../store/RowTable.js';
-import type { Reject } from './normalizeRaw.js';
+import type { Reject } from '../store/Reject.js';
 import { ingestText } from '../messages.js';
 import { selectRows } from '../store/selectRows.js';
 

@@ -7,6 +7,7 @@ import type { ParsedColumn } from './parseNumbers.js';
 import { isFractionTarget, matchTarget, nameKey, TARGETS } from './synonyms.js';
 import type { Target } from './synonyms.js';
 import { ingestText } from '../messages.js';
+import type { Reject } from '../store/Reject.js';
 
 export type Scale = 'percent' | 'fraction';
 
@@ -23,12 +24,7 @@ export interface NormalizeOptions {
   scale?: Partial<Record<Target, Scale>>;
 }
 
-export interface Reject {
-  source: string;
-  line: number;
-  field: string;
-  reason: string;
-}
+export type { Reject };
 
 export interface Normalized {
   /** Accepted rows of this source, in source order. */

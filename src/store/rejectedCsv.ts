@@ -1,5 +1,5 @@
-import type { Reject } from '../ingest/normalizeRaw.js';
-import { tokenizeDelimited } from '../ingest/tokenizeDelimited.js';
+import { createRequire } from 'node:module';
+import type { Reject } from './Reject.js';
 import { quoteCsvField } from '../csv/quoteCsvField.js';
 
 export const REJECTED_HEADER = ['source', 'line', 'field', 'reason'] as const;
@@ -10,15 +10,13 @@ export function formatRejected(rows: readonly Reject[]): string {
   return out;
 }
 
+// csv-parse loads only when an ingest that writes reads the earlier rejections back: a re-ingest
+// of unchanged files never does.
+const requireHere = createRequire(import.meta.url);
+
+/** Reads rejected.csv back (RFC 4180, written by formatRejected); rows with fewer than four fields are skipped. */
 export function parseRejected(text: string): Reject[] {
-  const rows: Reject[] = [];
-  let header = true;
-  tokenizeDelimited(text, ',', (f, count) => {
-    if (header) {
-      header = false;
-      return;
-    }
-    if (count >= 4) rows.push({ source: f[0], line: Number(f[1]), field: f[2], reason: f[3] });
-  });
-  return rows;
+  const { parse } = requireHere('csv-parse/sync') as typeof import('csv-parse/sync');
+  const records = parse(text, { from_line: 2, relax_column_count: true, skip_empty_lines: true }) as string[][];
+  return records.filter((f) => f.length >= 4).map((f) => ({ source: f[0], line: Number(f[1]), field: f[2], reason: f[3] }));
 }

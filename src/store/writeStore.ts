@@ -2,7 +2,7 @@ import { mkdirSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import type { RowTable } from './RowTable.js';
 import type { Manifest } from './Manifest.js';
-import type { Reject } from '../ingest/normalizeRaw.js';
+import type { Reject } from './Reject.js';
 import { writeAll, writeSynced } from './atomicWrite.js';
 import { formatRejected } from './rejectedCsv.js';
 import { COMMIT_KEY, rowsToArrow } from './rowsArrow.js';
