@@ -3,15 +3,13 @@ import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 
 export function newestSource(root) {
+  // One recursive listing (Node 20.1+) and a stat per file: every command pays for this check.
   let newest = 0;
-  const walk = (dir) => {
-    for (const e of readdirSync(dir, { withFileTypes: true })) {
-      const p = join(dir, e.name);
-      if (e.isDirectory()) walk(p);
-      else newest = Math.max(newest, statSync(p).mtimeMs);
-    }
-  };
-  walk(join(root, 'src'));
+  for (const e of readdirSync(join(root, 'src'), { withFileTypes: true, recursive: true })) {
+    if (e.isDirectory()) continue;
+    const m = statSync(`${e.parentPath ?? e.path}/${e.name}`).mtimeMs;
+    if (m > newest) newest = m;
+  }
   return newest;
 }
 
