@@ -1,5 +1,5 @@
 import type { Metric, RowTable } from '../store/RowTable.js';
-import { defaultMetric } from '../store/RowTable.js';
+import { defaultMetric, textReader } from '../store/RowTable.js';
 import type { Cell } from './Cell.js';
 import { seedStats } from './seedStats.js';
 
@@ -11,6 +11,8 @@ export interface BuildCellsOptions {
    * Default: each run contributes at the epochs it logged.
    */
   epochs?: number[];
+  /** Only these rows of the table (default all): saves copying the rows a map selects out of a store. */
+  rows?: ArrayLike<number>;
 }
 
 /** One run's curve: finite points of a value, epochs ascending. */
@@ -84,19 +86,27 @@ export function buildCells(table: RowTable, opts: BuildCellsOptions = {}): Cell[
   const metric = opts.metric ?? defaultMetric(table);
   const targets = opts.epochs ? [...new Set(opts.epochs.filter((e) => Number.isFinite(e)))].sort((a, b) => a - b) : null;
   const metricCol = table[metric];
+  // Text through the store's codes when it has them (no whole-column decoding).
+  const runOf = textReader(table, 'run');
+  const conditionOf = textReader(table, 'condition');
+  const statusOf = textReader(table, 'status');
+  const only = opts.rows;
+  const count = only ? only.length : table.length;
 
   // Rows of each run: grouped by run id (strings are built once per run, not per row), then split
   // by configuration in the rare case a run id was reused across configurations.
   const byRun = new Map<string, number[]>();
-  for (let i = 0; i < table.length; i++) {
-    const id = table.run[i] === '' ? `\u0000seed${table.seed[i]}` : table.run[i];
+  for (let r = 0; r < count; r++) {
+    const i = only ? only[r] : r;
+    const run = runOf(i);
+    const id = run === '' ? `\u0000seed${table.seed[i]}` : run;
     let rows = byRun.get(id);
     if (!rows) byRun.set(id, (rows = []));
     rows.push(i);
   }
-  const configKey = (i: number) => `${table.condition[i]}\u0000${table.label_noise[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}`;
+  const configKey = (i: number) => `${conditionOf(i)}\u0000${table.label_noise[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}`;
   const sameConfig = (i: number, j: number) =>
-    table.condition[i] === table.condition[j] &&
+    conditionOf(i) === conditionOf(j) &&
     Object.is(table.label_noise[i], table.label_noise[j]) &&
     Object.is(table.width[i], table.width[j]) &&
     Object.is(table.train_size[i], table.train_size[j]);
@@ -121,7 +131,7 @@ export function buildCells(table: RowTable, opts: BuildCellsOptions = {}): Cell[
     let acc = byEpoch.get(epoch);
     if (!acc) {
       acc = {
-        condition: table.condition[i],
+        condition: conditionOf(i),
         label_noise: table.label_noise[i],
         width: table.width[i],
         train_size: table.train_size[i],
@@ -149,7 +159,7 @@ export function buildCells(table: RowTable, opts: BuildCellsOptions = {}): Cell[
     const values: number[] = [];
     const trains: number[] = [];
     for (const i of rows) {
-      if (table.status[i] === 'diverged') {
+      if (statusOf(i) === 'diverged') {
         divergedAt = Math.min(divergedAt, table.epochs[i]);
         continue;
       }
@@ -162,12 +172,12 @@ export function buildCells(table: RowTable, opts: BuildCellsOptions = {}): Cell[
     const runTargets = targets ?? [...new Set(rows.map((i) => table.epochs[i]).filter((e) => Number.isFinite(e)))];
     for (const t of runTargets) {
       if (t >= divergedAt) {
-        accFor(byEpoch, first, t).divergedRuns.push(table.run[first]);
+        accFor(byEpoch, first, t).divergedRuns.push(runOf(first));
         continue;
       }
       const value = curveAt(curve, t);
       if (value === undefined) continue;
-      accFor(byEpoch, first, t).entries.push({ seed: table.seed[first], run: table.run[first], value, train: curveAt(trainCurve, t) ?? NaN });
+      accFor(byEpoch, first, t).entries.push({ seed: table.seed[first], run: runOf(first), value, train: curveAt(trainCurve, t) ?? NaN });
     }
   }
 

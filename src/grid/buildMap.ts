@@ -1,6 +1,5 @@
 import type { Cell } from '../cells/Cell.js';
 import { buildCells } from '../cells/buildCells.js';
-import { selectRows } from '../store/selectRows.js';
 import { mapMessages as msg } from '../messages.js';
 import type { Metric, RowTable } from '../store/RowTable.js';
 import { AXES, defaultMetric, textReader, textValues } from '../store/RowTable.js';
@@ -274,7 +273,7 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
 
   const epochTargets =
     fixed.epochs !== undefined ? [fixed.epochs as number] : xName === 'epochs' || yName === 'epochs' ? (opts.epochs ?? chooseEpochs(table, rows, opts.maxEpochs ?? 100, notes)) : undefined;
-  const cells = buildCells(selectRows(table, rows), { metric, epochs: epochTargets });
+  const cells = buildCells(table, { metric, epochs: epochTargets, rows });
   if (fixed.epochs !== undefined) {
     // Runs that stopped before the fixed epoch: say how many, since they silently thin the cells.
     const last = new Map<string, number>();

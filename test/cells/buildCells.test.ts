@@ -2,6 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { buildCells, curveAt } from '../../src/cells/buildCells.js';
 import type { RowRecord } from '../../src/store/tableFromRows.js';
 import { tableFromRows } from '../../src/store/tableFromRows.js';
+import { selectRows } from '../../src/store/selectRows.js';
+import { readRowsArrow, rowsToArrow } from '../../src/store/rowsArrow.js';
 
 const base = { width: 64, train_size: 1000, label_noise: 0.1, condition: '' };
 
@@ -100,5 +102,21 @@ describe('buildCells', () => {
     expect(curveAt(c, 101)).toBeUndefined();
     expect(curveAt(c, -1)).toBeUndefined();
     expect(curveAt(c, Math.sqrt(1000))).toBeCloseTo(0.4, 12); // midpoint in log epoch
+  });
+
+  it('over a subset of rows (rows option, through a store table\'s codes) equals the cells of those rows copied out', () => {
+    const t = tableFromRows([
+      ...run('a', 0, [10, 20, 40], (e) => 1 / e),
+      ...run('b', 1, [10, 20, 40], (e) => 2 / e, { status: 'diverged' }),
+      ...run('c', 2, [10, 40], (e) => 3 / e, { width: 128, condition: 'optimizer=adam' }),
+      ...run('d', 3, [20, 40], (e) => 4 / e),
+    ]);
+    const stored = readRowsArrow(rowsToArrow(t)!).table; // as a map reads it: text kept as codes
+    const rows = Int32Array.from([0, 1, 2, 4, 6, 7, 9, 10]);
+    for (const epochs of [undefined, [10, 30, 40]]) {
+      const copied = buildCells(selectRows(t, rows), { epochs });
+      expect(buildCells(t, { epochs, rows })).toEqual(copied);
+      expect(buildCells(stored, { epochs, rows })).toEqual(copied);
+    }
   });
 });
