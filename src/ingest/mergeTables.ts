@@ -1,5 +1,7 @@
 import { allocTable, emptyTable, NUMERIC_COLUMNS } from '../store/RowTable.js';
-import type { RowTable } from '../store/RowTable.js';
+import type { RowTable, TextCodes, TextColumn } from '../store/RowTable.js';
+import { textReader } from '../store/RowTable.js';
+import { attachTextCodes, DictionaryBuilder, TEXT_COLUMNS } from '../store/textCodes.js';
 import type { Reject } from '../store/Reject.js';
 import { ingestText } from '../messages.js';
 import { selectRows } from '../store/selectRows.js';
@@ -53,12 +55,19 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
     total += t.length;
     return o;
   });
+  // Text through each table's codes when it has them (store reads and worker results do): the
+  // merge never builds a million-element string array.
+  const text = (name: TextColumn) => tables.map((t) => textReader(t, name));
+  const runOf = text('run');
+  const conditionOf = text('condition');
+  const sourceOf = text('source');
+  const statusOf = text('status');
   const disposition = new Uint8Array(total);
   const tableOf = new Int32Array(total);
   tables.forEach((t, ti) => tableOf.fill(ti, offset[ti], offset[ti] + t.length));
   const mtimeOf = (slot: number) => {
     const ti = tableOf[slot];
-    return ti === 0 ? existingMtime(existing.source[slot]) : mtimes[ti];
+    return ti === 0 ? existingMtime(sourceOf[0](slot)) : mtimes[ti];
   };
   const extraNames = [...new Set(tables.flatMap((t) => Object.keys(t.extra)))];
   const equal = (a: number, b: number): boolean => {
@@ -67,7 +76,7 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
     const ia = a - offset[tableOf[a]];
     const ib = b - offset[tableOf[b]];
     for (const c of NUMERIC_COLUMNS) if (!same(ta[c][ia], tb[c][ib])) return false;
-    if (ta.status[ia] !== tb.status[ib] || ta.condition[ia] !== tb.condition[ib]) return false;
+    if (statusOf[tableOf[a]](ia) !== statusOf[tableOf[b]](ib) || conditionOf[tableOf[a]](ia) !== conditionOf[tableOf[b]](ib)) return false;
     for (const e of extraNames) if (!same(ta.extra[e]?.[ia] ?? NaN, tb.extra[e]?.[ib] ?? NaN)) return false;
     return true;
   };
@@ -77,7 +86,7 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
     const tb = tables[tableOf[b]];
     const ia = a - offset[tableOf[a]];
     const ib = b - offset[tableOf[b]];
-    if (ta.status[ia] !== tb.status[ib] || ta.condition[ia] !== tb.condition[ib]) return false;
+    if (statusOf[tableOf[a]](ia) !== statusOf[tableOf[b]](ib) || conditionOf[tableOf[a]](ia) !== conditionOf[tableOf[b]](ib)) return false;
     for (const c of NUMERIC_COLUMNS) {
       const x = ta[c][ia];
       const y = tb[c][ib];
@@ -107,7 +116,7 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
   let merged = 0;
   const rowOf = (slot: number) => {
     const ti = tableOf[slot];
-    return { t: tables[ti], i: slot - offset[ti] };
+    return { t: tables[ti], ti, i: slot - offset[ti] };
   };
 
   // Run id → its rows. A run seen once in one contiguous block with increasing epochs (the usual
@@ -143,7 +152,7 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
     if (newer) byEpoch.set(ep, slot);
     const l = rowOf(loser);
     const w = rowOf(winner);
-    rejects.push({ source: l.t.source[l.i], line: l.t.source_line[l.i], field: 'run', reason: ingestText.conflict(run, ep, w.t.source[w.i], w.t.source_line[w.i]) });
+    rejects.push({ source: sourceOf[l.ti](l.i), line: l.t.source_line[l.i], field: 'run', reason: ingestText.conflict(run, ep, sourceOf[w.ti](w.i), w.t.source_line[w.i]) });
   };
   const materialize = (entry: RunEntry): Map<number, number> => {
     if (entry.byEpoch) return entry.byEpoch;
@@ -159,13 +168,14 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
   const order = [0, ...incoming.map((_, k) => k + 1).sort((a, b) => mtimes[a] - mtimes[b] || a - b)];
   for (const ti of order) {
     const t = tables[ti];
+    const runAt = runOf[ti];
     const base = offset[ti];
     let i = 0;
     while (i < t.length) {
-      const run = t.run[i];
+      const run = runAt(i);
       let j = i + 1;
       let increasing = true;
-      while (j < t.length && t.run[j] === run) {
+      while (j < t.length && runAt(j) === run) {
         if (!(t.epochs[j] > t.epochs[j - 1])) increasing = false;
         j++;
       }
@@ -199,8 +209,11 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
     else if (d === DUPLICATE) duplicates[ti - 1]++;
     else conflictLost[ti - 1]++;
   }
-  // Every canonical column of every kept row is copied below: no need to fill first.
+  // Every canonical column of every kept row is copied below: no need to fill first. Text goes
+  // out as codes over one dictionary per column (what rows.arrow stores), never as strings.
   const out = allocTable(kept, extraNames);
+  const builders = TEXT_COLUMNS.map(() => new DictionaryBuilder());
+  const outCodes = TEXT_COLUMNS.map(() => new Int32Array(kept));
   let k = 0;
   tables.forEach((t, ti) => {
     const base = offset[ti];
@@ -211,35 +224,62 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
       for (const c of NUMERIC_COLUMNS) out[c].set(t[c], k);
       out.source_line.set(t.source_line, k);
       for (const e of extraNames) if (t.extra[e]) out.extra[e].set(t.extra[e], k);
-      for (let i = 0; i < t.length; i++) {
-        out.run[k + i] = t.run[i];
-        out.condition[k + i] = t.condition[i];
-        out.source[k + i] = t.source[i];
-        out.status[k + i] = t.status[i];
-      }
+      TEXT_COLUMNS.forEach((name, ci) => copyCodes({ table: t, name, builder: builders[ci], dest: outCodes[ci], at: k, rows: null }));
       k += t.length;
       return;
     }
-    for (let i = 0; i < t.length; i++) {
-      if (disposition[base + i] !== KEPT) continue;
-      out.run[k] = t.run[i];
-      out.condition[k] = t.condition[i];
-      out.source[k] = t.source[i];
+    const keptRows: number[] = [];
+    for (let i = 0; i < t.length; i++) if (disposition[base + i] === KEPT) keptRows.push(i);
+    TEXT_COLUMNS.forEach((name, ci) => copyCodes({ table: t, name, builder: builders[ci], dest: outCodes[ci], at: k, rows: keptRows }));
+    for (const i of keptRows) {
       out.source_line[k] = t.source_line[i];
-      out.status[k] = t.status[i];
       for (const c of NUMERIC_COLUMNS) out[c][k] = t[c][i];
       for (const e of extraNames) out.extra[e][k] = t.extra[e]?.[i] ?? NaN;
       k++;
     }
   });
+  const codes: Partial<Record<TextColumn, TextCodes>> = {};
+  TEXT_COLUMNS.forEach((name, ci) => {
+    codes[name] = { codes: outCodes[ci], dict: name === 'status' ? builders[ci].dict.map((s) => (s === 'diverged' ? 'diverged' : 'ok')) : builders[ci].dict };
+  });
+  attachTextCodes(out, codes);
   return { table: out, accepted, duplicates, conflictLost, rejects, conflicts, displaced, merged };
 }
 
 /** The rows of a table whose source is not in `drop` (a changed source's earlier rows are replaced). */
 export function dropSources(t: RowTable, drop: ReadonlySet<string>): RowTable {
   if (drop.size === 0) return t;
+  const source = textReader(t, 'source');
   const keep: number[] = [];
-  for (let i = 0; i < t.length; i++) if (!drop.has(t.source[i])) keep.push(i);
+  for (let i = 0; i < t.length; i++) if (!drop.has(source(i))) keep.push(i);
   if (keep.length === t.length) return t;
   return selectRows(t, keep);
+}
+
+/**
+ * Copies a text column's rows (all, or `rows`) into `dest` from position `at`, as codes of
+ * `builder`'s dictionary: through the table's own codes when it has them (one lookup per
+ * dictionary entry), else one lookup per stretch of equal strings.
+ */
+function copyCodes(opts: { table: RowTable; name: TextColumn; builder: DictionaryBuilder; dest: Int32Array; at: number; rows: readonly number[] | null }): void {
+  const { table: t, name, builder, dest, at, rows } = opts;
+  const n = rows ? rows.length : t.length;
+  const coded = t.codes?.[name];
+  if (coded) {
+    const tr = builder.translator(coded.dict);
+    const src = coded.codes;
+    for (let r = 0; r < n; r++) dest[at + r] = tr(src[rows ? rows[r] : r]);
+    return;
+  }
+  const col = t[name] as readonly string[];
+  let last: string | undefined;
+  let lastCode = -1;
+  for (let r = 0; r < n; r++) {
+    const v = col[rows ? rows[r] : r] ?? '';
+    if (v !== last) {
+      last = v;
+      lastCode = builder.code(v);
+    }
+    dest[at + r] = lastCode;
+  }
 }

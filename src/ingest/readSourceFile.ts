@@ -7,9 +7,10 @@ import { normalizeRaw } from './normalizeRaw.js';
 import type { Normalized, Scale } from './normalizeRaw.js';
 import type { Target } from './synonyms.js';
 import { emptyTable, NUMERIC_COLUMNS } from '../store/RowTable.js';
-import type { RowTable, RunStatus } from '../store/RowTable.js';
+import type { RowTable } from '../store/RowTable.js';
 import { ingestText } from '../messages.js';
 import { dictionaryEncode } from '../store/dictionaryEncode.js';
+import { attachTextCodes } from '../store/textCodes.js';
 
 /** Normalisation options in a form that can cross to a worker thread (the regex as text). */
 export interface PortableOptions {
@@ -105,18 +106,11 @@ export function packTable(t: RowTable): { packed: PackedTable; transfer: ArrayBu
 
 export function unpackTable(p: PackedTable): RowTable {
   const t = emptyTable(0) as { -readonly [K in keyof RowTable]: RowTable[K] };
-  const decode = (x: { dict: string[]; codes: Int32Array }) => {
-    const out = new Array<string>(x.codes.length);
-    for (let i = 0; i < out.length; i++) out[i] = x.dict[x.codes[i]];
-    return out;
-  };
   t.length = p.length;
   for (const c of NUMERIC_COLUMNS) (t as Record<string, unknown>)[c] = p.numeric[c];
   t.extra = p.extra;
   t.source_line = p.source_line;
-  t.run = decode(p.text.run);
-  t.condition = decode(p.text.condition);
-  t.source = decode(p.text.source);
-  t.status = decode(p.text.status) as RunStatus[];
+  // Text stays coded: the merge copies codes, and the string arrays are built only if read.
+  attachTextCodes(t, p.text);
   return t;
 }

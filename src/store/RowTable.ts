@@ -69,7 +69,7 @@ export interface RowTable {
 /** The text columns (status included). */
 export type TextColumn = 'run' | 'condition' | 'source' | 'status';
 
-/** A dictionary-coded text column (as in rows.arrow). */
+/** A dictionary-coded text column (as in rows.arrow); every entry of `dict` is used by some row. */
 export interface TextCodes {
   readonly codes: Int32Array;
   readonly dict: readonly string[];

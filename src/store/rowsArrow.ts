@@ -3,6 +3,7 @@ import type * as Flechette from '@uwdata/flechette';
 import { emptyTable, NUMERIC_COLUMNS, STRING_COLUMNS } from './RowTable.js';
 import type { RowTable, RunStatus, TextCodes, TextColumn } from './RowTable.js';
 import { dictionaryEncode } from './dictionaryEncode.js';
+import { attachTextCodes, lazyProperty } from './textCodes.js';
 
 // flechette (~50 ms to load) only once rows are encoded or decoded: `datlas ingest` of unchanged
 // files, which reads just the manifest, never pays for it.
@@ -20,7 +21,7 @@ export const STORE_COLUMNS = ['run', 'seed', 'width', 'epochs', 'train_size', 'l
  * source_line is int32.
  */
 export function rowsToArrow(t: RowTable, sink?: { write(bytes: Uint8Array): void }, metadata?: Record<string, string>): Uint8Array | null {
-  const data: [string, unknown[] | Float64Array | Int32Array][] = [];
+  const data: [string, unknown[] | Float64Array | Int32Array | TextCodes][] = [];
   const { columnFromArray, dictionary, float64, int32, tableFromArrays, tableFromColumns, tableToIPC, utf8 } = fl();
   const types: Record<string, ReturnType<typeof dictionary>> = {};
   for (const c of STORE_COLUMNS) {
@@ -30,7 +31,9 @@ export function rowsToArrow(t: RowTable, sink?: { write(bytes: Uint8Array): void
     } else if ((NUMERIC_COLUMNS as readonly string[]).includes(c)) {
       data.push([c, t[c as (typeof NUMERIC_COLUMNS)[number]]]);
     } else {
-      data.push([c, c === 'status' ? t.status : t[c as (typeof STRING_COLUMNS)[number]]]);
+      // Coded columns (a store read back, a merged ingest) go out as they are, never decoded.
+      const coded = t.length > 0 ? t.codes?.[c as TextColumn] : undefined;
+      data.push([c, coded ?? (c === 'status' ? t.status : t[c as (typeof STRING_COLUMNS)[number]])]);
       types[c] = dictionary(utf8(), int32());
     }
   }
@@ -50,7 +53,7 @@ export function rowsToArrow(t: RowTable, sink?: { write(bytes: Uint8Array): void
   // An empty table takes flechette's builder, which declares the types of empty columns.
   const table =
     t.length > 0
-      ? tableFromColumns(data.map(([name, col]) => [name, name in types ? dictionaryColumn(col as readonly string[]) : columnFromArray(col as Float64Array)] as [string, Flechette.Column<unknown>]))
+      ? tableFromColumns(data.map(([name, col]) => [name, name in types ? dictionaryColumn(col as readonly string[] | TextCodes) : columnFromArray(col as Float64Array)] as [string, Flechette.Column<unknown>]))
       : // flechette's typings want plain arrays or typed arrays; ours are exactly that.
         tableFromArrays(data as [string, unknown[]][], { types });
   // Schema metadata (the store's commit id) is written into the file's schema and footer.
@@ -64,15 +67,15 @@ export function rowsToArrow(t: RowTable, sink?: { write(bytes: Uint8Array): void
 }
 
 /** A dictionary-encoded utf8 column (int32 keys, no nulls: a missing text is ""). */
-function dictionaryColumn(values: readonly string[]): Flechette.Column<unknown> {
+function dictionaryColumn(values: readonly string[] | TextCodes): Flechette.Column<unknown> {
   const { batchType, Column, columnFromValues, dictionary, int32, utf8 } = fl();
-  const { dict, codes: keys } = dictionaryEncode(values);
+  const { dict, codes: keys } = Array.isArray(values) ? dictionaryEncode(values as readonly string[]) : (values as TextCodes);
   const type = dictionary(utf8(), int32());
   // flechette types batchType's result as any: it is the DictionaryBatch class for this type.
   const DictBatch = batchType(type);
-  const batch = new DictBatch({ length: values.length, nullCount: 0, type, validity: new Uint8Array(0), values: keys });
+  const batch = new DictBatch({ length: keys.length, nullCount: 0, type, validity: new Uint8Array(0), values: keys });
   // The dictionary column must carry the very value-type object of `type`: the IPC writer finds ids by it.
-  batch.setDictionary(columnFromValues(dict, type.dictionary));
+  batch.setDictionary(columnFromValues(dict as string[], type.dictionary));
   return new Column([batch], type);
 }
 
@@ -105,8 +108,8 @@ function rowsOf(table: ReturnType<typeof Flechette.tableFromIPC>): RowTable {
   };
   const out = { length, extra: {} as Record<string, Float64Array> } as { -readonly [K in keyof RowTable]: RowTable[K] };
   for (const c of NUMERIC_COLUMNS) (out as Record<string, unknown>)[c] = names.includes(c) ? num(c) : dflt()[c];
-  // Text columns are decoded on first use: a million-element array of strings costs ~40 ms to
-  // build (most of it faulting in fresh memory), and a map never looks at `source`.
+  // Text columns are kept as the file's dictionary codes and decoded on first use: a map never
+  // builds the million-element string arrays (nor looks at `source` at all).
   const codes: Partial<Record<TextColumn, TextCodes>> = {};
   const asStatus = (s: string): RunStatus => (s === 'diverged' ? 'diverged' : 'ok');
   for (const c of [...STRING_COLUMNS, 'status'] as const) {
@@ -116,11 +119,11 @@ function rowsOf(table: ReturnType<typeof Flechette.tableFromIPC>): RowTable {
     }
     const col = table.getChild(c);
     const f = c === 'status' ? asStatus : (s: string) => s;
-    lazy(out, c, () => textColumn(col, f));
     const coded = dictionaryCodes(col, f);
     if (coded) codes[c] = coded;
+    else lazyProperty(out, c, () => textColumn(col, f));
   }
-  out.codes = codes;
+  attachTextCodes(out, codes);
   if (names.includes('source_line')) {
     const v = table.getChild('source_line').toArray() as ArrayLike<number>;
     out.source_line = v instanceof Int32Array ? v : Int32Array.from(v);
@@ -145,19 +148,6 @@ function dictionaryCodes(col: ReturnType<ReturnType<typeof Flechette.tableFromIP
   const b = batches[0];
   if (b.nullCount !== 0 || !b.cache || !(b.values instanceof Int32Array) || b.values.length < b.length) return null;
   return { codes: b.values.subarray(0, b.length), dict: Array.from(b.cache, (s) => f(s ?? '')) };
-}
-
-/** Defines `key` on `obj` as computed on first read, then kept (a plain writable value from then on). */
-function lazy<T extends object, K extends keyof T>(obj: T, key: K, make: () => T[K]): void {
-  Object.defineProperty(obj, key, {
-    configurable: true,
-    enumerable: true,
-    get() {
-      const value = make();
-      Object.defineProperty(obj, key, { value, writable: true, configurable: true, enumerable: true });
-      return value;
-    },
-  });
 }
 
 /**
