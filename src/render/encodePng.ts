@@ -8,11 +8,18 @@ export function encodePng(rgba: Uint8Array, width: number, height: number): Buff
   if (rgba.length !== width * height * 4) throw new Error(`encodePng: ${rgba.length} bytes for ${width}×${height} RGBA`);
   const stride = width * 4;
   // Each scanline starts with its filter byte; "Sub" (1) compresses smooth colour ramps well.
+  // A row equal to the one above gets "Up" (2): all zeros, which the buffer already holds (a map
+  // of cells repeats each pixel row many times; filtering and deflating them was most of the cost).
   const raw = Buffer.alloc((stride + 1) * height);
+  const px = Buffer.from(rgba.buffer, rgba.byteOffset, rgba.byteLength);
   for (let y = 0; y < height; y++) {
     const o = y * (stride + 1);
-    raw[o] = 1;
     const row = y * stride;
+    if (y > 0 && px.compare(px, row - stride, row, row, row + stride) === 0) {
+      raw[o] = 2;
+      continue;
+    }
+    raw[o] = 1;
     for (let i = 0; i < stride; i++) {
       const left = i >= 4 ? rgba[row + i - 4] : 0;
       raw[o + 1 + i] = (rgba[row + i] - left) & 0xff;

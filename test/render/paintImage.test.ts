@@ -18,6 +18,20 @@ describe('encodePng', () => {
     expect([...png.data]).toEqual([...px]);
     expect(pngDataUrl(px, w, h)).toMatch(/^data:image\/png;base64,iVBORw0KGgo/);
   });
+
+  it('rows repeating the row above (Up filter, ISO/IEC 15948 §9.2) decode to the same pixels', () => {
+    const w = 9;
+    const h = 12;
+    const px = new Uint8Array(w * h * 4);
+    // Bands of 1–4 identical rows, a view into a larger buffer (as paintCells' callers may pass).
+    const bandOf = (y: number) => (y < 3 ? 0 : y < 4 ? 1 : y < 8 ? 2 : y < 10 ? 3 : 4);
+    for (let y = 0; y < h; y++) for (let x = 0; x < w * 4; x++) px[y * w * 4 + x] = (bandOf(y) * 53 + x * 11) & 0xff;
+    const big = new Uint8Array(px.length + 16);
+    big.set(px, 8);
+    const view = big.subarray(8, 8 + px.length);
+    const png = PNG.sync.read(encodePng(view, w, h));
+    expect([...png.data]).toEqual([...px]);
+  });
 });
 
 describe('colour schemes', () => {
