@@ -55,8 +55,11 @@ export async function renderFormats(
     for (const format of formats) {
       if (format === 'svg') out.svg = await view.toSVG();
       else if (format === 'png') {
-        const canvas = (await view.toCanvas(scale)) as unknown as { toBuffer(mime: string): Buffer };
-        out.png = canvas.toBuffer('image/png');
+        const canvas = (await view.toCanvas(scale)) as unknown as { toBuffer(mime: string, opts: { compressionLevel: number; filters: number }): Buffer };
+        // No scanline filter: charts are flat colour, where libpng's default (trying every filter
+        // per row) costs twice the time and gives larger files (1536×1116 figure: 60 → 33 ms,
+        // 163 → 142 KB; an interpolated raster 68 → 34 ms, 208 → 157 KB).
+        out.png = canvas.toBuffer('image/png', { compressionLevel: 6, filters: await pngFilterNone() });
       } else {
         const canvas = (await view.toCanvas(1, {
           type: 'pdf',
@@ -69,4 +72,10 @@ export async function renderFormats(
   } finally {
     view.finalize();
   }
+}
+
+/** node-canvas's constant for PNG scanline filter "None" (a static of its Canvas class). */
+async function pngFilterNone(): Promise<number> {
+  const { Canvas } = (await import('canvas')) as unknown as { Canvas: { PNG_FILTER_NONE: number } };
+  return Canvas.PNG_FILTER_NONE;
 }
