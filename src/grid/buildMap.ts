@@ -173,7 +173,8 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   const yName = opts.y ?? kindAxes.y;
   // Condition keys (weight_decay, optimizer, ...) can be axes (numeric ones) or fixed with --at.
   const parsed = new Map<string, Map<string, string>>();
-  for (const c of textValues(table, 'condition')) parsed.set(c, parseCondition(c));
+  const conditionValues = textValues(table, 'condition');
+  for (const c of conditionValues) parsed.set(c, parseCondition(c));
   // Row loops read text through the store's codes when it has them (no whole-column decoding).
   const condition = textReader(table, 'condition');
   const keyValues = new Map<string, string[]>();
@@ -226,7 +227,7 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   for (const [key, v] of Object.entries(at)) if (isKey(key)) fixed[key] = v;
   const picked: string[] = [];
   // Only a condition that has something left can be in a row (a store of one condition never loops).
-  const hasConditions = textValues(table, 'condition').some((c) => restOf(c) !== '') && rows.some((i) => restOf(condition(i)) !== '');
+  const hasConditions = conditionValues.some((c) => restOf(c) !== '') && rows.some((i) => restOf(condition(i)) !== '');
   for (const name of PICK_ORDER) {
     if (name === xName || name === yName) continue;
     if (name === 'condition' && !hasConditions && at.condition === undefined) continue;

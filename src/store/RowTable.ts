@@ -58,7 +58,8 @@ export interface RowTable {
    */
   readonly extra: Record<string, Float64Array>;
   /**
-   * Text columns as dictionary codes, when the table has them (a store read from rows.arrow):
+   * Text columns as dictionary codes, when the table has them (a store read from rows.arrow, the
+   * table an ingest merged):
    * row i holds dict[codes[i]]. Row loops over a whole store read these instead of the string
    * arrays, which are then never built (a million-element array costs ~40 ms, mostly in faulting
    * in fresh memory). Never written to: a derived table has none.
