@@ -2,7 +2,7 @@ import { cellAt, emptyRaw } from './RawTable.js';
 import { NumTextColumn } from './NumTextColumn.js';
 import { matchTarget } from './synonyms.js';
 import type { RawTable, RawValue } from './RawTable.js';
-import { tokenizeWhitespace } from './tokenizeDelimited.js';
+import { tokenizeWhitespace } from './tokenizeWhitespace.js';
 import { tokenizeToColumns } from './tokenizeToColumns.js';
 
 import { ingestText } from '../messages.js';

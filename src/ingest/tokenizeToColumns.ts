@@ -15,7 +15,7 @@ const CR = 13;
 const LF = 10;
 
 /**
- * The hot path of CSV/TSV ingest: the same RFC 4180 grammar as tokenizeDelimited (quotes,
+ * The hot path of CSV/TSV ingest: RFC 4180 (quotes,
  * doubled quotes, embedded line breaks, CRLF/LF/CR, BOM, pending last row), but each field goes
  * straight into its column as a number (parsed from the characters, no string made) or, when it
  * is not a plain number, as text. A header line comes first.
