@@ -211,7 +211,7 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
   }
   // Every canonical column of every kept row is copied below: no need to fill first. Text goes
   // out as codes over one dictionary per column (what rows.arrow stores), never as strings.
-  const out = allocTable(kept, extraNames);
+  const out = allocTable(kept, extraNames, { text: false });
   const builders = TEXT_COLUMNS.map(() => new DictionaryBuilder());
   const outCodes = TEXT_COLUMNS.map(() => new Int32Array(kept));
   let k = 0;
