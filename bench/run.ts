@@ -10,6 +10,8 @@
  *   npm run bench -- --label after       tag the results (bench/out/results-after.json as well)
  *   npm run bench -- --reps 5
  *   npm run bench -- --cli-root /tmp/old --label before   the CLI of another checkout (A/B under the same load)
+ *   npm run bench -- --against /tmp/old --reps 6   interleaved A/B: each repetition runs the other checkout's
+ *                                        CLI and this one back to back (order alternating), medians side by side
  *
  * Data goes to bench/work/ (generated, not committed), results to bench/out/results.json.
  */
@@ -45,6 +47,14 @@ const only = value('--only')?.split(',');
 const cliRoot = value('--cli-root') ? resolve(value('--cli-root')!) : root;
 const entry = join(cliRoot, 'bench/datlas-dist.mjs');
 if (!existsSync(entry)) copyFileSync(join(root, 'bench/datlas-dist.mjs'), entry);
+/**
+ * Another checkout measured interleaved with this one: on a shared machine whose load moves
+ * within minutes, back-to-back pairs are the only fair comparison. Both must read the same store
+ * format (the workload and stores under bench/work are shared).
+ */
+const againstRoot = value('--against') ? resolve(value('--against')!) : null;
+const againstEntry = againstRoot ? join(againstRoot, 'bench/datlas-dist.mjs') : null;
+if (againstRoot && againstEntry && !existsSync(againstEntry)) copyFileSync(join(root, 'bench/datlas-dist.mjs'), againstEntry);
 
 interface Step {
   name: string;
@@ -73,6 +83,8 @@ interface StepResult {
   met: boolean;
   failed: string | null;
   profile?: ReturnType<typeof summarizeProfiles>;
+  /** With --against: the other checkout's figures from the same interleaved repetitions. */
+  against?: { wall: number; walls: number[]; cpu: number; rss: number };
 }
 
 const GiB = 1024 ** 3;
@@ -83,9 +95,9 @@ const median = (xs: number[]) => {
 const load1 = () => loadavg()[0];
 
 /** Rebuilds dist/ when a source is newer (others edit src/ while the bench runs). */
-function ensureBuilt(): void {
-  if (builtAt(cliRoot) >= newestSource(cliRoot)) return;
-  execFileSync(process.execPath, [join(cliRoot, 'scripts/build.mjs')], { cwd: cliRoot, stdio: 'inherit' });
+function ensureBuilt(dir = cliRoot): void {
+  if (builtAt(dir) >= newestSource(dir)) return;
+  execFileSync(process.execPath, [join(dir, 'scripts/build.mjs')], { cwd: dir, stdio: 'inherit' });
 }
 
 function fmtBytes(b: number): string {
@@ -94,19 +106,33 @@ function fmtBytes(b: number): string {
 
 async function runStep(step: Step): Promise<StepResult> {
   const samples: Sample[] = [];
+  const other: Sample[] = [];
   const loads: number[] = [];
   let failed: string | null = null;
-  for (let r = 0; r < step.reps; r++) {
+  const once = async (which: string, at: string, dir: string): Promise<Sample | null> => {
     step.before?.();
-    ensureBuilt();
-    loads.push(load1());
-    const s = await measure({ cwd: root, args: step.args, entry });
+    ensureBuilt(dir);
+    const s = await measure({ cwd: root, args: step.args, entry: at });
     if (s.code !== 0) {
-      failed = `exit ${s.code}: ${s.stderr.trim().split('\n').slice(-3).join(' | ')}`;
-      break;
+      failed = `${which}exit ${s.code}: ${s.stderr.trim().split('\n').slice(-3).join(' | ')}`;
+      return null;
     }
-    samples.push(s);
-    process.stderr.write(`  ${step.name} #${r + 1}: ${s.wall.toFixed(3)} s, ${fmtBytes(s.rss)}, cpu ${(s.user + s.sys).toFixed(2)} s, load ${loads[r].toFixed(2)}\n`);
+    process.stderr.write(`  ${step.name}${which ? ` ${which}` : ''} #${loads.length}: ${s.wall.toFixed(3)} s, ${fmtBytes(s.rss)}, cpu ${(s.user + s.sys).toFixed(2)} s, load ${loads[loads.length - 1].toFixed(2)}\n`);
+    return s;
+  };
+  for (let r = 0; r < step.reps && !failed; r++) {
+    loads.push(load1());
+    if (!againstEntry || !againstRoot) {
+      const s = await once('', entry, cliRoot);
+      if (s) samples.push(s);
+      continue;
+    }
+    // The order alternates, so neither side always runs on the warmer machine.
+    for (const side of r % 2 === 0 ? ['against', 'this'] : ['this', 'against']) {
+      const s = side === 'this' ? await once('(this)', entry, cliRoot) : await once('(against)', againstEntry, againstRoot);
+      if (!s) break;
+      (side === 'this' ? samples : other).push(s);
+    }
   }
   const walls = samples.map((s) => s.wall);
   const wall = walls.length ? median(walls) : NaN;
@@ -118,6 +144,9 @@ async function runStep(step: Step): Promise<StepResult> {
     rowsPerSecond: step.rows > 0 && wall > 0 ? step.rows / wall : null, rss, cpu, load: loads.length ? median(loads) : load1(),
     target: step.target, met, failed,
   };
+  if (other.length) {
+    result.against = { wall: median(other.map((s) => s.wall)), walls: other.map((s) => s.wall), cpu: median(other.map((s) => s.user + s.sys)), rss: Math.max(...other.map((s) => s.rss)) };
+  }
   if (profile && !met && !failed) {
     const dir = join(outDir, 'profiles', step.name);
     rmSync(dir, { recursive: true, force: true });
@@ -145,6 +174,16 @@ async function main(): Promise<void> {
   }
   console.log(`descent-atlas bench  ${new Date().toISOString()}  ${machine.cores} × ${machine.cpu}, ${machine.memory}, node ${machine.node}`);
   if (cliRoot !== root) console.log(`CLI measured: ${cliRoot} (commit ${commit || 'unknown'})`);
+  let againstCommit = '';
+  if (againstRoot) {
+    try {
+      againstCommit = execFileSync('git', ['rev-parse', '--short', 'HEAD'], { cwd: againstRoot, encoding: 'utf8' }).trim();
+    } catch {
+      // Not a git checkout.
+    }
+    console.log(`interleaved against: ${againstRoot} (commit ${againstCommit || 'unknown'})`);
+    ensureBuilt(againstRoot);
+  }
   console.log(`load average at start: ${loadStart.map((l) => l.toFixed(2)).join(' ')}`);
   if (loadStart[0] > 1.5) console.log(`warning: load average ${loadStart[0].toFixed(2)} > 1.5 — other work shares the cores; wall times are inflated`);
 
@@ -207,7 +246,7 @@ async function main(): Promise<void> {
   }
   const loadEnd = loadavg();
 
-  const head = ['step', 'median wall', 'target', 'rows/s', 'peak RSS', 'cpu s', 'load', 'ok'];
+  const head = ['step', 'median wall', 'target', 'rows/s', 'peak RSS', 'cpu s', 'load', 'ok', ...(againstRoot ? ['against: wall', 'cpu s', 'change'] : [])];
   const rows = results.map((r) => [
     r.what,
     Number.isFinite(r.wall) ? `${r.wall.toFixed(3)} s` + (r.reps > 1 ? ` (${r.reps}×)` : '') : 'failed',
@@ -217,6 +256,11 @@ async function main(): Promise<void> {
     Number.isFinite(r.cpu) ? r.cpu.toFixed(2) : '',
     r.load.toFixed(2),
     r.failed ? `FAILED ${r.failed}` : r.met ? 'yes' : 'MISSED',
+    ...(againstRoot
+      ? r.against
+        ? [`${r.against.wall.toFixed(3)} s`, r.against.cpu.toFixed(2), `${(((r.wall - r.against.wall) / r.against.wall) * 100).toFixed(1)} %`]
+        : ['', '', '']
+      : []),
   ]);
   const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
   const line = (cells: string[]) => cells.map((c, i) => c.padEnd(widths[i])).join('  ');
@@ -227,7 +271,7 @@ async function main(): Promise<void> {
   console.log(`\nload average at end: ${loadEnd.map((l) => l.toFixed(2)).join(' ')}${loadEnd[0] > 1.5 ? ' (machine busy: figures noisy)' : ''}`);
   console.log('cpu s = user + system seconds of the child (above the wall time: more than one core worked)');
 
-  const json = { date: new Date().toISOString(), label, commit, cliRoot, machine, loadStart, loadEnd, steps: results };
+  const json = { date: new Date().toISOString(), label, commit, cliRoot, against: againstRoot ? { root: againstRoot, commit: againstCommit } : null, machine, loadStart, loadEnd, steps: results };
   writeFileSync(join(outDir, 'results.json'), `${JSON.stringify(json, null, 2)}\n`);
   if (label) writeFileSync(join(outDir, `results-${label}.json`), `${JSON.stringify(json, null, 2)}\n`);
   console.log(`wrote ${join('bench/out', 'results.json')}${label ? ` and bench/out/results-${label}.json` : ''}`);
