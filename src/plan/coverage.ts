@@ -18,14 +18,8 @@ export interface CoverageRun extends SpecRun {
   stored: StoreRun | null;
 }
 
-/** A store run that matches no planned run. */
-export interface ExtraRun {
-  run: string;
-  condition: string;
-  label_noise: number;
-  width: number;
-  train_size: number;
-  seed: number;
+/** A store run that matches no planned run (its configuration as the store summary has it). */
+export interface ExtraRun extends Pick<StoreRun, 'run' | 'condition' | 'label_noise' | 'width' | 'train_size' | 'seed'> {
   epoch: number;
   status: Exclude<CoverageStatus, 'missing'>;
   /** Which part of the configuration is outside the spec. */
