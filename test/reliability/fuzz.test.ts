@@ -51,6 +51,16 @@ const csvRows = header.chain((extraNames) => {
   return fc.record({ names: fc.constant(names), rows: fc.array(row, { maxLength: 40, size: 'medium' }) });
 });
 
+/** A log cut short at `cut` (a writer still at work) and with `garbage` bytes put in at `at`. */
+function damage(text: string, opts: { cut?: number; garbage?: Uint8Array; at: number }): Uint8Array {
+  const { cut, garbage, at } = opts;
+  const kept = cut === undefined ? text : text.slice(0, cut % (text.length + 1));
+  const bytes = Buffer.from(kept, 'utf8');
+  if (!garbage) return bytes;
+  const p = at % (bytes.length + 1);
+  return Buffer.concat([bytes.subarray(0, p), garbage, bytes.subarray(p)]);
+}
+
 const csvText = fc
   .record({
     table: csvRows,
@@ -63,14 +73,7 @@ const csvText = fc
   .map(({ table: { names, rows }, quoting, eol, cut, garbage, at }) => {
     let q = 0;
     const line = (cells: string[]) => cells.map((c) => quote(c, quoting[q++ % quoting.length])).join(',');
-    let text = [line(names), ...rows.map(line)].join(eol) + eol;
-    if (cut !== undefined) text = text.slice(0, cut % (text.length + 1));
-    let bytes: Uint8Array = Buffer.from(text, 'utf8');
-    if (garbage) {
-      const p = at % (bytes.length + 1);
-      bytes = Buffer.concat([bytes.subarray(0, p), garbage, bytes.subarray(p)]);
-    }
-    return bytes;
+    return damage([line(names), ...rows.map(line)].join(eol) + eol, { cut, garbage, at });
   });
 
 const jsonValue = fc.oneof(numberText.map(Number), numberText, weird, fc.constant(null), fc.boolean(), fc.dictionary(fc.constantFrom('model', 'width', 'lr'), fc.oneof(fc.integer(), weird), { maxKeys: 2 }));
@@ -92,14 +95,7 @@ const jsonlText = fc
   .map(({ records, broken, cut, garbage, at }) => {
     const lines = records.map((r) => JSON.stringify(r).replace(/"(NaN|Infinity)"/g, '$1'));
     for (const b of broken) if (lines.length) lines[b % lines.length] = lines[b % lines.length].slice(0, (b % 7) + 1);
-    let text = lines.map((l) => `${l}\n`).join('');
-    if (cut !== undefined) text = text.slice(0, cut % (text.length + 1));
-    let bytes: Uint8Array = Buffer.from(text, 'utf8');
-    if (garbage) {
-      const p = at % (bytes.length + 1);
-      bytes = Buffer.concat([bytes.subarray(0, p), garbage, bytes.subarray(p)]);
-    }
-    return bytes;
+    return damage(lines.map((l) => `${l}\n`).join(''), { cut, garbage, at });
   });
 
 let dir = '';
