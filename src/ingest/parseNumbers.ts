@@ -118,7 +118,8 @@ export function isNumericColumn(col: RawColumn, n: number): boolean {
   if (col instanceof Float64Array) return true;
   if (col instanceof NumTextColumn) {
     if (col.texts.size === n) return isNumericColumn([...col.texts.values()], col.texts.size);
-    for (const t of col.texts.values()) if (t.trim() !== '' && !(t.trim().toLowerCase() in NONFINITE) && !THOUSANDS.test(t.trim())) return false;
+    // A text cell that reads as a number (a JSON string "12") counts as one, as in plain arrays.
+    for (const t of col.texts.values()) if (t.trim() !== '' && +t !== +t && !(t.trim().toLowerCase() in NONFINITE) && !THOUSANDS.test(t.trim())) return false;
     return true;
   }
   let any = false;

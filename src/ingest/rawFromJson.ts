@@ -1,25 +1,8 @@
 import { RecordColumns, emptyRaw, flattenRecord } from './RawTable.js';
 import type { RawTable, RawValue } from './RawTable.js';
 import { ingestText } from '../messages.js';
-
-// Python's json module writes NaN, Infinity and -Infinity, which JSON.parse refuses: quote them
-// so they read as non-finite numbers (a diverged run's test error is often logged this way).
-const BARE_NONFINITE = /([:[,]\s*)(-?Infinity|NaN)(?=\s*[,\]}])/g;
-
-export function parseJsonLenient(text: string): unknown {
-  try {
-    return JSON.parse(text);
-  } catch (err) {
-    if (!/NaN|Infinity/.test(text)) throw err;
-    return JSON.parse(text.replace(BARE_NONFINITE, '$1"$2"'));
-  }
-}
-
-/** JSON.parse's reason without the echo of the input (which can be a whole huge line). */
-function jsonWhy(err: unknown): string {
-  const m = (err as Error).message.split('\n')[0];
-  return m.replace(/^(Unexpected token .*?), ".*$/, '$1').replace(/ in JSON at position \d+.*$/, '').slice(0, 120);
-}
+import { jsonWhy, parseJsonLenient } from './parseJsonLenient.js';
+import { tokenizeJsonLines } from './tokenizeJsonLines.js';
 
 /** 1-based line of a character offset. */
 function lineAt(text: string, offset: number): number {
@@ -34,31 +17,7 @@ function asRecord(v: unknown): Record<string, unknown> | null {
 
 /** JSON Lines: one record per line; a bad line is a row error, a last line without newline is pending. */
 export function rawFromJsonLines(text: string): RawTable {
-  const rc = new RecordColumns('jsonl');
-  let start = text.charCodeAt(0) === 0xfeff ? 1 : 0;
-  let line = 1;
-  const n = text.length;
-  while (start < n) {
-    const end = text.indexOf('\n', start);
-    if (end < 0) {
-      if (text.slice(start).trim() !== '') rc.raw.pendingLine = line;
-      break;
-    }
-    const body = text.slice(start, end).trim();
-    if (body !== '') {
-      let rec: Record<string, unknown> | null = null;
-      try {
-        rec = asRecord(parseJsonLenient(body));
-      } catch (err) {
-        rc.addError(line, ingestText.badJsonLineWhy(jsonWhy(err)));
-      }
-      if (rec) rc.add(flattenRecord(rec), line);
-      else if (rc.raw.lines[rc.raw.length - 1] !== line) rc.addError(line, ingestText.notARecord);
-    }
-    line++;
-    start = end + 1;
-  }
-  return rc.finish();
+  return tokenizeJsonLines(text);
 }
 
 function fromRecords(records: unknown[], format: string): RawTable {

@@ -4,7 +4,8 @@ import { createRequire } from 'node:module';
 import { emptyRaw, flattenRecord } from './RawTable.js';
 import type { RawTable, RawValue } from './RawTable.js';
 import { rawFromDelimited } from './rawFromDelimited.js';
-import { parseJsonLenient, rawFromJson, rawFromJsonLines } from './rawFromJson.js';
+import { rawFromJson, rawFromJsonLines } from './rawFromJson.js';
+import { parseJsonLenient } from './parseJsonLenient.js';
 import { rawFromArrow } from './rawFromArrow.js';
 import { decodeHead, decodeText } from './decodeText.js';
 import { ingestText } from '../messages.js';
@@ -67,7 +68,7 @@ function csvDelimiter(text: string): ',' | ';' {
   return header.includes(';') && !header.includes(',') ? ';' : ',';
 }
 
-function rawFromText(text: string, format: Exclude<SourceFormat, 'arrow'>): RawTable {
+export function rawFromText(text: string, format: Exclude<SourceFormat, 'arrow'>): RawTable {
   switch (format) {
     case 'csv':
       return rawFromDelimited(text, csvDelimiter(text));

@@ -1,0 +1,276 @@
+import { NumTextColumn, parseDecimal } from './NumTextColumn.js';
+import { emptyRaw, flattenRecord } from './RawTable.js';
+import type { RawTable, RawValue } from './RawTable.js';
+import { jsonWhy, parseJsonLenient } from './parseJsonLenient.js';
+import { ingestText } from '../messages.js';
+
+const QUOTE = 34;
+const BACKSLASH = 92;
+const COMMA = 44;
+const COLON = 58;
+const OPEN = 123;
+const CLOSE = 125;
+
+// Field kinds found by the scan of one line.
+const NUM = 0;
+const STR = 1;
+const TRUE = 2;
+const FALSE = 3;
+const NULL = 4;
+
+const isSpace = (c: number) => c === 32 || c === 9 || c === 13;
+const isDigit = (c: number) => c >= 48 && c <= 57;
+/** A key JSON.parse would enumerate out of order (an array index comes first) or drop (`__proto__`). */
+const unusualKey = (k: string) => k === '__proto__' || /^(0|[1-9]\d*)$/.test(k);
+/** A key that can be matched against the raw characters of a line (nothing escaped or special). */
+const plainKey = (k: string) => !/["\\\u0000-\u001f]/.test(k);
+
+/**
+ * JSON Lines straight into typed columns, the hot path of JSON Lines ingest. A line that is one
+ * flat record of numbers, strings without escapes, booleans and null (what training loops log) is
+ * scanned in place: numbers parsed from the characters (ECMA-404 number grammar, checked), no
+ * object per line. Any other line (nested objects, escapes, NaN, not JSON at all) goes through
+ * JSON.parse as a whole, so what a line means never depends on which path read it.
+ * Cells: numbers as numbers; strings, `true` and `false` as text; null and absent keys as "".
+ */
+export function tokenizeJsonLines(text: string): RawTable {
+  const raw = emptyRaw('jsonl');
+  const columns: NumTextColumn[] = [];
+  const index = new Map<string, number>();
+  // The key seen at each position of the previous record: logs repeat one key order.
+  const seenName: string[] = [];
+  const seenCol: number[] = [];
+  // One line's fields, found before any is stored (a line that leaves the fast path stores nothing).
+  let cap = 16;
+  let fCol = new Int32Array(cap);
+  let fKeyStart = new Int32Array(cap);
+  let fKeyEnd = new Int32Array(cap);
+  let fKind = new Uint8Array(cap);
+  let fStart = new Int32Array(cap);
+  let fEnd = new Int32Array(cap);
+  let fNum = new Float64Array(cap);
+  const growFields = () => {
+    cap *= 2;
+    const g = <T extends Int32Array | Uint8Array | Float64Array>(a: T): T => {
+      const b = new (a.constructor as new (n: number) => T)(cap);
+      b.set(a);
+      return b;
+    };
+    [fCol, fKeyStart, fKeyEnd, fKind, fStart, fEnd, fNum] = [g(fCol), g(fKeyStart), g(fKeyEnd), g(fKind), g(fStart), g(fEnd), g(fNum)];
+  };
+
+  const columnOf = (name: string): number => {
+    let j = index.get(name);
+    if (j === undefined) {
+      j = columns.length;
+      index.set(name, j);
+      raw.names.push(name);
+      columns.push(new NumTextColumn(Math.max(16, raw.length + 1)));
+    }
+    return j;
+  };
+  /** Cell (col, row): rows the column skipped are absent (""); a key repeated in one record overwrites (last wins, as JSON.parse). */
+  const at = (col: NumTextColumn, row: number): boolean => {
+    while (col.length < row) col.pushText('');
+    if (col.length === row) return false;
+    col.texts.delete(row);
+    return true;
+  };
+  const setNumber = (j: number, row: number, v: number) => {
+    const col = columns[j];
+    if (at(col, row)) col.values[row] = v;
+    else col.push(v);
+  };
+  const setText = (j: number, row: number, s: string) => {
+    const col = columns[j];
+    if (at(col, row)) {
+      col.values[row] = NaN;
+      col.texts.set(row, s);
+    } else col.pushText(s);
+  };
+  const setValue = (j: number, row: number, v: RawValue) => {
+    if (typeof v === 'number') setNumber(j, row, v);
+    else setText(j, row, v === null || v === undefined ? '' : String(v));
+  };
+
+  /** Scans the record on text[start, end); the number of fields, or -1 when the line needs JSON.parse. */
+  const scan = (start: number, end: number): number => {
+    let i = start;
+    while (i < end && isSpace(text.charCodeAt(i))) i++;
+    if (text.charCodeAt(i) !== OPEN || i >= end) return -1;
+    i++;
+    while (i < end && isSpace(text.charCodeAt(i))) i++;
+    let nf = 0;
+    if (text.charCodeAt(i) === CLOSE) i++;
+    else {
+      for (;;) {
+        if (i >= end || text.charCodeAt(i) !== QUOTE) return -1;
+        const ks = ++i;
+        let c = 0;
+        while (i < end && (c = text.charCodeAt(i)) !== QUOTE) {
+          if (c === BACKSLASH || c < 32) return -1;
+          i++;
+        }
+        if (i >= end) return -1;
+        const ke = i++;
+        if (nf === cap) growFields();
+        // The column of this key: the one at this position last time when the characters match.
+        const prev = seenName[nf];
+        fCol[nf] = prev !== undefined && ke - ks === prev.length && text.startsWith(prev, ks) ? seenCol[nf] : -1;
+        fKeyStart[nf] = ks;
+        fKeyEnd[nf] = ke;
+        while (i < end && isSpace(text.charCodeAt(i))) i++;
+        if (text.charCodeAt(i) !== COLON || i >= end) return -1;
+        i++;
+        while (i < end && isSpace(text.charCodeAt(i))) i++;
+        if (i >= end) return -1;
+        c = text.charCodeAt(i);
+        if (c === QUOTE) {
+          const vs = ++i;
+          while (i < end && (c = text.charCodeAt(i)) !== QUOTE) {
+            if (c === BACKSLASH || c < 32) return -1;
+            i++;
+          }
+          if (i >= end) return -1;
+          fKind[nf] = STR;
+          fStart[nf] = vs;
+          fEnd[nf] = i++;
+        } else if (c === 45 || isDigit(c)) {
+          // ECMA-404 number: -?(0|[1-9]\d*)(\.\d+)?([eE][+-]?\d+)?
+          const vs = i;
+          if (c === 45) i++;
+          c = text.charCodeAt(i);
+          if (c === 48) i++;
+          else if (c >= 49 && c <= 57) while (i < end && isDigit(text.charCodeAt(i))) i++;
+          else return -1;
+          if (text.charCodeAt(i) === 46 && i < end) {
+            i++;
+            if (!(i < end && isDigit(text.charCodeAt(i)))) return -1;
+            while (i < end && isDigit(text.charCodeAt(i))) i++;
+          }
+          c = text.charCodeAt(i);
+          if ((c === 101 || c === 69) && i < end) {
+            i++;
+            c = text.charCodeAt(i);
+            if ((c === 43 || c === 45) && i < end) i++;
+            if (!(i < end && isDigit(text.charCodeAt(i)))) return -1;
+            while (i < end && isDigit(text.charCodeAt(i))) i++;
+          }
+          // Exact where the fast path applies, else the engine's own conversion (as JSON.parse).
+          let v = parseDecimal(text, vs, i);
+          if (v !== v) v = Number(text.slice(vs, i));
+          fKind[nf] = NUM;
+          fNum[nf] = v;
+        } else if (c === 116 && text.startsWith('true', i)) {
+          fKind[nf] = TRUE;
+          i += 4;
+        } else if (c === 102 && text.startsWith('false', i)) {
+          fKind[nf] = FALSE;
+          i += 5;
+        } else if (c === 110 && text.startsWith('null', i)) {
+          fKind[nf] = NULL;
+          i += 4;
+        } else return -1;
+        nf++;
+        while (i < end && isSpace(text.charCodeAt(i))) i++;
+        if (i >= end) return -1;
+        c = text.charCodeAt(i++);
+        if (c === CLOSE) break;
+        if (c !== COMMA) return -1;
+        while (i < end && isSpace(text.charCodeAt(i))) i++;
+      }
+    }
+    while (i < end && isSpace(text.charCodeAt(i))) i++;
+    if (i !== end) return -1;
+    // New keys: one JSON.parse would order or drop differently goes the slow way.
+    for (let f = 0; f < nf; f++) {
+      if (fCol[f] >= 0) continue;
+      const name = text.slice(fKeyStart[f], fKeyEnd[f]);
+      const j = index.get(name);
+      if (j === undefined && unusualKey(name)) return -1;
+      fCol[f] = j ?? -2 - f; // -2 - f: a column to create when the line is stored
+    }
+    return nf;
+  };
+
+  const store = (nf: number, row: number) => {
+    for (let f = 0; f < nf; f++) {
+      let j = fCol[f];
+      if (j < 0) j = fCol[f] = columnOf(text.slice(fKeyStart[f], fKeyEnd[f]));
+      seenCol[f] = j;
+      seenName[f] = raw.names[j];
+      switch (fKind[f]) {
+        case NUM:
+          setNumber(j, row, fNum[f]);
+          break;
+        case STR:
+          setText(j, row, text.slice(fStart[f], fEnd[f]));
+          break;
+        case TRUE:
+          setText(j, row, 'true');
+          break;
+        case FALSE:
+          setText(j, row, 'false');
+          break;
+        default:
+          setText(j, row, '');
+      }
+    }
+  };
+
+  let start = text.charCodeAt(0) === 0xfeff ? 1 : 0;
+  let line = 1;
+  const n = text.length;
+  const lines = raw.lines;
+  while (start < n) {
+    const end = text.indexOf('\n', start);
+    if (end < 0) {
+      if (text.slice(start).trim() !== '') raw.pendingLine = line;
+      break;
+    }
+    const row = raw.length;
+    const nf = scan(start, end);
+    if (nf >= 0) {
+      store(nf, row);
+      lines.push(line);
+      raw.length++;
+    } else {
+      const body = text.slice(start, end).trim();
+      if (body !== '') {
+        let rec: unknown;
+        let why: string | null = null;
+        try {
+          rec = parseJsonLenient(body);
+        } catch (err) {
+          why = ingestText.badJsonLineWhy(jsonWhy(err));
+        }
+        if (why === null && (rec === null || typeof rec !== 'object' || Array.isArray(rec))) why = ingestText.notARecord;
+        if (why !== null) raw.rowErrors.set(row, { field: '', reason: why });
+        else {
+          const flat = flattenRecord(rec as Record<string, unknown>);
+          let f = 0;
+          for (const key in flat) {
+            const j = columnOf(key);
+            setValue(j, row, flat[key]);
+            // Only plain keys are matched against raw characters later.
+            if (plainKey(key)) {
+              seenName[f] = key;
+              seenCol[f] = j;
+            } else seenName[f] = '\u0000';
+            f++;
+          }
+        }
+        lines.push(line);
+        raw.length++;
+      }
+    }
+    line++;
+    start = end + 1;
+  }
+  for (const col of columns) {
+    while (col.length < raw.length) col.pushText('');
+    col.finish();
+  }
+  raw.columns = columns;
+  return raw;
+}
