@@ -220,8 +220,12 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
     let all = true;
     for (let i = 0; i < t.length && all; i++) if (disposition[base + i] !== KEPT) all = false;
     if (all) {
-      // Whole table kept: copy column by column.
-      for (const c of NUMERIC_COLUMNS) out[c].set(t[c], k);
+      // Whole table kept: copy column by column (fill, for a column known to hold one value).
+      for (const c of NUMERIC_COLUMNS) {
+        const v = t.constants?.[c];
+        if (v !== undefined) out[c].fill(v, k, k + t.length);
+        else out[c].set(t[c], k);
+      }
       out.source_line.set(t.source_line, k);
       for (const e of extraNames) if (t.extra[e]) out.extra[e].set(t.extra[e], k);
       TEXT_COLUMNS.forEach((name, ci) => copyCodes({ table: t, name, builder: builders[ci], dest: outCodes[ci], at: k, rows: null }));
@@ -267,6 +271,10 @@ function copyCodes(opts: { table: RowTable; name: TextColumn; builder: Dictionar
   const coded = t.codes?.[name];
   if (coded) {
     const tr = builder.translator(coded.dict);
+    if (coded.dict.length === 1 && n > 0) {
+      dest.fill(tr(0), at, at + n);
+      return;
+    }
     const src = coded.codes;
     for (let r = 0; r < n; r++) dest[at + r] = tr(src[rows ? rows[r] : r]);
     return;

@@ -7,10 +7,10 @@ import { normalizeRaw } from './normalizeRaw.js';
 import type { Normalized, Scale } from './normalizeRaw.js';
 import type { Target } from './synonyms.js';
 import { NUMERIC_COLUMNS } from '../store/RowTable.js';
-import type { RowTable } from '../store/RowTable.js';
+import type { NumericColumn, RowTable, TextCodes, TextColumn } from '../store/RowTable.js';
 import { ingestText } from '../messages.js';
 import { dictionaryEncode } from '../store/dictionaryEncode.js';
-import { attachTextCodes } from '../store/textCodes.js';
+import { attachTextCodes, lazyProperty, TEXT_COLUMNS } from '../store/textCodes.js';
 
 /** Normalisation options in a form that can cross to a worker thread (the regex as text). */
 export interface PortableOptions {
@@ -80,42 +80,106 @@ export function readSourceFile(job: FileJob): FileOutcome {
   }
 }
 
-/** A RowTable with its text columns as dictionary codes: cheap to post between threads. */
+/**
+ * A RowTable as a worker posts it: text as dictionary codes, and every number column that holds
+ * one value in all rows sent as that value (most columns of a run's log are constant: its
+ * configuration, and metrics it never logged). The varying columns share one buffer, so a file's
+ * table crosses threads as one transfer of about a third of its size.
+ */
 export interface PackedTable {
   length: number;
-  numeric: Record<string, Float64Array>;
+  /** A column, or the value every row holds. */
+  numeric: Record<string, Float64Array | number>;
   extra: Record<string, Float64Array>;
   source_line: Int32Array;
-  text: Record<'run' | 'condition' | 'source' | 'status', { dict: string[]; codes: Int32Array }>;
+  /** `codes` null: every row holds the dictionary's one entry. */
+  text: Record<TextColumn, { dict: string[]; codes: Int32Array | null }>;
+}
+
+/** The value every element of `a` holds (NaN counts as equal to NaN; -0 and 0 differ), or undefined. */
+function constantOf(a: Float64Array): number | undefined {
+  if (a.length === 0) return undefined;
+  const v = a[0];
+  if (v !== v) {
+    for (let i = 1; i < a.length; i++) if (a[i] === a[i]) return undefined;
+  } else {
+    for (let i = 1; i < a.length; i++) if (a[i] !== v) return undefined;
+    if (v === 0) for (let i = 0; i < a.length; i++) if (Object.is(a[i], -0) !== Object.is(v, -0)) return undefined;
+  }
+  return v;
 }
 
 export function packTable(t: RowTable): { packed: PackedTable; transfer: ArrayBuffer[] } {
-  const numeric: Record<string, Float64Array> = {};
-  for (const c of NUMERIC_COLUMNS) numeric[c] = t[c];
-  const packed: PackedTable = {
-    length: t.length,
-    numeric,
-    extra: t.extra,
-    source_line: t.source_line,
-    text: { run: dictionaryEncode(t.run), condition: dictionaryEncode(t.condition), source: dictionaryEncode(t.source), status: dictionaryEncode(t.status) },
+  const n = t.length;
+  const numeric: Record<string, Float64Array | number> = {};
+  const varying: NumericColumn[] = [];
+  for (const c of NUMERIC_COLUMNS) {
+    const v = constantOf(t[c]);
+    if (v === undefined) varying.push(c);
+    else numeric[c] = v;
+  }
+  const extraNames = Object.keys(t.extra);
+  // One fresh buffer for what varies; the full-width table it came from is freed with the file.
+  const buffer = Buffer.allocUnsafeSlow((varying.length + extraNames.length) * n * 8 + n * 4).buffer as ArrayBuffer;
+  let offset = 0;
+  const copy = (a: Float64Array) => {
+    const b = new Float64Array(buffer, offset, n);
+    b.set(a);
+    offset += n * 8;
+    return b;
   };
-  const transfer = [...Object.values(numeric), ...Object.values(t.extra), t.source_line, ...Object.values(packed.text).map((x) => x.codes)]
-    .map((a) => a.buffer as ArrayBuffer);
-  return { packed, transfer: [...new Set(transfer)] };
+  for (const c of varying) numeric[c] = copy(t[c]);
+  const extra: Record<string, Float64Array> = {};
+  for (const e of extraNames) extra[e] = copy(t.extra[e]);
+  const source_line = new Int32Array(buffer, offset, n);
+  source_line.set(t.source_line);
+  const transfer = [buffer];
+  const text = {} as PackedTable['text'];
+  for (const name of TEXT_COLUMNS) {
+    const coded = dictionaryEncode(t[name]);
+    const single = coded.dict.length === 1;
+    text[name] = { dict: coded.dict, codes: single ? null : coded.codes };
+    if (!single) transfer.push(coded.codes.buffer as ArrayBuffer);
+  }
+  return { packed: { length: n, numeric, extra, source_line, text }, transfer };
+}
+
+/** Read-only zeros: the codes of text columns with a one-entry dictionary (shared, never written). */
+let zeros = new Int32Array(0);
+function zeroCodes(n: number): Int32Array {
+  if (zeros.length < n) zeros = new Int32Array(Math.max(n, 4096));
+  return zeros.subarray(0, n);
 }
 
 export function unpackTable(p: PackedTable): RowTable {
-  // Built directly (no emptyTable(0) to overwrite: ten typed arrays per file, 2,000 files).
-  const n = p.numeric;
-  const t: RowTable = {
-    length: p.length,
+  const n = p.length;
+  const constants: Partial<Record<NumericColumn, number>> = {};
+  const t = {
+    length: n,
     run: [], condition: [], source: [], status: [], // replaced by the codes below
     source_line: p.source_line,
-    seed: n.seed, width: n.width, epochs: n.epochs, train_size: n.train_size, label_noise: n.label_noise,
-    test_error: n.test_error, train_error: n.train_error, test_loss: n.test_loss, train_loss: n.train_loss, wall_seconds: n.wall_seconds,
     extra: p.extra,
-  };
+    constants,
+  } as unknown as { -readonly [K in keyof RowTable]: RowTable[K] };
+  for (const c of NUMERIC_COLUMNS) {
+    const v = p.numeric[c];
+    if (typeof v !== 'number') {
+      t[c] = v;
+      continue;
+    }
+    constants[c] = v;
+    // Made only if read; from then on the array is the truth (it may be written to).
+    lazyProperty(t, c, () => {
+      delete constants[c];
+      return new Float64Array(n).fill(v);
+    });
+  }
   // Text stays coded: the merge copies codes, and the string arrays are built only if read.
-  attachTextCodes(t, p.text);
+  const codes = {} as Record<TextColumn, TextCodes>;
+  for (const name of TEXT_COLUMNS) {
+    const x = p.text[name];
+    codes[name] = { dict: x.dict, codes: x.codes ?? zeroCodes(n) };
+  }
+  attachTextCodes(t, codes);
   return t;
 }

@@ -65,6 +65,13 @@ export interface RowTable {
    * in fresh memory). Never written to: a derived table has none.
    */
   readonly codes?: Partial<Record<TextColumn, TextCodes>>;
+  /**
+   * Number columns known to hold one value in every row (a worker's result: a run's log repeats
+   * its width, size, seed and noise on every line, and lacks whole metrics). The merge fills
+   * these instead of copying them; such a column is built only when read, and reading it drops
+   * its entry here (the reader may then write to it).
+   */
+  readonly constants?: Partial<Record<NumericColumn, number>>;
 }
 
 /** The text columns (status included). */

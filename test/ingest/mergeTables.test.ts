@@ -63,3 +63,42 @@ describe('mergeTables over coded and plain text columns', () => {
     }
   });
 });
+
+describe('worker tables with constant columns', () => {
+  it('sends a column holding one value as that value, and gives back the same table', () => {
+    const t = tableFromRows([
+      { ...row('r9', 1, 0.5, '/c.csv'), test_loss: -0 },
+      { ...row('r9', 2, 0.4, '/c.csv'), test_loss: 0 },
+    ]);
+    const { packed } = packTable(t);
+    // width, train_size and seed repeat; test_error varies; -0 and 0 are not one value.
+    expect(packed.numeric.width).toBe(64);
+    expect(Number.isNaN(packed.numeric.train_loss)).toBe(true);
+    expect(packed.numeric.test_error).toBeInstanceOf(Float64Array);
+    expect(packed.numeric.test_loss).toBeInstanceOf(Float64Array);
+    expect(packed.text.run.codes).toBeNull();
+    const back = unpackTable(structuredClone(packed));
+    expect(tableToRows(back)).toEqual(tableToRows(t));
+    expect(Object.is(back.test_loss[0], -0)).toBe(true);
+  });
+
+  it('a row completing a constant column of an earlier table is kept in the merged rows', () => {
+    // Train and test metrics logged on separate lines of two files (DESIGN.md §4: one row per run
+    // and epoch): the second file's test_loss completes the first file's rows.
+    const first = tableFromRows([row('r5', 1, 0.5, '/train.csv'), row('r5', 2, 0.4, '/train.csv')]);
+    const second = tableFromRows([
+      { ...row('r5', 1, 0.5, '/test.csv'), test_loss: 1.25 },
+      { ...row('r5', 2, 0.4, '/test.csv'), test_loss: 1.5 },
+    ]);
+    const m = mergeTables({
+      existing: tableFromRows([]),
+      existingMtime: () => 0,
+      incoming: [
+        { table: viaWorker(first), mtime: 1 },
+        { table: viaWorker(second), mtime: 2 },
+      ],
+    });
+    expect(m.merged).toBe(2);
+    expect([...m.table.test_loss]).toEqual([1.25, 1.5]);
+  });
+});
