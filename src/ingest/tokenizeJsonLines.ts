@@ -1,4 +1,4 @@
-import { NumTextColumn, parseDecimal } from './NumTextColumn.js';
+import { NumTextColumn, parseDecimal, POW10 } from './NumTextColumn.js';
 import { emptyRaw, flattenRecord } from './RawTable.js';
 import type { RawTable, RawValue } from './RawTable.js';
 import { jsonWhy, parseJsonLenient } from './parseJsonLenient.js';
@@ -49,6 +49,7 @@ export function tokenizeJsonLines(text: string): RawTable {
   let fStart = new Int32Array(cap);
   let fEnd = new Int32Array(cap);
   let fNum = new Float64Array(cap);
+  let fValue = new Int32Array(cap);
   const growFields = () => {
     cap *= 2;
     const g = <T extends Int32Array | Uint8Array | Float64Array>(a: T): T => {
@@ -56,7 +57,7 @@ export function tokenizeJsonLines(text: string): RawTable {
       b.set(a);
       return b;
     };
-    [fCol, fKeyStart, fKeyEnd, fKind, fStart, fEnd, fNum] = [g(fCol), g(fKeyStart), g(fKeyEnd), g(fKind), g(fStart), g(fEnd), g(fNum)];
+    [fCol, fKeyStart, fKeyEnd, fKind, fStart, fEnd, fNum, fValue] = [g(fCol), g(fKeyStart), g(fKeyEnd), g(fKind), g(fStart), g(fEnd), g(fNum), g(fValue)];
   };
 
   const columnOf = (name: string): number => {
@@ -124,6 +125,7 @@ export function tokenizeJsonLines(text: string): RawTable {
         i++;
         while (i < end && isSpace(text.charCodeAt(i))) i++;
         if (i >= end) return -1;
+        fValue[nf] = i;
         c = text.charCodeAt(i);
         if (c === QUOTE) {
           const vs = ++i;
@@ -218,6 +220,119 @@ export function tokenizeJsonLines(text: string): RawTable {
     }
   };
 
+  // The last record's layout, as raw text from each key's opening quote to its value (`"width": `):
+  // a line laid out the same way is read by matching those tokens, one native compare per key.
+  let shapeTok: string[] = [];
+  let shapeCol: number[] = [];
+  const learnShape = (nf: number) => {
+    const seen = new Set<number>();
+    for (let f = 0; f < nf; f++) seen.add(fCol[f]);
+    if (seen.size !== nf) {
+      shapeTok = [];
+      return;
+    }
+    shapeTok = Array.from({ length: nf }, (_, f) => text.slice(fKeyStart[f] - 1, fValue[f]));
+    shapeCol = Array.from(fCol.subarray(0, nf));
+  };
+  const unstore = (fields: number, row: number) => {
+    for (let f = 0; f < fields; f++) {
+      const col = columns[shapeCol[f]];
+      if (col.length === row + 1) {
+        col.length = row;
+        col.texts.delete(row);
+      }
+    }
+  };
+  /** Reads a line laid out as the last record; false (nothing stored) when it is not. */
+  const readShaped = (start: number, end: number, row: number): boolean => {
+    const nShape = shapeTok.length;
+    if (nShape === 0 || text.charCodeAt(start) !== OPEN) return false;
+    let i = start + 1;
+    let f = 0;
+    // text[end] is the line feed: every scan below stops there without a bounds check.
+    for (;;) {
+      if (f === nShape || !text.startsWith(shapeTok[f], i)) return unstore(f, row), false;
+      i += shapeTok[f].length;
+      const col = columns[shapeCol[f]];
+      while (col.length < row) col.pushText('');
+      let c = text.charCodeAt(i);
+      if (c === 45 || (c >= 48 && c <= 57)) {
+        // ECMA-404 number in one pass: -?(0|[1-9]\d*)(\.\d+)?([eE][+-]?\d+)?
+        const vs = i;
+        let neg = false;
+        if (c === 45) {
+          neg = true;
+          c = text.charCodeAt(++i);
+        }
+        let m = 0;
+        let exp = 0;
+        if (c === 48) c = text.charCodeAt(++i);
+        else if (c >= 49 && c <= 57) {
+          do {
+            m = m * 10 + (c - 48);
+            c = text.charCodeAt(++i);
+          } while (c >= 48 && c <= 57);
+        } else return unstore(f, row), false;
+        if (c === 46) {
+          c = text.charCodeAt(++i);
+          if (!(c >= 48 && c <= 57)) return unstore(f, row), false;
+          do {
+            m = m * 10 + (c - 48);
+            exp--;
+            c = text.charCodeAt(++i);
+          } while (c >= 48 && c <= 57);
+        }
+        if (c === 101 || c === 69) {
+          c = text.charCodeAt(++i);
+          let eneg = false;
+          if (c === 43 || c === 45) {
+            eneg = c === 45;
+            c = text.charCodeAt(++i);
+          }
+          if (!(c >= 48 && c <= 57)) return unstore(f, row), false;
+          let e = 0;
+          do {
+            if (e < 1000) e = e * 10 + (c - 48);
+            c = text.charCodeAt(++i);
+          } while (c >= 48 && c <= 57);
+          exp += eneg ? -e : e;
+        }
+        // Exact when the digits fit in 2^53 and the power of ten is exact (Clinger's fast
+        // path, as parseDecimal); else the engine's own conversion of the literal.
+        let v: number;
+        if (m <= 9007199254740991 && exp >= -22 && exp <= 22) v = exp === 0 ? m : exp < 0 ? m / POW10[-exp] : m * POW10[exp];
+        else v = Math.abs(Number(text.slice(vs, i)));
+        col.push(neg ? -v : v);
+      } else if (c === QUOTE) {
+        const vs = i + 1;
+        do c = text.charCodeAt(++i);
+        while (c !== QUOTE && c !== BACKSLASH && c >= 32);
+        if (c !== QUOTE) return unstore(f, row), false;
+        col.pushText(text.slice(vs, i++));
+      } else if (c === 116 && text.startsWith('true', i)) {
+        col.pushText('true');
+        i += 4;
+      } else if (c === 102 && text.startsWith('false', i)) {
+        col.pushText('false');
+        i += 5;
+      } else if (c === 110 && text.startsWith('null', i)) {
+        col.pushText('');
+        i += 4;
+      } else return unstore(f, row), false;
+      f++;
+      c = text.charCodeAt(i);
+      while (c === 32) c = text.charCodeAt(++i);
+      if (c === CLOSE) break;
+      if (c !== COMMA) return unstore(f, row), false;
+      c = text.charCodeAt(++i);
+      while (c === 32) c = text.charCodeAt(++i);
+    }
+    i++;
+    while (i < end && isSpace(text.charCodeAt(i))) i++;
+    if (i !== end) return unstore(f, row), false;
+    return true;
+  };
+
   let start = text.charCodeAt(0) === 0xfeff ? 1 : 0;
   let line = 1;
   const n = text.length;
@@ -229,9 +344,17 @@ export function tokenizeJsonLines(text: string): RawTable {
       break;
     }
     const row = raw.length;
+    if (readShaped(start, end, row)) {
+      lines.push(line);
+      raw.length++;
+      line++;
+      start = end + 1;
+      continue;
+    }
     const nf = scan(start, end);
     if (nf >= 0) {
       store(nf, row);
+      learnShape(nf);
       lines.push(line);
       raw.length++;
     } else {

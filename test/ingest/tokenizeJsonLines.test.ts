@@ -120,4 +120,38 @@ describe('tokenizeJsonLines', () => {
       { numRuns: 3000, seed: 20261202 },
     );
   });
+
+  it('gives what JSON.parse gives on logs that repeat one layout (the matched-layout path), bad values included', () => {
+    const value = fc.oneof(
+      { weight: 6, arbitrary: fc.double({ noNaN: true, noDefaultInfinity: true }).map((x) => JSON.stringify(x)) },
+      { weight: 3, arbitrary: fc.integer({ min: -1e6, max: 1e6 }).map(String) },
+      { weight: 2, arbitrary: fc.constantFrom('-0', '0.0', '1e400', '1e-400', '123456789012345678', '9007199254740993', '0.1e-22', '5e22', '5e23', '-1.5E+3') },
+      { weight: 1, arbitrary: fc.constantFrom('01', '1.', '-', '1e', '+1', 'NaN', '"x"', '"a\\"b"', '"12"', 'true', 'null', 'nul', '{"k":1}', '[1]', '"', '1 2') },
+    );
+    const layout = fc.record({
+      keys: fc.shuffledSubarray(['width', 'train_size', 'seed', 'epoch', 'test_error', 'note'], { minLength: 1 }),
+      colon: fc.constantFrom(':', ': ', ' : '),
+      comma: fc.constantFrom(',', ', '),
+    });
+    fc.assert(
+      fc.property(layout, fc.array(fc.tuple(fc.array(value, { minLength: 6, maxLength: 6 }), fc.nat(9)), { maxLength: 15 }), ({ keys, colon, comma }, rows) => {
+        const text = rows
+          .map(([vals, twist]) => {
+            // Mostly the layout; now and then a key missing, an extra key or trailing garbage.
+            const ks = twist === 0 ? keys.slice(1) : twist === 1 ? [...keys, 'extra'] : keys;
+            const body = `{${ks.map((k, j) => `"${k}"${colon}${vals[j % 6]}`).join(comma)}}`;
+            return twist === 2 ? `${body} x` : twist === 3 ? `${body}\r` : body;
+          })
+          .join('\n');
+        const full = `${text}\n`;
+        const got = read(full);
+        const want = reference(full);
+        expect(got.errors).toEqual(want.errors);
+        expect(got.names).toEqual(want.names);
+        expect(got.rows).toEqual(want.rows);
+        expect(got.lines).toEqual(want.lines);
+      }),
+      { numRuns: 2000, seed: 7 },
+    );
+  });
 });
