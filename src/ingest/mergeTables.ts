@@ -1,7 +1,9 @@
-import { allocTable, emptyTable, NUMERIC_COLUMNS } from '../store/RowTable.js';
-import type { RowTable, TextCodes, TextColumn } from '../store/RowTable.js';
+import { NUMERIC_COLUMNS } from '../store/RowTable.js';
+import type { RowTable, TextColumn } from '../store/RowTable.js';
 import { textReader } from '../store/RowTable.js';
-import { attachTextCodes, DictionaryBuilder, TEXT_COLUMNS } from '../store/textCodes.js';
+import { DictionaryBuilder, TEXT_COLUMNS } from '../store/textCodes.js';
+import { concatTable } from '../store/concatTable.js';
+import type { Concatenation, TablePiece } from '../store/concatTable.js';
 import type { Reject } from '../store/Reject.js';
 import { ingestText } from '../messages.js';
 import { selectRows } from '../store/selectRows.js';
@@ -209,44 +211,29 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
     else if (d === DUPLICATE) duplicates[ti - 1]++;
     else conflictLost[ti - 1]++;
   }
-  // Every canonical column of every kept row is copied below: no need to fill first. Text goes
-  // out as codes over one dictionary per column (what rows.arrow stores), never as strings.
-  const out = allocTable(kept, extraNames, { text: false });
-  const builders = TEXT_COLUMNS.map(() => new DictionaryBuilder());
-  const outCodes = TEXT_COLUMNS.map(() => new Int32Array(kept));
-  let k = 0;
+  // The kept rows are the input tables' rows one after another: described, not copied (the store
+  // writer takes the pieces; a column is built only if read). Text goes out as codes over one
+  // dictionary per column (what rows.arrow stores), never as strings.
+  const pieces: TablePiece[] = [];
   tables.forEach((t, ti) => {
     const base = offset[ti];
     let all = true;
     for (let i = 0; i < t.length && all; i++) if (disposition[base + i] !== KEPT) all = false;
     if (all) {
-      // Whole table kept: copy column by column (fill, for a column known to hold one value).
-      for (const c of NUMERIC_COLUMNS) {
-        const v = t.constants?.[c];
-        if (v !== undefined) out[c].fill(v, k, k + t.length);
-        else out[c].set(t[c], k);
-      }
-      out.source_line.set(t.source_line, k);
-      for (const e of extraNames) if (t.extra[e]) out.extra[e].set(t.extra[e], k);
-      TEXT_COLUMNS.forEach((name, ci) => copyCodes({ table: t, name, builder: builders[ci], dest: outCodes[ci], at: k, rows: null }));
-      k += t.length;
+      if (t.length > 0) pieces.push({ table: t, rows: null });
       return;
     }
     const keptRows: number[] = [];
     for (let i = 0; i < t.length; i++) if (disposition[base + i] === KEPT) keptRows.push(i);
-    TEXT_COLUMNS.forEach((name, ci) => copyCodes({ table: t, name, builder: builders[ci], dest: outCodes[ci], at: k, rows: keptRows }));
-    for (const i of keptRows) {
-      out.source_line[k] = t.source_line[i];
-      for (const c of NUMERIC_COLUMNS) out[c][k] = t[c][i];
-      for (const e of extraNames) out.extra[e][k] = t.extra[e]?.[i] ?? NaN;
-      k++;
-    }
+    if (keptRows.length > 0) pieces.push({ table: t, rows: Int32Array.from(keptRows) });
   });
-  const codes: Partial<Record<TextColumn, TextCodes>> = {};
-  TEXT_COLUMNS.forEach((name, ci) => {
-    codes[name] = { codes: outCodes[ci], dict: name === 'status' ? builders[ci].dict.map((s) => (s === 'diverged' ? 'diverged' : 'ok')) : builders[ci].dict };
-  });
-  attachTextCodes(out, codes);
+  const outText = {} as Concatenation['text'];
+  for (const name of TEXT_COLUMNS) {
+    const builder = new DictionaryBuilder();
+    const codes = pieces.map((p) => pieceCodes({ piece: p, name, builder }));
+    outText[name] = { dict: name === 'status' ? builder.dict.map((s) => (s === 'diverged' ? 'diverged' : 'ok')) : builder.dict, codes };
+  }
+  const out = concatTable({ length: kept, pieces, extraNames, text: outText });
   return { table: out, accepted, duplicates, conflictLost, rejects, conflicts, displaced, merged };
 }
 
@@ -261,23 +248,22 @@ export function dropSources(t: RowTable, drop: ReadonlySet<string>): RowTable {
 }
 
 /**
- * Copies a text column's rows (all, or `rows`) into `dest` from position `at`, as codes of
- * `builder`'s dictionary: through the table's own codes when it has them (one lookup per
- * dictionary entry), else one lookup per stretch of equal strings.
+ * A piece's codes in `builder`'s dictionary: the one code all its rows hold when its dictionary
+ * has one entry, else an array (through the table's own codes when it has them: one lookup per
+ * dictionary entry; else one lookup per stretch of equal strings).
  */
-function copyCodes(opts: { table: RowTable; name: TextColumn; builder: DictionaryBuilder; dest: Int32Array; at: number; rows: readonly number[] | null }): void {
-  const { table: t, name, builder, dest, at, rows } = opts;
+function pieceCodes(opts: { piece: TablePiece; name: TextColumn; builder: DictionaryBuilder }): Int32Array | number {
+  const { piece, name, builder } = opts;
+  const { table: t, rows } = piece;
   const n = rows ? rows.length : t.length;
   const coded = t.codes?.[name];
+  if (coded?.dict.length === 1) return builder.translator(coded.dict)(0);
+  const dest = new Int32Array(n);
   if (coded) {
     const tr = builder.translator(coded.dict);
-    if (coded.dict.length === 1 && n > 0) {
-      dest.fill(tr(0), at, at + n);
-      return;
-    }
     const src = coded.codes;
-    for (let r = 0; r < n; r++) dest[at + r] = tr(src[rows ? rows[r] : r]);
-    return;
+    for (let r = 0; r < n; r++) dest[r] = tr(src[rows ? rows[r] : r]);
+    return dest;
   }
   const col = t[name] as readonly string[];
   let last: string | undefined;
@@ -288,6 +274,7 @@ function copyCodes(opts: { table: RowTable; name: TextColumn; builder: Dictionar
       last = v;
       lastCode = builder.code(v);
     }
-    dest[at + r] = lastCode;
+    dest[r] = lastCode;
   }
+  return dest;
 }

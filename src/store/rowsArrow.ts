@@ -4,6 +4,8 @@ import { emptyTable, NUMERIC_COLUMNS, STRING_COLUMNS } from './RowTable.js';
 import type { RowTable, RunStatus, TextCodes, TextColumn } from './RowTable.js';
 import { dictionaryEncode } from './dictionaryEncode.js';
 import { attachTextCodes, lazyProperty } from './textCodes.js';
+import { pieceWriter } from './concatTable.js';
+import type { PieceWriter } from './concatTable.js';
 
 // flechette (~50 ms to load) only once rows are encoded or decoded: `datlas ingest` of unchanged
 // files, which reads just the manifest, never pays for it.
@@ -18,28 +20,44 @@ export const STORE_COLUMNS = ['run', 'seed', 'width', 'epochs', 'train_size', 'l
 /**
  * Encodes a RowTable as an Arrow IPC file (readable by pyarrow, pandas.read_feather, polars,
  * DuckDB). Numbers are float64 (NaN for missing), text columns are dictionary-encoded utf8,
- * source_line is int32.
+ * source_line is int32. With a sink, the file streams to it; `sink.write` must be done with the
+ * bytes when it returns (buffers are reused).
  */
 export function rowsToArrow(t: RowTable, sink?: { write(bytes: Uint8Array): void }, metadata?: Record<string, string>): Uint8Array | null {
   const data: [string, unknown[] | Float64Array | Int32Array | TextCodes][] = [];
   const { columnFromArray, dictionary, float64, int32, tableFromArrays, tableFromColumns, tableToIPC, utf8 } = fl();
   const types: Record<string, ReturnType<typeof dictionary>> = {};
+  // Columns of a concatenation (a merged ingest) that were never built are streamed from their
+  // pieces: flechette lays out the file around a stand-in array of the right size (never
+  // touched, so never given memory), and the sink writes the pieces where the stand-in's bytes
+  // would go.
+  const standIns = new Map<ArrayBufferLike, PieceWriter>();
+  const piecewise = <A extends Float64Array | Int32Array>(real: () => A, make: (n: number) => A, writer: PieceWriter | null): A => {
+    if (!sink || !writer || t.length === 0) return real();
+    const standIn = make(t.length);
+    standIns.set(standIn.buffer, writer);
+    return standIn;
+  };
+  const f64 = (n: number) => new Float64Array(n);
+  const i32 = (n: number) => new Int32Array(n);
   for (const c of STORE_COLUMNS) {
     // Typed arrays without a declared type take flechette's zero-copy path (Int32 → int32, Float64 → float64).
     if (c === 'source_line') {
-      data.push([c, t.source_line]);
+      data.push([c, piecewise(() => t.source_line, i32, pieceWriter(t, c))]);
     } else if ((NUMERIC_COLUMNS as readonly string[]).includes(c)) {
-      data.push([c, t[c as (typeof NUMERIC_COLUMNS)[number]]]);
+      const name = c as (typeof NUMERIC_COLUMNS)[number];
+      data.push([c, piecewise(() => t[name], f64, pieceWriter(t, name))]);
     } else {
       // Coded columns (a store read back, a merged ingest) go out as they are, never decoded.
       const coded = t.length > 0 ? t.codes?.[c as TextColumn] : undefined;
-      data.push([c, coded ?? (c === 'status' ? t.status : t[c as (typeof STRING_COLUMNS)[number]])]);
+      const keys = coded && piecewise(() => coded.codes, i32, pieceWriter(t, { codes: c as TextColumn }));
+      data.push([c, coded ? { dict: coded.dict, codes: keys! } : c === 'status' ? t.status : t[c as (typeof STRING_COLUMNS)[number]]]);
       types[c] = dictionary(utf8(), int32());
     }
   }
-  for (const [name, col] of Object.entries(t.extra)) {
+  for (const name of Object.keys(t.extra)) {
     if ((STORE_COLUMNS as readonly string[]).includes(name)) continue;
-    data.push([name, col]);
+    data.push([name, piecewise(() => t.extra[name], f64, pieceWriter(t, { extra: name }))]);
   }
   // An empty typed array has no batch to take its type from: declare it.
   if (t.length === 0) {
@@ -60,7 +78,16 @@ export function rowsToArrow(t: RowTable, sink?: { write(bytes: Uint8Array): void
   if (metadata) table.schema.metadata = new Map(Object.entries(metadata));
   if (!sink) return tableToIPC(table, { format: 'file' })!;
   // Stream the encoded batches to the sink (a file) instead of assembling one big buffer.
-  const s = { write: (b: Uint8Array) => sink.write(b), pad: (n: number) => sink.write(new Uint8Array(n)), finish: () => null };
+  const emit = (b: Uint8Array) => sink.write(b);
+  const s = {
+    write: (b: Uint8Array) => {
+      const writer = b.byteOffset === 0 ? standIns.get(b.buffer) : undefined;
+      if (writer && b.byteLength === b.buffer.byteLength) writer(emit);
+      else sink.write(b);
+    },
+    pad: (n: number) => sink.write(new Uint8Array(n)),
+    finish: () => null,
+  };
   // flechette's typings omit the sink option that encodeIPC accepts.
   tableToIPC(table, { format: 'file', sink: s } as Parameters<typeof tableToIPC>[1]);
   return null;

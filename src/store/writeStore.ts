@@ -25,29 +25,27 @@ export function writeStore(opts: { dir: string; table: RowTable; manifest: Manif
   const tmp = { rejected: tmpName(f.rejected, commit), rows: tmpName(f.rows, commit), manifest: tmpName(f.manifest, commit) };
   writeSynced(tmp.rejected, formatRejected(rejected));
   writeSynced(tmp.rows, (fd) => {
-    // Small chunks are gathered so the file gets few large writes.
-    let parts: Uint8Array[] = [];
+    // Small chunks are copied into one reused buffer so the file gets few large writes; a large
+    // one (a whole number column) goes straight to the file: copying 100 MB through gather
+    // buffers cost more than the writes it saved.
+    const staging = Buffer.allocUnsafeSlow(1 << 20);
     let size = 0;
     const flush = () => {
-      if (size === 0) return;
-      writeAll(fd, parts.length === 1 ? parts[0] : Buffer.concat(parts, size));
-      parts = [];
+      if (size > 0) writeAll(fd, staging.subarray(0, size));
       size = 0;
     };
     rowsToArrow(
       table,
       {
         write(b) {
-          // A large buffer (a whole number column) goes straight to the file: copying 100 MB
-          // into gather buffers cost more than the writes it saved.
           if (b.byteLength >= 1 << 18) {
             flush();
             writeAll(fd, b);
             return;
           }
-          parts.push(b);
+          if (size + b.byteLength > staging.byteLength) flush();
+          staging.set(b, size);
           size += b.byteLength;
-          if (size >= 1 << 20) flush();
         },
       },
       { [COMMIT_KEY]: commit },
