@@ -1,5 +1,5 @@
 import { availableParallelism } from 'node:os';
-import { startWorker } from '../workers/startWorker.js';
+import { startWorker, stopWorkers } from '../workers/startWorker.js';
 import { readSourceFile, unpackTable } from './readSourceFile.js';
 import type { FileJob, FileOutcome } from './readSourceFile.js';
 import type { PackedOutcome } from './parseWorker.js';
@@ -74,7 +74,7 @@ export async function parseFiles(jobs: FileJob[], sizes: number[], opts: ParseFi
       ),
     );
   } finally {
-    await Promise.all(pool.map((w) => w.terminate()));
+    stopWorkers(pool);
   }
   return results;
 }

@@ -1,5 +1,5 @@
 import type { Worker } from 'node:worker_threads';
-import { startWorker } from '../workers/startWorker.js';
+import { startWorker, stopWorkers } from '../workers/startWorker.js';
 import type { RowTable } from '../store/RowTable.js';
 import { concatTables } from './concatTables.js';
 import { featuresTask, featuresTasks, resolveFeaturesOptions } from './featuresSweep.js';
@@ -56,7 +56,7 @@ export async function featuresSweepParallel(opts: FeaturesSweepOptions & { worke
       }
     });
   } finally {
-    await Promise.all(pool.map((w) => w.terminate()));
+    stopWorkers(pool);
   }
   return concatTables(results);
 }

@@ -22,3 +22,15 @@ export function startWorker(opts: { base: string; name: string }): Worker {
   const boot = `import(${JSON.stringify(tsxApi)}).then((m) => { m.register(); return import(${JSON.stringify(entry)}); });`;
   return new WorkerThread(boot, { eval: true });
 }
+
+/**
+ * Stops workers whose results are in hand without waiting for them to go: a worker's teardown
+ * (freeing its heap) took ~50 ms after the 1M-row ingest, time the caller need not spend idle.
+ * They are unref'd, so the process may exit meanwhile.
+ */
+export function stopWorkers(pool: readonly Worker[]): void {
+  for (const w of pool) {
+    w.unref();
+    void w.terminate();
+  }
+}
