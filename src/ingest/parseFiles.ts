@@ -3,6 +3,7 @@ import { startWorker, stopWorkers } from '../workers/startWorker.js';
 import { readSourceFile, unpackTable } from './readSourceFile.js';
 import type { FileJob, FileOutcome } from './readSourceFile.js';
 import type { PackedOutcome } from './parseWorker.js';
+import type { RowTable } from '../store/RowTable.js';
 
 export interface ParseFilesOptions {
   /** Worker threads; default: one per core (at most 4) when the work is big enough. */
@@ -63,7 +64,10 @@ export async function parseFiles(jobs: FileJob[], sizes: number[], opts: ParseFi
             };
             w.on('message', (msg: { outs: PackedOutcome[] }) => {
               msg.outs.forEach((o, k) => {
-                results[current[k]] = o.kind === 'parsed' ? ({ ...o, norm: { ...o.norm!, table: unpackTable(o.norm!.table) } } as FileOutcome) : (o as FileOutcome);
+                // In place: the message's objects are ours, and spreading a deserialised object
+                // costs ~25 µs (the manifest step spent 50 ms on 2,000 of them).
+                if (o.kind === 'parsed') (o.norm as unknown as { table: RowTable }).table = unpackTable(o.norm!.table);
+                results[current[k]] = o as FileOutcome;
                 onFile?.();
               });
               send();
