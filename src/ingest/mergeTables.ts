@@ -161,7 +161,8 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
     const m = new Map<number, number>();
     for (const [s0, s1] of entry.blocks) {
       const { t, i } = rowOf(s0);
-      for (let s = s0; s < s1; s++) m.set(t.epochs[i + s - s0], s);
+      const epochs = t.epochs;
+      for (let s = s0; s < s1; s++) m.set(epochs[i + s - s0], s);
     }
     entry.byEpoch = m;
     return m;
@@ -171,6 +172,8 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
   for (const ti of order) {
     const t = tables[ti];
     const runAt = runOf[ti];
+    // Read once: a worker's table holds some columns behind getters (its object is then slow to index).
+    const epochs = t.epochs;
     const base = offset[ti];
     let i = 0;
     while (i < t.length) {
@@ -178,7 +181,7 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
       let j = i + 1;
       let increasing = true;
       while (j < t.length && runAt(j) === run) {
-        if (!(t.epochs[j] > t.epochs[j - 1])) increasing = false;
+        if (!(epochs[j] > epochs[j - 1])) increasing = false;
         j++;
       }
       const entry = index.get(run);
@@ -188,7 +191,7 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
         let e = entry;
         if (!e) index.set(run, (e = { blocks: [], byEpoch: new Map() }));
         const byEpoch = materialize(e);
-        for (let r = i; r < j; r++) place(byEpoch, run, base + r, ti, t.epochs[r]);
+        for (let r = i; r < j; r++) place(byEpoch, run, base + r, ti, epochs[r]);
       }
       i = j;
     }
@@ -257,7 +260,7 @@ function pieceCodes(opts: { piece: TablePiece; name: TextColumn; builder: Dictio
   const { table: t, rows } = piece;
   const n = rows ? rows.length : t.length;
   const coded = t.codes?.[name];
-  if (coded?.dict.length === 1) return builder.translator(coded.dict)(0);
+  if (coded?.dict.length === 1) return builder.code(coded.dict[0]);
   const dest = new Int32Array(n);
   if (coded) {
     const tr = builder.translator(coded.dict);
