@@ -7,10 +7,10 @@ import { normalizeRaw } from './normalizeRaw.js';
 import type { Normalized, Scale } from './normalizeRaw.js';
 import type { Target } from './synonyms.js';
 import { NUMERIC_COLUMNS } from '../store/RowTable.js';
-import type { NumericColumn, RowTable, TextCodes, TextColumn } from '../store/RowTable.js';
+import type { NumericColumn, RowTable, RunStatus, TextCodes, TextColumn } from '../store/RowTable.js';
 import { ingestText } from '../messages.js';
 import { dictionaryEncode } from '../store/dictionaryEncode.js';
-import { attachTextCodes, lazyProperty, TEXT_COLUMNS } from '../store/textCodes.js';
+import { decodeCodes, TEXT_COLUMNS } from '../store/textCodes.js';
 
 /** Normalisation options in a form that can cross to a worker thread (the regex as text). */
 export interface PortableOptions {
@@ -152,34 +152,65 @@ function zeroCodes(n: number): Int32Array {
 }
 
 export function unpackTable(p: PackedTable): RowTable {
-  const n = p.length;
-  const constants: Partial<Record<NumericColumn, number>> = {};
-  const t = {
-    length: n,
-    run: [], condition: [], source: [], status: [], // replaced by the codes below
-    source_line: p.source_line,
-    extra: p.extra,
-    constants,
-  } as unknown as { -readonly [K in keyof RowTable]: RowTable[K] };
-  for (const c of NUMERIC_COLUMNS) {
-    const v = p.numeric[c];
-    if (typeof v !== 'number') {
-      t[c] = v;
-      continue;
+  return new WorkerTable(p);
+}
+
+/**
+ * A worker's table on this thread. Constant number columns are built only when read (reading
+ * one drops its `constants` entry: the array is then the truth and may be written to); text
+ * stays coded, its strings decoded only when read. Getters on the class, not per-table
+ * properties: 2,000 tables with a dozen defined properties each cost the main thread ~75 ms while
+ * the workers ran, and left objects slow to index.
+ */
+class WorkerTable implements RowTable {
+  readonly length: number;
+  readonly source_line: Int32Array;
+  readonly extra: Record<string, Float64Array>;
+  readonly constants: Partial<Record<NumericColumn, number>> = {};
+  readonly codes: Record<TextColumn, TextCodes>;
+  private readonly numeric: Record<string, Float64Array | number>;
+  private readonly strings: Partial<Record<TextColumn, string[]>> = {};
+
+  constructor(p: PackedTable) {
+    const n = p.length;
+    this.length = n;
+    this.source_line = p.source_line;
+    this.extra = p.extra;
+    this.numeric = p.numeric;
+    for (const c of NUMERIC_COLUMNS) {
+      const v = p.numeric[c];
+      if (typeof v === 'number') this.constants[c] = v;
     }
-    constants[c] = v;
-    // Made only if read; from then on the array is the truth (it may be written to).
-    lazyProperty(t, c, () => {
-      delete constants[c];
-      return new Float64Array(n).fill(v);
-    });
+    const x = p.text;
+    const coded = (name: TextColumn): TextCodes => ({ dict: x[name].dict, codes: x[name].codes ?? zeroCodes(n) });
+    this.codes = { run: coded('run'), condition: coded('condition'), source: coded('source'), status: coded('status') };
   }
-  // Text stays coded: the merge copies codes, and the string arrays are built only if read.
-  const codes = {} as Record<TextColumn, TextCodes>;
-  for (const name of TEXT_COLUMNS) {
-    const x = p.text[name];
-    codes[name] = { dict: x.dict, codes: x.codes ?? zeroCodes(n) };
+
+  private num(c: NumericColumn): Float64Array {
+    const v = this.numeric[c];
+    if (typeof v !== 'number') return v;
+    const built = new Float64Array(this.length).fill(v);
+    this.numeric[c] = built;
+    delete this.constants[c];
+    return built;
   }
-  attachTextCodes(t, codes);
-  return t;
+
+  private text(name: TextColumn): string[] {
+    return (this.strings[name] ??= decodeCodes(this.codes[name]));
+  }
+
+  get seed() { return this.num('seed'); }
+  get width() { return this.num('width'); }
+  get epochs() { return this.num('epochs'); }
+  get train_size() { return this.num('train_size'); }
+  get label_noise() { return this.num('label_noise'); }
+  get test_error() { return this.num('test_error'); }
+  get train_error() { return this.num('train_error'); }
+  get test_loss() { return this.num('test_loss'); }
+  get train_loss() { return this.num('train_loss'); }
+  get wall_seconds() { return this.num('wall_seconds'); }
+  get run() { return this.text('run'); }
+  get condition() { return this.text('condition'); }
+  get source() { return this.text('source'); }
+  get status() { return this.text('status') as RunStatus[]; }
 }
