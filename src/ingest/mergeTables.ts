@@ -59,8 +59,12 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
   });
   // Text through each table's codes when it has them (store reads and worker results do): the
   // merge never builds a million-element string array.
-  const text = (name: TextColumn) => tables.map((t) => textReader(t, name));
-  const runOf = text('run');
+  // Readers are made when first needed: only `run` is read for every table; the others only for
+  // rows that meet another row of their run and epoch.
+  const text = (name: TextColumn) => {
+    const readers: ((i: number) => string)[] = [];
+    return (ti: number, i: number) => (readers[ti] ??= textReader(tables[ti], name))(i);
+  };
   const conditionOf = text('condition');
   const sourceOf = text('source');
   const statusOf = text('status');
@@ -69,7 +73,7 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
   tables.forEach((t, ti) => tableOf.fill(ti, offset[ti], offset[ti] + t.length));
   const mtimeOf = (slot: number) => {
     const ti = tableOf[slot];
-    return ti === 0 ? existingMtime(sourceOf[0](slot)) : mtimes[ti];
+    return ti === 0 ? existingMtime(sourceOf(0, slot)) : mtimes[ti];
   };
   const extraNames = [...new Set(tables.flatMap((t) => Object.keys(t.extra)))];
   const equal = (a: number, b: number): boolean => {
@@ -78,7 +82,7 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
     const ia = a - offset[tableOf[a]];
     const ib = b - offset[tableOf[b]];
     for (const c of NUMERIC_COLUMNS) if (!same(ta[c][ia], tb[c][ib])) return false;
-    if (statusOf[tableOf[a]](ia) !== statusOf[tableOf[b]](ib) || conditionOf[tableOf[a]](ia) !== conditionOf[tableOf[b]](ib)) return false;
+    if (statusOf(tableOf[a], ia) !== statusOf(tableOf[b], ib) || conditionOf(tableOf[a], ia) !== conditionOf(tableOf[b], ib)) return false;
     for (const e of extraNames) if (!same(ta.extra[e]?.[ia] ?? NaN, tb.extra[e]?.[ib] ?? NaN)) return false;
     return true;
   };
@@ -88,7 +92,7 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
     const tb = tables[tableOf[b]];
     const ia = a - offset[tableOf[a]];
     const ib = b - offset[tableOf[b]];
-    if (statusOf[tableOf[a]](ia) !== statusOf[tableOf[b]](ib) || conditionOf[tableOf[a]](ia) !== conditionOf[tableOf[b]](ib)) return false;
+    if (statusOf(tableOf[a], ia) !== statusOf(tableOf[b], ib) || conditionOf(tableOf[a], ia) !== conditionOf(tableOf[b], ib)) return false;
     for (const c of NUMERIC_COLUMNS) {
       const x = ta[c][ia];
       const y = tb[c][ib];
@@ -154,7 +158,7 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
     if (newer) byEpoch.set(ep, slot);
     const l = rowOf(loser);
     const w = rowOf(winner);
-    rejects.push({ source: sourceOf[l.ti](l.i), line: l.t.source_line[l.i], field: 'run', reason: ingestText.conflict(run, ep, sourceOf[w.ti](w.i), w.t.source_line[w.i]) });
+    rejects.push({ source: sourceOf(l.ti, l.i), line: l.t.source_line[l.i], field: 'run', reason: ingestText.conflict(run, ep, sourceOf(w.ti, w.i), w.t.source_line[w.i]) });
   };
   const materialize = (entry: RunEntry): Map<number, number> => {
     if (entry.byEpoch) return entry.byEpoch;
@@ -171,7 +175,10 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
   const order = [0, ...incoming.map((_, k) => k + 1).sort((a, b) => mtimes[a] - mtimes[b] || a - b)];
   for (const ti of order) {
     const t = tables[ti];
-    const runAt = runOf[ti];
+    // A table of one run (a run's log) has one entry in its run dictionary: no per-row compare.
+    const runCodes = t.codes?.run;
+    const oneRun = runCodes?.dict.length === 1 ? runCodes.dict[0] : null;
+    const runAt = oneRun !== null ? () => oneRun : textReader(t, 'run');
     // Read once: a worker's table holds some columns behind getters (its object is then slow to index).
     const epochs = t.epochs;
     const base = offset[ti];
@@ -180,9 +187,13 @@ export function mergeTables(opts: { existing: RowTable; existingMtime: (source: 
       const run = runAt(i);
       let j = i + 1;
       let increasing = true;
-      while (j < t.length && runAt(j) === run) {
-        if (!(epochs[j] > epochs[j - 1])) increasing = false;
-        j++;
+      if (oneRun !== null) {
+        for (j = i + 1; j < t.length; j++) if (!(epochs[j] > epochs[j - 1])) increasing = false;
+      } else {
+        while (j < t.length && runAt(j) === run) {
+          if (!(epochs[j] > epochs[j - 1])) increasing = false;
+          j++;
+        }
       }
       const entry = index.get(run);
       if (!entry && increasing) {
