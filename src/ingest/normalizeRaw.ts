@@ -193,9 +193,10 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
       let max = -Infinity;
       let above = 0;
       let finite = 0;
+      const { kind, values } = p;
       for (let i = 0; i < n; i++) {
-        if (p.kind[i] !== 0) continue;
-        const v = p.values[i];
+        if (kind[i] !== 0) continue;
+        const v = values[i];
         finite++;
         if (v > max) max = v;
         if (v > 1) above++;
@@ -245,13 +246,16 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     }
   }
   // The first unparseable cell of each row, found column by column.
-  const badAt = new Int16Array(n).fill(-1);
+  // (Made only when some cell is bad: most logs have none.)
+  let badAt: Int16Array | null = null;
   const badSources: { field: string; j: number }[] = [];
   const markBad = (kind: Uint8Array, field: string, j: number) => {
     const id = badSources.length;
     let any = false;
     for (let i = 0; i < n; i++) {
-      if (kind[i] === CELL_BAD && badAt[i] < 0) {
+      if (kind[i] !== CELL_BAD) continue;
+      badAt ??= new Int16Array(n).fill(-1);
+      if (badAt[i] < 0) {
         badAt[i] = id;
         any = true;
       }
@@ -291,6 +295,9 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
   const Vtl = V.test_loss, Ktl = K.test_loss, Vrl = V.train_loss, Krl = K.train_loss;
   const Vwall = V.wall_seconds;
   const Kwall = K.wall_seconds;
+  // Extra columns as plain array pairs (the row loop runs a million times: no iterator per row).
+  const extraOut = extraParsed.map((e) => out.extra[e.name]);
+  const extraIn = extraParsed.map((e) => e.p.values);
   let k = 0;
   const last = { run: '', width: NaN, train_size: NaN, label_noise: NaN, seed: NaN, condition: '' };
   const reject = (i: number, field: string, reason: string) => rejects.push({ source, line: raw.lines[i], field: clip(field), reason });
@@ -302,7 +309,7 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
       else reject(i, err.field, err.reason);
       continue;
     }
-    if (badAt[i] >= 0) {
+    if (badAt !== null && badAt[i] >= 0) {
       const b = badSources[badAt[i]];
       const cell = text(cellAt(raw.columns[b.j], i));
       const hint = notNumberHint(cell);
@@ -447,7 +454,7 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     out.train_error[k] = tr;
     out.test_loss[k] = tl;
     out.train_loss[k] = trl;
-    for (const e of extraParsed) out.extra[e.name][k] = e.p.values[i];
+    for (let x = 0; x < extraOut.length; x++) extraOut[x][k] = extraIn[x][i];
     k++;
   }
   const table = sliceTable(out, k);
