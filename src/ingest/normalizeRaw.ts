@@ -217,8 +217,10 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
   }
 
   // 6. Per-row checks and output, column arrays only (no per-row objects on this path).
-  const extraNames = extraCols.map((e) => e.name).filter((x) => !(NUMERIC_COLUMNS as readonly string[]).includes(x));
-  const extraParsed = extraCols.filter((e) => extraNames.includes(e.name)).map((e) => ({ name: e.name, j: e.j, p: parseColumn(raw.columns[e.j], n) }));
+  // (Most logs have no extra or condition columns: those steps are skipped outright then, so the
+  // compiled code of this function meets one kind of empty array, not several, and stays.)
+  const extraNames = extraCols.length === 0 ? [] : extraCols.map((e) => e.name).filter((x) => !(NUMERIC_COLUMNS as readonly string[]).includes(x));
+  const extraParsed = extraNames.length === 0 ? [] : extraCols.filter((e) => extraNames.includes(e.name)).map((e) => ({ name: e.name, j: e.j, p: parseColumn(raw.columns[e.j], n) }));
   // Every column of every kept row is written below: no need to fill first.
   const out = allocTable(n, extraNames);
   const rejects: Reject[] = [];
@@ -263,10 +265,10 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     if (any) badSources.push({ field, j });
   };
   for (const t of numericTargets) if (parsed[t]) markBad(parsed[t]!.kind, fieldName(t), colOf[t]!);
-  for (const e of extraParsed) markBad(e.p.kind, e.name, e.j);
+  for (let x = 0; x < extraParsed.length; x++) markBad(extraParsed[x].p.kind, extraParsed[x].name, extraParsed[x].j);
 
-  const condFixedText = [...condFixed.entries()];
-  const fixedCondition = condCols.length === 0 ? formatCondition(condFixedText) : '';
+  const condFixedText: [string, string][] = condFixed.size === 0 ? [] : [...condFixed.entries()];
+  const fixedCondition = condCols.length > 0 || condFixedText.length === 0 ? '' : formatCondition(condFixedText);
   const runCol = colOf.run !== undefined ? (raw.columns[colOf.run] as RawColumn) : null;
   const statusCol = colOf.status !== undefined ? (raw.columns[colOf.status] as RawColumn) : null;
   const condCol = colOf.condition !== undefined ? (raw.columns[colOf.condition] as RawColumn) : null;
@@ -296,8 +298,13 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
   const Vwall = V.wall_seconds;
   const Kwall = K.wall_seconds;
   // Extra columns as plain array pairs (the row loop runs a million times: no iterator per row).
-  const extraOut = extraParsed.map((e) => out.extra[e.name]);
-  const extraIn = extraParsed.map((e) => e.p.values);
+  const nExtra = extraParsed.length;
+  const extraOut: Float64Array[] = [];
+  const extraIn: Float64Array[] = [];
+  for (let x = 0; x < nExtra; x++) {
+    extraOut.push(out.extra[extraParsed[x].name]);
+    extraIn.push(extraParsed[x].p.values);
+  }
   let k = 0;
   const last = { run: '', width: NaN, train_size: NaN, label_noise: NaN, seed: NaN, condition: '' };
   const reject = (i: number, field: string, reason: string) => rejects.push({ source, line: raw.lines[i], field: clip(field), reason });
@@ -454,7 +461,7 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     out.train_error[k] = tr;
     out.test_loss[k] = tl;
     out.train_loss[k] = trl;
-    for (let x = 0; x < extraOut.length; x++) extraOut[x][k] = extraIn[x][i];
+    for (let x = 0; x < nExtra; x++) extraOut[x][k] = extraIn[x][i];
     k++;
   }
   const table = sliceTable(out, k);
