@@ -24,7 +24,7 @@ export function tokenizeToColumns(text: string, delimiter: string): DelimitedCol
   const d = delimiter.charCodeAt(0);
   const n = text.length;
   const names: string[] = [];
-  let columns: NumTextColumn[] = [];
+  const columns: NumTextColumn[] = [];
   const lines: number[] = [];
   const rowErrors = new Map<number, { field: string; reason: string }>();
   let width = -1; // -1 while reading the header
@@ -146,7 +146,7 @@ export function tokenizeToColumns(text: string, delimiter: string): DelimitedCol
       width = names.length;
       // Size the columns from the header line's length so they rarely grow.
       const capacity = Math.ceil((n - i) / Math.max(8, i)) * 2 + 16;
-      columns = names.map(() => new NumTextColumn(capacity));
+      for (let k = 0; k < width; k++) columns.push(new NumTextColumn(capacity));
     } else {
       if (count !== width) {
         rowErrors.set(row, { field: count < width ? names[count] : '', reason: ingestText.fieldCount(width, count) });
