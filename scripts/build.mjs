@@ -33,6 +33,29 @@ if (force || builtAt(root) < newestSource(root)) {
  * commands stay separate chunks so `--help` loads none of them. Without esbuild
  * (a production install) or on a bundling error the bundle is removed and dist/src is used.
  */
+/**
+ * string-width (terminal width of text, used by yargs to lay out help) builds two Intl.Segmenter
+ * objects and a dozen Unicode-property regular expressions when its module loads: ~30 ms of every
+ * command's start-up, though only help text needs it. Its module body is wrapped into a function
+ * run on the first call; the function and its results are unchanged. A module not of the expected
+ * shape (one default-exported function) is bundled as it is.
+ */
+function lazyStringWidth() {
+  return { name: 'lazy-string-width', setup: (build) => build.onLoad({ filter: /[\\/]string-width[\\/]index\.js$/ }, lazyModule) };
+}
+
+async function lazyModule(args) {
+  const { readFile } = await import('node:fs/promises');
+  const lines = (await readFile(args.path, 'utf8')).split('\n');
+  const head = lines.filter((l) => /^import\s/.test(l));
+  const body = lines.filter((l) => !/^import\s/.test(l));
+  const exported = body.filter((l) => /^export\s/.test(l));
+  if (exported.length !== 1 || !/^export default function stringWidth\(/.test(exported[0])) return undefined;
+  const inner = body.map((l) => (l === exported[0] ? l.replace(/^export default /, '') : l)).join('\n');
+  const contents = `${head.join('\n')}\nfunction init() {\n${inner}\nreturn stringWidth;\n}\nlet made;\nexport default function lazyStringWidth(string, options) {\n  return (made ??= init())(string, options);\n}\n`;
+  return { contents, loader: 'js', resolveDir: dirname(args.path) };
+}
+
 async function bundle() {
   const out = join(root, 'dist/bundle');
   rmSync(out, { recursive: true, force: true });
@@ -53,6 +76,7 @@ async function bundle() {
       // Bundled CommonJS dependencies (cli-progress, @stdlib) call require() for Node built-ins.
       banner: { js: "import { createRequire as __datlasRequire } from 'node:module'; const require = __datlasRequire(import.meta.url);" },
       logLevel: 'error',
+      plugins: [lazyStringWidth()],
     });
   } catch (err) {
     rmSync(out, { recursive: true, force: true });
