@@ -16,7 +16,8 @@ export function rawFromArrow(bytes: Uint8Array): RawTable {
   for (const field of table.schema.fields) {
     const values = table.getChild(field.name).toArray() as ArrayLike<unknown>;
     raw.names.push(field.name);
-    if (values instanceof Float64Array) raw.columns.push(values);
+    // Copied: the bytes are a buffer the next file is read into, and flechette's columns can be views of them.
+    if (values instanceof Float64Array) raw.columns.push(values.slice());
     else if (ArrayBuffer.isView(values)) raw.columns.push(Float64Array.from(values as ArrayLike<number>));
     else raw.columns.push(Array.from(values as ArrayLike<unknown>, (v) => (typeof v === 'bigint' ? Number(v) : (v as RawValue))));
   }

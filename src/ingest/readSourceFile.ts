@@ -1,4 +1,4 @@
-import { readFileSync, statSync } from 'node:fs';
+import { closeSync, fstatSync, openSync, readFileSync, readSync, statSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import type { FileStamp } from '../store/Manifest.js';
 import { formatOfBytes, rawFromBytes, readConfigFile } from './readSource.js';
@@ -41,6 +41,34 @@ const requireHere = createRequire(import.meta.url);
 let crypto: typeof import('node:crypto') | null = null;
 export const sha256 = (b: Uint8Array) => (crypto ??= requireHere('node:crypto') as typeof import('node:crypto')).createHash('sha256').update(b).digest('hex');
 
+/** The buffer files are read into, reused from file to file (grown as needed). */
+let scratch = Buffer.allocUnsafeSlow(1 << 16);
+
+/**
+ * A file's bytes in the reused buffer: valid until the next call. A fresh buffer per file (what
+ * readFileSync gives) is fresh memory each time, and faulting it in was the largest single cost of
+ * a worker's reading (~0.25 s over 1,000 files). Nothing read from the bytes keeps a view of
+ * them: text is decoded to a string, Arrow columns are copied.
+ */
+function readReused(path: string): Buffer {
+  const fd = openSync(path, 'r');
+  try {
+    let size = fstatSync(fd).size;
+    let n = 0;
+    for (;;) {
+      if (scratch.length < size + 1) scratch = Buffer.allocUnsafeSlow(Math.max(size + 1, scratch.length * 2));
+      // One byte of room past the stated size tells a file that grew since the stat.
+      const got = readSync(fd, scratch, n, scratch.length - n, null);
+      if (got === 0) break;
+      n += got;
+      if (n === scratch.length) size = n * 2;
+    }
+    return scratch.subarray(0, n);
+  } finally {
+    closeSync(fd);
+  }
+}
+
 /**
  * Reads, hashes, parses and normalises one file. Pure apart from reading the file, so a pool
  * of worker threads can run it over many files at once.
@@ -50,7 +78,7 @@ export function readSourceFile(job: FileJob): FileOutcome {
   let stamp: FileStamp = { path: job.given, size: 0, mtime: job.mtime, sha256: '' };
   let config: FileStamp | undefined;
   try {
-    bytes = readFileSync(job.given);
+    bytes = readReused(job.given);
     stamp = { path: job.given, size: bytes.byteLength, mtime: job.mtime, sha256: sha256(bytes) };
     if (job.config) {
       const cb = readFileSync(job.config);
