@@ -55,6 +55,17 @@ function read(text: string) {
   };
 }
 
+/** The tokenizer's reading of `text` equals the JSON.parse reference: rows, errors, lines, pending. */
+function expectAsJsonParse(text: string): void {
+  const got = read(text);
+  const want = reference(text);
+  expect(got.lines).toEqual(want.lines);
+  expect(got.errors).toEqual(want.errors);
+  expect(got.pendingLine).toBe(want.pendingLine);
+  expect(got.names).toEqual(want.names);
+  expect(got.rows).toEqual(want.rows);
+}
+
 describe('tokenizeJsonLines', () => {
   it('reads flat records as typed columns: numbers as numbers, text as text, null as missing', () => {
     const t = tokenizeJsonLines('{"width": 64, "test_error": 0.25, "opt": "sgd", "ok": true, "note": null}\n{"width":128,"test_error":1.5e-3,"opt":"adam","ok":false}\n');
@@ -108,14 +119,7 @@ describe('tokenizeJsonLines', () => {
     const lineArb = fc.oneof({ weight: 8, arbitrary: record }, { weight: 1, arbitrary: fc.constantFrom('', '   ', 'garbage', '[1]', '5', '"s"', 'null', '{"a":1} {"b":2}') });
     fc.assert(
       fc.property(fc.array(lineArb, { maxLength: 12 }), fc.boolean(), (lines, lastNewline) => {
-        const text = lines.join('\n') + (lastNewline ? '\n' : '');
-        const got = read(text);
-        const want = reference(text);
-        expect(got.lines).toEqual(want.lines);
-        expect(got.errors).toEqual(want.errors);
-        expect(got.pendingLine).toBe(want.pendingLine);
-        expect(got.names).toEqual(want.names);
-        expect(got.rows).toEqual(want.rows);
+        expectAsJsonParse(lines.join('\n') + (lastNewline ? '\n' : ''));
       }),
       { numRuns: 3000, seed: 20261202 },
     );
@@ -143,13 +147,7 @@ describe('tokenizeJsonLines', () => {
             return twist === 2 ? `${body} x` : twist === 3 ? `${body}\r` : body;
           })
           .join('\n');
-        const full = `${text}\n`;
-        const got = read(full);
-        const want = reference(full);
-        expect(got.errors).toEqual(want.errors);
-        expect(got.names).toEqual(want.names);
-        expect(got.rows).toEqual(want.rows);
-        expect(got.lines).toEqual(want.lines);
+        expectAsJsonParse(`${text}\n`);
       }),
       { numRuns: 2000, seed: 7 },
     );
