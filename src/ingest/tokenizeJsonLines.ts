@@ -1,4 +1,4 @@
-import { NumTextColumn, parseDecimal, POW10 } from './NumTextColumn.js';
+import { NumTextColumn, POW10 } from './NumTextColumn.js';
 import { emptyRaw, flattenRecord } from './RawTable.js';
 import type { RawTable, RawValue } from './RawTable.js';
 import { jsonWhy, parseJsonLenient } from './parseJsonLenient.js';
@@ -24,6 +24,61 @@ const isDigit = (c: number) => c >= 48 && c <= 57;
 const unusualKey = (k: string) => k === '__proto__' || /^(0|[1-9]\d*)$/.test(k);
 /** A key that can be matched against the raw characters of a line (nothing escaped or special). */
 const plainKey = (k: string) => !/["\\\u0000-\u001f]/.test(k);
+
+/** The value of the number readNumber last read (a variable, not an object per number). */
+let numberValue = 0;
+
+/**
+ * Reads the ECMA-404 number -?(0|[1-9]\d*)(\.\d+)?([eE][+-]?\d+)? at text[i] in one pass:
+ * the index after it (its value in numberValue), or -1 when the text there is not one. The text
+ * must go on with a non-digit (every line read here ends in a line feed). The value is exact
+ * where the digits fit in 2^53 and the power of ten is exact (Clinger's fast path, as
+ * parseDecimal), else the engine's own conversion of the literal, as JSON.parse.
+ */
+function readNumber(text: string, i: number): number {
+  const vs = i;
+  let c = text.charCodeAt(i);
+  const neg = c === 45;
+  if (neg) c = text.charCodeAt(++i);
+  let m = 0;
+  let exp = 0;
+  if (c === 48) c = text.charCodeAt(++i);
+  else if (c >= 49 && c <= 57) {
+    do {
+      m = m * 10 + (c - 48);
+      c = text.charCodeAt(++i);
+    } while (c >= 48 && c <= 57);
+  } else return -1;
+  if (c === 46) {
+    c = text.charCodeAt(++i);
+    if (!(c >= 48 && c <= 57)) return -1;
+    do {
+      m = m * 10 + (c - 48);
+      exp--;
+      c = text.charCodeAt(++i);
+    } while (c >= 48 && c <= 57);
+  }
+  if (c === 101 || c === 69) {
+    c = text.charCodeAt(++i);
+    let eneg = false;
+    if (c === 43 || c === 45) {
+      eneg = c === 45;
+      c = text.charCodeAt(++i);
+    }
+    if (!(c >= 48 && c <= 57)) return -1;
+    let e = 0;
+    do {
+      if (e < 1000) e = e * 10 + (c - 48);
+      c = text.charCodeAt(++i);
+    } while (c >= 48 && c <= 57);
+    exp += eneg ? -e : e;
+  }
+  let v: number;
+  if (m <= 9007199254740991 && exp >= -22 && exp <= 22) v = exp === 0 ? m : exp < 0 ? m / POW10[-exp] : m * POW10[exp];
+  else v = Math.abs(Number(text.slice(vs, i)));
+  numberValue = neg ? -v : v;
+  return i;
+}
 
 /**
  * JSON Lines straight into typed columns, the hot path of JSON Lines ingest. A line that is one
@@ -138,31 +193,10 @@ export function tokenizeJsonLines(text: string): RawTable {
           fStart[nf] = vs;
           fEnd[nf] = i++;
         } else if (c === 45 || isDigit(c)) {
-          // ECMA-404 number: -?(0|[1-9]\d*)(\.\d+)?([eE][+-]?\d+)?
-          const vs = i;
-          if (c === 45) i++;
-          c = text.charCodeAt(i);
-          if (c === 48) i++;
-          else if (c >= 49 && c <= 57) while (i < end && isDigit(text.charCodeAt(i))) i++;
-          else return -1;
-          if (text.charCodeAt(i) === 46 && i < end) {
-            i++;
-            if (!(i < end && isDigit(text.charCodeAt(i)))) return -1;
-            while (i < end && isDigit(text.charCodeAt(i))) i++;
-          }
-          c = text.charCodeAt(i);
-          if ((c === 101 || c === 69) && i < end) {
-            i++;
-            c = text.charCodeAt(i);
-            if ((c === 43 || c === 45) && i < end) i++;
-            if (!(i < end && isDigit(text.charCodeAt(i)))) return -1;
-            while (i < end && isDigit(text.charCodeAt(i))) i++;
-          }
-          // Exact where the fast path applies, else the engine's own conversion (as JSON.parse).
-          let v = parseDecimal(text, vs, i);
-          if (v !== v) v = Number(text.slice(vs, i));
+          i = readNumber(text, i);
+          if (i < 0) return -1;
           fKind[nf] = NUM;
-          fNum[nf] = v;
+          fNum[nf] = numberValue;
         } else if (c === 116 && text.startsWith('true', i)) {
           fKind[nf] = TRUE;
           i += 4;
@@ -257,52 +291,9 @@ export function tokenizeJsonLines(text: string): RawTable {
       while (col.length < row) col.pushText('');
       let c = text.charCodeAt(i);
       if (c === 45 || (c >= 48 && c <= 57)) {
-        // ECMA-404 number in one pass: -?(0|[1-9]\d*)(\.\d+)?([eE][+-]?\d+)?
-        const vs = i;
-        let neg = false;
-        if (c === 45) {
-          neg = true;
-          c = text.charCodeAt(++i);
-        }
-        let m = 0;
-        let exp = 0;
-        if (c === 48) c = text.charCodeAt(++i);
-        else if (c >= 49 && c <= 57) {
-          do {
-            m = m * 10 + (c - 48);
-            c = text.charCodeAt(++i);
-          } while (c >= 48 && c <= 57);
-        } else return unstore(f, row), false;
-        if (c === 46) {
-          c = text.charCodeAt(++i);
-          if (!(c >= 48 && c <= 57)) return unstore(f, row), false;
-          do {
-            m = m * 10 + (c - 48);
-            exp--;
-            c = text.charCodeAt(++i);
-          } while (c >= 48 && c <= 57);
-        }
-        if (c === 101 || c === 69) {
-          c = text.charCodeAt(++i);
-          let eneg = false;
-          if (c === 43 || c === 45) {
-            eneg = c === 45;
-            c = text.charCodeAt(++i);
-          }
-          if (!(c >= 48 && c <= 57)) return unstore(f, row), false;
-          let e = 0;
-          do {
-            if (e < 1000) e = e * 10 + (c - 48);
-            c = text.charCodeAt(++i);
-          } while (c >= 48 && c <= 57);
-          exp += eneg ? -e : e;
-        }
-        // Exact when the digits fit in 2^53 and the power of ten is exact (Clinger's fast
-        // path, as parseDecimal); else the engine's own conversion of the literal.
-        let v: number;
-        if (m <= 9007199254740991 && exp >= -22 && exp <= 22) v = exp === 0 ? m : exp < 0 ? m / POW10[-exp] : m * POW10[exp];
-        else v = Math.abs(Number(text.slice(vs, i)));
-        col.push(neg ? -v : v);
+        i = readNumber(text, i);
+        if (i < 0) return unstore(f, row), false;
+        col.push(numberValue);
       } else if (c === QUOTE) {
         const vs = i + 1;
         do c = text.charCodeAt(++i);
