@@ -67,35 +67,63 @@ function constantOf(p: TablePiece, col: ConcatColumn): number | undefined {
   return p.table.constants?.[col];
 }
 
-function gather(c: Concatenation, col: ConcatColumn): Float64Array | Int32Array {
-  const out = col === 'source_line' ? new Int32Array(c.length) : new Float64Array(c.length);
-  let k = 0;
+type Values = Float64Array | Int32Array;
+
+/**
+ * Hands over a number column piece by piece, in order: a piece's own array when it is kept
+ * whole, else its values gathered (or its constant, or NaN for an extra it lacks) into a scratch
+ * array reused for the next piece. Building a column and writing one both go through here.
+ */
+function eachPiece(c: Concatenation, col: ConcatColumn, take: (values: Values) => void): void {
+  const int = col === 'source_line';
+  let scratch: Values = int ? new Int32Array(0) : new Float64Array(0);
+  const room = (n: number): Values => {
+    if (scratch.length < n) scratch = int ? new Int32Array(n) : new Float64Array(n);
+    return scratch.subarray(0, n);
+  };
   for (const p of c.pieces) {
     const n = p.rows ? p.rows.length : p.table.length;
     const v = p.rows ? undefined : constantOf(p, col);
-    if (v !== undefined) out.fill(v, k, k + n);
+    const src = v === undefined ? valuesOf(p.table, col) : undefined;
+    if (v !== undefined || !src) take(room(n).fill(v ?? NaN));
+    else if (!p.rows) take(src);
     else {
-      const src = valuesOf(p.table, col);
-      if (!src) out.fill(NaN, k, k + n);
-      else if (!p.rows) out.set(src, k);
-      else for (let r = 0; r < n; r++) out[k + r] = src[p.rows[r]];
+      const out = room(n);
+      for (let r = 0; r < n; r++) out[r] = src[p.rows[r]];
+      take(out);
     }
-    k += n;
   }
-  return out;
 }
 
-function gatherCodes(c: Concatenation, x: ConcatText): Int32Array {
-  const out = new Int32Array(c.length);
-  let k = 0;
+/** The same for a text column's codes: a piece's own codes, or its one code repeated. */
+function eachCodes(c: Concatenation, x: ConcatText, take: (codes: Int32Array) => void): void {
+  let scratch = new Int32Array(0);
   c.pieces.forEach((p, i) => {
     const n = p.rows ? p.rows.length : p.table.length;
     const codes = x.codes[i];
-    if (typeof codes === 'number') out.fill(codes, k, k + n);
-    else out.set(codes, k);
-    k += n;
+    if (typeof codes !== 'number') return take(codes);
+    if (scratch.length < n) scratch = new Int32Array(n);
+    take(scratch.fill(codes, 0, n).subarray(0, n));
+  });
+}
+
+/** Copies what `each` hands over into one array of the concatenation's length. */
+function gatherInto<A extends Values>(out: A, each: (take: (values: Values) => void) => void): A {
+  let k = 0;
+  each((values) => {
+    out.set(values, k);
+    k += values.length;
   });
   return out;
+}
+
+function gather(c: Concatenation, col: ConcatColumn): Values {
+  const out = col === 'source_line' ? new Int32Array(c.length) : new Float64Array(c.length);
+  return gatherInto(out, (take) => eachPiece(c, col, take));
+}
+
+function gatherCodes(c: Concatenation, x: ConcatText): Int32Array {
+  return gatherInto(new Int32Array(c.length), (take) => eachCodes(c, x, take));
 }
 
 /** Bytes of a column for a writer: `emit` must be done with each array when it returns (it is reused). */
@@ -113,42 +141,14 @@ export function pieceWriter(t: RowTable, column: ConcatColumn | { codes: TextCol
     const coded = t.codes?.[column.codes];
     if (!coded || !pending(coded, 'codes')) return null;
     const x = c.text[column.codes];
-    return (emit) => {
-      let scratch = new Int32Array(0);
-      c.pieces.forEach((p, i) => {
-        const n = p.rows ? p.rows.length : p.table.length;
-        const codes = x.codes[i];
-        if (typeof codes !== 'number') return emitView(emit, codes);
-        if (scratch.length < n) scratch = new Int32Array(n);
-        emitView(emit, scratch.fill(codes, 0, n).subarray(0, n));
-      });
-    };
+    return (emit) => eachCodes(c, x, (codes) => emitView(emit, codes));
   }
   const owner = typeof column === 'object' ? t.extra : t;
   const key = typeof column === 'object' ? column.extra : column;
   if (!pending(owner, key)) return null;
-  const int = column === 'source_line';
-  return (emit) => {
-    let scratch: Float64Array | Int32Array = int ? new Int32Array(0) : new Float64Array(0);
-    const room = (n: number) => {
-      if (scratch.length < n) scratch = int ? new Int32Array(n) : new Float64Array(n);
-      return scratch.subarray(0, n);
-    };
-    for (const p of c.pieces) {
-      const n = p.rows ? p.rows.length : p.table.length;
-      const v = p.rows ? undefined : constantOf(p, column);
-      const src = v === undefined ? valuesOf(p.table, column) : undefined;
-      if (v !== undefined || !src) emitView(emit, room(n).fill(v ?? NaN));
-      else if (!p.rows) emitView(emit, src);
-      else {
-        const out = room(n);
-        for (let r = 0; r < n; r++) out[r] = src[p.rows[r]];
-        emitView(emit, out);
-      }
-    }
-  };
+  return (emit) => eachPiece(c, column, (values) => emitView(emit, values));
 }
 
-function emitView(emit: (bytes: Uint8Array) => void, a: Float64Array | Int32Array): void {
+function emitView(emit: (bytes: Uint8Array) => void, a: Values): void {
   if (a.length > 0) emit(new Uint8Array(a.buffer, a.byteOffset, a.byteLength));
 }
