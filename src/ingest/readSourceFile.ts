@@ -56,7 +56,12 @@ function readReused(path: string): Buffer {
     let size = fstatSync(fd).size;
     let n = 0;
     for (;;) {
-      if (scratch.length < size + 1) scratch = Buffer.allocUnsafeSlow(Math.max(size + 1, scratch.length * 2));
+      if (scratch.length < size + 1) {
+        // Grown keeping what was read so far (a file that grew while it was read).
+        const bigger = Buffer.allocUnsafeSlow(Math.max(size + 1, scratch.length * 2));
+        bigger.set(scratch.subarray(0, n));
+        scratch = bigger;
+      }
       // One byte of room past the stated size tells a file that grew since the stat.
       const got = readSync(fd, scratch, n, scratch.length - n, null);
       if (got === 0) break;
