@@ -52,8 +52,9 @@ export const ingestText = {
   nothingFound: (paths: string) => `no readable logs found in ${paths}`,
   nothingRead: 'nothing could be read; see the reasons above',
   strictFailed: (n: number) => `--strict: ${n} row${n === 1 ? '' : 's'} rejected, store left unchanged`,
-  summary: (r: { read: number; accepted: number; duplicates: number; rejected: number; pending: number }) =>
-    `read ${r.read} rows = ${r.accepted} accepted + ${r.duplicates} duplicates + ${r.rejected} rejected + ${r.pending} pending`,
+  summary: (r: { read: number; accepted: number; duplicates: number; rejected: number; pending: number; skipped: number }) =>
+    `read ${r.read} rows = ${r.accepted} accepted + ${r.duplicates} duplicates + ${r.rejected} rejected + ${r.pending} pending` +
+    (r.skipped ? ` + ${r.skipped} skipped (not runs: summaries over seeds)` : ''),
   sourcesLine: (sources: number, unchanged: number, failed: number) =>
     `${sources} source${sources === 1 ? '' : 's'}: ${sources - unchanged - failed} read, ${unchanged} unchanged (skipped), ${failed} unreadable`,
   conflictsLine: (conflicts: number, displaced: number) =>

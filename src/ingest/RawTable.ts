@@ -34,6 +34,13 @@ export interface RawTable {
   encoding?: string;
   /** Lines repeating the header (logs joined end to end), skipped: the first one and how many. */
   headerRepeats?: { line: number; count: number };
+  /**
+   * Records read but not runs (blocks of means over seeds, summaries): counted as read and as
+   * `skipped`, never stored or rejected. The reader names them in `notes`.
+   */
+  skipped?: number;
+  /** What the reader wants the user to know about this source (blocks skipped, key levels named). */
+  notes?: string[];
 }
 
 export function emptyRaw(format: string): RawTable {

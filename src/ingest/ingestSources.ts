@@ -49,6 +49,8 @@ export interface IngestResult {
   duplicates: number;
   rejected: number;
   pending: number;
+  /** Records read that are not runs (blocks of means over seeds): counted, never stored. */
+  skipped: number;
   conflicts: number;
   /** Sources named or found this time. */
   sources: number;
@@ -93,7 +95,7 @@ export async function ingestSources(opts: IngestOptions): Promise<IngestResult> 
   const { store, map = {}, set = {}, seedFrom, scale = {}, strict = false, wait = 30 } = opts;
   const walk = walkInputs(opts.paths, { skip: [store] });
   const result: IngestResult = {
-    read: 0, accepted: 0, duplicates: 0, rejected: 0, pending: 0, conflicts: 0, sources: walk.sources.length, unchanged: 0,
+    read: 0, accepted: 0, duplicates: 0, rejected: 0, pending: 0, skipped: 0, conflicts: 0, sources: walk.sources.length, unchanged: 0,
     failed: 0, displaced: 0, storeRows: 0, storeSources: 0, wrote: false, strictFailed: false,
     missing: walk.missing.map((m) => m.path), rejects: [], notes: [],
   };
@@ -200,13 +202,14 @@ export async function ingestSources(opts: IngestOptions): Promise<IngestResult> 
       result.duplicates += merged.duplicates[k];
       result.rejected += rejected;
       result.pending += n.pending;
+      result.skipped += n.skipped;
       rejects.push(...n.rejects);
       result.notes.push(...n.notes);
       // Fields named, not spread: spreading a stamp that came from a worker (a deserialised
       // object) cost ~25 µs each, 50 ms over 2,000 sources.
       const entry: SourceEntry = {
         path: p.given, size: p.stamp.size, mtime: p.stamp.mtime, sha256: p.stamp.sha256, format: p.format, mapping: n.mapping, ingestedAt: now,
-        read: n.read, accepted: merged.accepted[k], duplicates: merged.duplicates[k], rejected, pending: n.pending,
+        read: n.read, accepted: merged.accepted[k], duplicates: merged.duplicates[k], rejected, pending: n.pending, skipped: n.skipped,
       };
       if (p.config) entry.config = p.config;
       manifest.sources[p.key] = entry;
@@ -235,7 +238,7 @@ export async function ingestSources(opts: IngestOptions): Promise<IngestResult> 
     manifest.version = STORE_VERSION;
     manifest.updated = now;
     manifest.mapping = { map: { ...map }, set: { ...set }, seedFrom: seedFrom ? seedFrom.source : null, scale: { ...scale } };
-    manifest.counts = { read: result.read, accepted: result.accepted, duplicates: result.duplicates, rejected: result.rejected, pending: result.pending, conflicts: result.conflicts };
+    manifest.counts = { read: result.read, accepted: result.accepted, duplicates: result.duplicates, rejected: result.rejected, pending: result.pending, skipped: result.skipped, conflicts: result.conflicts };
     writeStore({ dir: store, table: merged.table, manifest, rejected: [...oldRejects, ...rejects] });
     result.wrote = true;
     result.storeRows = merged.table.length;

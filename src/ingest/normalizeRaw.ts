@@ -30,9 +30,11 @@ export interface Normalized {
   /** Accepted rows of this source, in source order. */
   table: RowTable;
   rejects: Reject[];
-  /** Rows read (accepted + rejected + pending; duplicates are found later, across sources). */
+  /** Rows read (accepted + rejected + pending + skipped; duplicates are found later, across sources). */
   read: number;
   pending: number;
+  /** Records read that are not runs (summaries over seeds): see RawTable.skipped. */
+  skipped: number;
   /** canonical target → where it came from (`column`, `config key`, `--set`). */
   mapping: Record<string, string>;
   /** Things the user should know (a column read as percent, a skipped label column). */
@@ -78,9 +80,11 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
   const notes: string[] = [];
   if (raw.encoding) notes.push(ingestText.encodingNote(source, raw.encoding));
   if (raw.headerRepeats) notes.push(ingestText.headerRepeated(source, raw.headerRepeats.line, raw.headerRepeats.count));
+  if (raw.notes) notes.push(...raw.notes);
+  const summaries = raw.skipped ?? 0;
   if (n === 0 && !raw.pendingLine) {
-    notes.push(ingestText.noRows(source, raw.names.length > 0));
-    return { table: emptyTable(0), rejects: [], read: 0, pending: 0, mapping: {}, notes };
+    if (summaries === 0) notes.push(ingestText.noRows(source, raw.names.length > 0));
+    return { table: emptyTable(0), rejects: [], read: summaries, pending: 0, skipped: summaries, mapping: {}, notes };
   }
   const mapping: Record<string, string> = {};
   const colOf: Partial<Record<Target, number>> = {};
@@ -466,7 +470,7 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
   }
   const table = sliceTable(out, k);
   curveNotes(table, { source, notes, mapping });
-  return { table, rejects, read: n - skipped + (raw.pendingLine ? 1 : 0), pending: raw.pendingLine ? 1 : 0, mapping, notes };
+  return { table, rejects, read: n - skipped + (raw.pendingLine ? 1 : 0) + summaries, pending: raw.pendingLine ? 1 : 0, skipped: summaries, mapping, notes };
 }
 
 /** Column names in messages: a header can hold a megabyte-long "name" (or line breaks, when quoted). */

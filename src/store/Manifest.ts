@@ -16,6 +16,8 @@ export interface IngestCounts {
   duplicates: number;
   rejected: number;
   pending: number;
+  /** Records read that are not runs (summaries over seeds); absent in stores written before it. */
+  skipped?: number;
 }
 
 export interface SourceEntry extends FileStamp, IngestCounts {
@@ -49,7 +51,7 @@ export interface Manifest {
   sources: Record<string, SourceEntry>;
   /** Options of the last ingest. */
   mapping: MappingOptions;
-  /** Counts of the last ingest (read == accepted + duplicates + rejected + pending). */
+  /** Counts of the last ingest (read == accepted + duplicates + rejected + pending + skipped). */
   counts: IngestCounts & { conflicts: number };
 }
 
@@ -62,6 +64,6 @@ export function emptyManifest(): Manifest {
     extra: [],
     sources: {},
     mapping: { map: {}, set: {}, seedFrom: null, scale: {} },
-    counts: { read: 0, accepted: 0, duplicates: 0, rejected: 0, pending: 0, conflicts: 0 },
+    counts: { read: 0, accepted: 0, duplicates: 0, rejected: 0, pending: 0, skipped: 0, conflicts: 0 },
   };
 }
