@@ -131,6 +131,26 @@ export const simulateMessages = {
 };
 
 
+// ── plan CSV read back (simulate --plan) ─────────────────────────────────────
+export const planCsvText = {
+  syntax: (file: string, line: number, what: string) => `${fmtPath(file)} line ${line}: not valid CSV: ${what}`,
+  empty: (file: string) => `${fmtPath(file)}: empty plan (no header line)`,
+  missingColumn: (file: string, col: string, head: string[]) =>
+    `${fmtPath(file)} line 1: no '${col}' column (the header has: ${head.join(', ')}); write plans with datlas plan --emit csv`,
+  badCell: (file: string, line: number, col: string, value: string, what: string) =>
+    `${fmtPath(file)} line ${line}, column ${col}: '${value}' is not ${what}`,
+  duplicate: (file: string, line: number, first: number, what: string) =>
+    `${fmtPath(file)} line ${line}: the run ${what} is already listed on line ${first}`,
+  noFile: (file: string) => `no plan file at ${fmtPath(file)} (write one with: datlas plan --spec FILE --emit csv --out ${file})`,
+  noRuns: (file: string) => `${fmtPath(file)}: the plan lists no runs (nothing to simulate)`,
+  linearPreset: '--plan runs the random-features presets (quick, demo, epochs); --preset linear has no epochs to plan',
+  planFlagsClash: (flags: string) => `--plan lists the runs itself; drop ${flags}`,
+  conditionIgnored: (n: number) => `${n} planned run${n === 1 ? '' : 's'} name a condition; the simulator has none, so it is only copied into the logs`,
+  wrotePlan: (runs: number, resumed: number, rows: number, files: number, dir: string, seconds: number, shape: string) =>
+    `simulated ${runs} planned run${runs === 1 ? '' : 's'}${resumed ? ` (${resumed} resumed)` : ''}: ${rows} rows as ${shape} to ${dir} (${files} files) in ${seconds.toFixed(1)} s`,
+};
+
+
 // ── cells / grid / map ───────────────────────────────────────────────────────
 export const mapMessages = {
   unknownAxis: (name: string, allowed: readonly string[]) => `unknown axis '${name}'; map axes are ${allowed.join(', ')}`,

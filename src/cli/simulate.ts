@@ -3,7 +3,7 @@ import { readdir } from 'node:fs/promises';
 import { availableParallelism } from 'node:os';
 import { general, simulateMessages as t } from '../messages.js';
 import { usageError } from '../UserError.js';
-import type { CommandSpec } from './CommandSpec.js';
+import type { CommandSpec, GlobalOptions } from './CommandSpec.js';
 import { progressBar } from './progress.js';
 
 const PRESETS = ['quick', 'demo', 'epochs', 'linear'] as const;
@@ -22,6 +22,7 @@ interface SimulateArgs {
   ridge?: string;
   testSize?: string;
   force: boolean;
+  plan?: string;
 }
 
 function parseList(flag: string, text: string | undefined): number[] | undefined {
@@ -60,12 +61,14 @@ export const command: CommandSpec<SimulateArgs> = {
       .option('workers', { type: 'string', describe: 'worker threads (default: the number of cores)' })
       .option('ridge', { type: 'string', describe: "linear preset: ridge λ >= 0 or 'optimal' (default 0: minimum-norm least squares)" })
       .option('test-size', { type: 'string', describe: 'fresh test points per seed' })
-      .option('force', { type: 'boolean', default: false, describe: 'write into a non-empty --out directory' }),
+      .option('force', { type: 'boolean', default: false, describe: 'write into a non-empty --out directory' })
+      .option('plan', { type: 'string', describe: 'run exactly the runs of a plan CSV (datlas plan --emit csv); resume_from continues a run' }),
   async run(args) {
     const preset = String(args.preset);
     if (!(PRESETS as readonly string[]).includes(preset)) throw usageError(t.badPreset(preset, PRESETS));
     const shape = String(args.shape);
     if (!(SHAPES as readonly string[]).includes(shape)) throw usageError(t.badShape(shape, SHAPES));
+    if (args.plan !== undefined) return simulatePlan(args, shape);
     const seeds = parseCount('--seeds', args.seeds);
     const workers = parseCount('--workers', args.workers) ?? availableParallelism();
     const testSize = parseCount('--test-size', args.testSize);
@@ -151,3 +154,53 @@ export const command: CommandSpec<SimulateArgs> = {
     return 0;
   },
 };
+
+/** simulate --plan FILE: the planned runs only, each as `simulate` would have logged it. */
+async function simulatePlan(args: SimulateArgs & GlobalOptions, shape: string): Promise<number> {
+  const preset = String(args.preset);
+  const { planCsvText } = await import('../messages.js');
+  if (preset === 'linear') throw usageError(planCsvText.linearPreset);
+  const clash = (['seeds', 'widths', 'trainSizes', 'labelNoise', 'epochs', 'ridge'] as const).filter((k) => args[k] !== undefined);
+  if (clash.length) throw usageError(planCsvText.planFlagsClash(clash.map((k) => `--${k.replace(/[A-Z]/g, (c) => `-${c.toLowerCase()}`)}`).join(', ')));
+  const workers = parseCount('--workers', args.workers) ?? availableParallelism();
+  const testSize = parseCount('--test-size', args.testSize);
+  const file = String(args.plan);
+  const { existsSync, readFileSync } = await import('node:fs');
+  const { UserError } = await import('../UserError.js');
+  if (file !== '-' && !existsSync(file)) throw new UserError(planCsvText.noFile(file));
+  const text = readFileSync(file === '-' ? 0 : file, 'utf8');
+  const { parsePlanCsv } = await import('../plan/parsePlanCsv.js');
+  const runs = parsePlanCsv(text, file);
+  if (runs.length === 0) throw new UserError(planCsvText.noRuns(file));
+  const out = args.out ?? 'sweep-plan';
+  if (!args.force) {
+    const entries = await readdir(out).catch(() => [] as string[]);
+    if (entries.length > 0) throw usageError(t.outNotEmpty(out));
+  }
+  const { presets } = await import('../simulate/presets.js');
+  const { planJobs, planRows } = await import('../simulate/planSweep.js');
+  const { featuresJobsParallel } = await import('../simulate/parallelSweep.js');
+  const { writeSweepLogs } = await import('../simulate/writeSweepLogs.js');
+  const started = performance.now();
+  const base = presets[preset as 'quick' | 'demo' | 'epochs']();
+  const jobs = planJobs({ runs, preset: { ...base, ...(testSize !== undefined && { testSize }) } });
+  const total = jobs.reduce((s, j) => s + j.options.widths.length, 0);
+  const bar = await progressBar({ label: 'simulate', total, quiet: args.quiet || args.json, minTotal: 2 });
+  const tables = await featuresJobsParallel({ jobs, workers, onRun: () => bar.tick() });
+  bar.done();
+  const table = planRows({ runs, jobs, tables });
+  const files = await writeSweepLogs({ table, dir: out, shape: shape as 'csv' | 'jsonl' | 'dirs' });
+  const seconds = (performance.now() - started) / 1000;
+  const resumed = runs.filter((r) => r.resume_from !== null).length;
+  const withCondition = runs.filter((r) => r.condition !== '').length;
+  if (args.json) {
+    process.stdout.write(JSON.stringify({ preset, plan: file, out, shape, runs: runs.length, resumed, rows: table.length, files: files.length, workers, seconds: Number(seconds.toFixed(3)) }) + '\n');
+  } else {
+    process.stdout.write(planCsvText.wrotePlan(runs.length, resumed, table.length, files.length, out, seconds, shape) + '\n');
+    if (!args.quiet) {
+      if (withCondition) process.stderr.write(`note: ${planCsvText.conditionIgnored(withCondition)}\n`);
+      process.stderr.write(t.nextStep(out) + '\n');
+    }
+  }
+  return 0;
+}
