@@ -303,10 +303,26 @@ export const planText = {
   },
   whyRefine: (where: string, x: string, low: string, high: string, a: string, b: string) =>
     `ridge at width ${x} (${where}), interval ${low}–${high}, lies between measured widths ${a} and ${b}: bisects that bracket`,
+  whyRefineSize: (where: string, x: string, low: string, high: string, a: string, b: string) =>
+    `sample-wise peak at n ${x} (${where}), interval ${low}–${high}: bisects the step between measured train sizes ${a} and ${b}`,
+  whyTopUp: (where: string, x: string, n: number, spec: number) =>
+    `peak at ${x} (${where}) rests on a cell with ${n} of the spec's ${spec} seeds: tops it up`,
+  whyIntervalSeeds: (where: string, x: string, low: string, high: string, resolution: number) =>
+    `peak at ${x} (${where}) has interval ${low}–${high}, wider than ±${resolution} octave: one more seed where it rests`,
+  whyHurtsStep: (where: string, what: string, a: string, b: string) =>
+    `more data hurts (${where}): its ${what} lies between train sizes ${a} and ${b}: bisects that step`,
+  whyEpochResume: (where: string, z: number, epochs: string, target: string) =>
+    `test error still rising at epoch ${epochs} (${where}; ${z.toFixed(1)} SE over the last decade): an epoch-wise peak may not have appeared yet; resumes to ${target}`,
+  stopLocated: (located: number, slices: number, resolution: number, noPeak: number) =>
+    `stop: every ridge point is located within ${resolution} octave (${located} of ${slices} slice${slices === 1 ? '' : 's'}${noPeak ? `; ${noPeak} with no peak to locate` : ''}); nothing more proposed (a smaller --resolution asks for more)`,
+  refineStatus: (located: number, refining: number, noPeak: number, resolution: number) =>
+    `ridge slices at ${resolution} octave: ${located} located, ${refining} still refining${noPeak ? `, ${noPeak} with no peak` : ''}`,
+  badMaxRuns: (text: string) => `--max-runs expects a whole number >= 1, got '${text}'`,
+  planCapped: (n: number, max: number) => `${n} more run${n === 1 ? '' : 's'} left out by --max-runs ${max}`,
   whyThreshold: (where: string, threshold: string, a: string, b: string) =>
     `no peak resolved (${where}); the interpolation threshold (width ${threshold}) lies between measured widths ${a} and ${b}: bisects that step`,
-  whyPeakSeeds: (where: string, x: string, se: number, min: number) =>
-    `peak at width ${x} (${where}) is borderline: prominence ${se.toFixed(1)} SE, minimum ${min}`,
+  whyPeakSeeds: (where: string, x: string, se: number, min: number, p: number | null = null, alpha = 0.05) =>
+    `peak at ${x} (${where}) is borderline: prominence ${se.toFixed(1)} SE, minimum ${min}${p === null ? '' : `; search-wide p = ${p.toPrecision(2)}, alpha ${alpha}`}`,
   whyHurtsSeeds: (where: string, onset: string, peak: string, p: number, alpha: number) =>
     `more data hurts from n ${onset} to ${peak} (${where}) is borderline: p = ${p.toPrecision(2)}, alpha ${alpha}`,
   noteNoRidge: () => 'no ridge point along width resolved at the target epoch in any slice',

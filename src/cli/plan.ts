@@ -16,6 +16,7 @@ interface PlanArgs {
   spec?: string;
   store?: string;
   budget?: string;
+  maxRuns?: number;
   emit?: Emit;
   command?: string;
   out?: string;
@@ -69,7 +70,7 @@ function costText(v: number, model: CostModel): string {
 
 function runTable(plan: PlanResult, spec: SweepSpec, limit: number): string[] {
   const many = spec.conditions.length > 1;
-  const head = ['#', 'reason', ...(many ? ['condition'] : []), 'width', 'train_size', 'noise', 'seed', 'epochs', 'cost', 'why'];
+  const head = ['#', 'reason', ...(many ? ['condition'] : []), 'width', 'train_size', 'noise', 'seed', 'epochs', 'cost', 'sharpens', 'why'];
   const rows = plan.runs.slice(0, limit > 0 ? limit : undefined).map((r, i) => [
     String(i),
     r.reason === 'resume' ? `resume@${num(r.resume_from!)}` : r.reason,
@@ -80,6 +81,7 @@ function runTable(plan: PlanResult, spec: SweepSpec, limit: number): string[] {
     String(r.seed),
     num(r.epochs),
     costText(r.cost, plan.model),
+    r.sharpens ?? '',
     r.why,
   ]);
   const widths = head.map((h, j) => Math.max(h.length, ...rows.map((r) => (j === head.length - 1 ? 0 : r[j].length))));
@@ -101,6 +103,7 @@ export const command: CommandSpec<PlanArgs> = {
       .option('spec', { type: 'string', describe: 'sweep spec (YAML or JSON)' })
       .option('store', { type: 'string', describe: `store directory (default ./${DEFAULT_STORE}; absent default = nothing run yet)` })
       .option('budget', { type: 'string', describe: 'cost cap: a number in cost units, or a time (90m, 48h, 2d) when wall time is logged' })
+      .option('max-runs', { type: 'number', describe: 'cap on the number of runs (alone: refinement ranks by value per run; with --budget both caps hold)' })
       .option('emit', { choices: EMITS, describe: 'export: csv, json, shell (one command per run) or slurm (job array)' })
       .option('command', { type: 'string', describe: 'command template: {width} {train_size} {label_noise} {seed} {epochs} {run} {condition} {resume_from} {index}' })
       .option('out', { type: 'string', describe: 'file for --emit (slurm: default plan.sbatch, with the plan CSV beside it)' })
@@ -108,7 +111,7 @@ export const command: CommandSpec<PlanArgs> = {
       .option('force', { type: 'boolean', default: false, describe: 'let --init overwrite an existing file' })
       .option('refine', { type: 'boolean', default: true, describe: 'propose new widths and seeds from the ridge and hurts analyses (--no-refine: gaps only)' })
       .option('skip-diverged', { type: 'boolean', default: false, describe: 'do not re-launch diverged runs' })
-      .option('resolution', { type: 'number', default: 0.5, describe: 'refine a ridge point until the measured widths around its interval are at most this many octaves apart' })
+      .option('resolution', { type: 'number', default: 0.25, describe: 'octaves: refine a ridge point until the measured values beside its peak, and its interval, are within this; then stop' })
       .option('max-parallel', { type: 'number', default: 32, describe: 'slurm: tasks running at once (#SBATCH --array=0-N%P)' })
       .option('sbatch', { type: 'string', array: true, describe: 'slurm: extra #SBATCH options without the leading dashes, e.g. --sbatch time=04:00:00 --sbatch gres=gpu:1' })
       .option('limit', { type: 'number', default: 40, describe: 'runs to print (0 = all)' }),
@@ -128,6 +131,7 @@ export const command: CommandSpec<PlanArgs> = {
     if ((args.emit === 'shell' || args.emit === 'slurm') && !args.command) throw usageError(planText.needCommand(args.emit));
     if (args.emit && args.emit !== 'slurm' && !args.out && args.json) throw usageError(planText.stdoutClash());
     if (!(args.resolution > 0)) throw usageError(planText.badResolution(String(args.resolution)));
+    if (args.maxRuns !== undefined && !(Number.isInteger(args.maxRuns) && args.maxRuns >= 1)) throw usageError(planText.badMaxRuns(String(args.maxRuns)));
     if (!(Number.isInteger(args.maxParallel) && args.maxParallel >= 1)) throw usageError(planText.badParallel(String(args.maxParallel)));
     const { parseTemplate } = await import('../plan/commandTemplate.js');
     const template = args.command ? parseTemplate(args.command) : null;
@@ -153,6 +157,9 @@ export const command: CommandSpec<PlanArgs> = {
       const ref = proposeRefinements({ table, spec, resolution: args.resolution });
       candidates = ref.candidates;
       if (ref.peaks.length) notes.push(planText.refinePeaks(ref.peaks.length, ref.peaks.filter((p) => p.significant).length));
+      const count = (st: string) => ref.slices.filter((x) => x.status === st).length;
+      if (ref.done) notes.push(planText.stopLocated(count('located'), ref.slices.length, args.resolution, count('no-peak')));
+      else if (ref.slices.length) notes.push(planText.refineStatus(count('located'), count('refining'), count('no-peak'), args.resolution));
       notes.push(...ref.notes);
     }
     const plan = planRuns({
@@ -161,6 +168,7 @@ export const command: CommandSpec<PlanArgs> = {
       model,
       candidates,
       budget,
+      maxRuns: args.maxRuns ?? null,
       resume: template ? template.resumes : true,
       rerunDiverged: !args.skipDiverged,
     });
@@ -202,7 +210,8 @@ export const command: CommandSpec<PlanArgs> = {
       lines.push(planText.planHead(plan.runs.length, costText(plan.cost, model), model.units === 'relative' ? 'relative units' : ''));
       lines.push(...runTable(plan, spec, args.limit));
     }
-    if (plan.dropped.runs) lines.push(planText.planDropped(plan.dropped.runs, costText(plan.dropped.cost, model), String(args.budget)));
+    if (plan.dropped.runs)
+      lines.push(args.budget === undefined ? planText.planCapped(plan.dropped.runs, args.maxRuns!) : planText.planDropped(plan.dropped.runs, costText(plan.dropped.cost, model), `${args.budget}${args.maxRuns ? ` or --max-runs ${args.maxRuns}` : ''}`));
     lines.push(describeModel(model, spec));
     for (const n of plan.notes) lines.push(`note: ${n}`);
     process.stdout.write(`${lines.join('\n')}\n`);

@@ -26,15 +26,19 @@ export interface PlannedRun {
   score: number;
   /** One line on why: the gap, or the ridge point / hurts segment it sharpens. */
   why: string;
+  /** The quantity a refinement run is expected to sharpen (refine.ts SHARPENS); absent for gaps. */
+  sharpens?: string;
 }
 
 export interface PlanResult {
   budget: number | null;
+  /** Cap on the number of runs kept; null: no cap. */
+  maxRuns?: number | null;
   /** Total cost of the runs kept. */
   cost: number;
   model: CostModel;
   runs: PlannedRun[];
-  /** Candidates left out by the budget. */
+  /** Candidates left out by the budget or the run cap. */
   dropped: { runs: number; cost: number };
   /** Things the user should know (diverged runs re-launched, no ridge found, ...). */
   notes: string[];

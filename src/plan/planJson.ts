@@ -6,6 +6,7 @@ export function planJson(plan: PlanResult): Record<string, unknown> {
   const { model } = plan;
   return {
     budget: plan.budget,
+    max_runs: plan.maxRuns ?? null,
     cost: roundCost(plan.cost),
     units: model.units,
     model: { a: model.a, c: model.c, exponentFitted: model.exponentFitted, runs: model.runs, aSe: model.aSe, spread: model.spread },
@@ -24,6 +25,7 @@ export function planJson(plan: PlanResult): Record<string, unknown> {
       run: r.run,
       status: r.status,
       why: r.why,
+      ...(r.sharpens ? { sharpens: r.sharpens } : {}),
     })),
   };
 }

@@ -15,6 +15,11 @@ export interface PlanOptions {
   candidates?: Candidate[];
   /** Cost cap in the model's units; null or undefined: no cap. */
   budget?: number | null;
+  /**
+   * Cap on the number of runs; null or undefined: no cap. With a run cap and no budget, launch
+   * slots are what is scarce, so refinement ranks by value per run instead of value per cost.
+   */
+  maxRuns?: number | null;
   /** Whether partial runs can resume from their last epoch (the command template has {resume_from}); default true. */
   resume?: boolean;
   /** Re-launch diverged runs (default true; they count as missing results). */
@@ -28,7 +33,8 @@ export interface PlanOptions {
  * when it still fits the budget, else dropped, so cheaper later items can use what is left.
  */
 export function planRuns(opts: PlanOptions): PlanResult {
-  const { spec, coverage, model, candidates = [], budget = null, resume = true, rerunDiverged = true } = opts;
+  const { spec, coverage, model, candidates = [], budget = null, maxRuns = null, resume = true, rerunDiverged = true } = opts;
+  const perRun = maxRuns !== null && budget === null;
   const notes: string[] = [];
   const gaps: PlannedRun[] = [];
   for (const r of coverage.runs) {
@@ -57,19 +63,23 @@ export function planRuns(opts: PlanOptions): PlanResult {
 
   const groups = candidates.map((c) => {
     const runs: PlannedRun[] = c.runs.map((r) => {
-      const cost = runCost(model, { width: r.width, train_size: r.train_size, epochs: spec.epochs });
-      return { ...r, epochs: spec.epochs, reason: c.reason, cost, resume_from: null, run: runId(r), status: 'new', score: 0, why: c.why };
+      const epochs = r.epochs ?? spec.epochs;
+      const from = r.resume_from ?? null;
+      const cost = runCost(model, { width: r.width, train_size: r.train_size, epochs: epochs - (from ?? 0) });
+      const cfg = { condition: r.condition, label_noise: r.label_noise, width: r.width, train_size: r.train_size, seed: r.seed };
+      return { ...cfg, epochs, reason: c.reason, cost, resume_from: from, run: r.run ?? runId(cfg), status: 'new' as const, score: 0, why: c.why, sharpens: [c.sharpens, ...(c.also ?? [])].join(' ') };
     });
     const cost = runs.reduce((s, r) => s + r.cost, 0);
-    for (const r of runs) r.score = c.value / cost;
-    return { runs, cost, score: c.value / cost };
+    const score = perRun ? c.value / runs.length : c.value / cost;
+    for (const r of runs) r.score = score;
+    return { runs, cost, score };
   });
   groups.sort((a, b) => b.score - a.score);
 
   const kept: PlannedRun[] = [];
   let total = 0;
   const dropped = { runs: 0, cost: 0 };
-  const fits = (cost: number) => budget === null || total + cost <= budget * (1 + 1e-12);
+  const fits = (cost: number, runs = 1) => (budget === null || total + cost <= budget * (1 + 1e-12)) && (maxRuns === null || kept.length + runs <= maxRuns);
   for (const g of gaps) {
     if (fits(g.cost)) {
       kept.push(g);
@@ -80,7 +90,7 @@ export function planRuns(opts: PlanOptions): PlanResult {
     }
   }
   for (const g of groups) {
-    if (fits(g.cost)) {
+    if (fits(g.cost, g.runs.length)) {
       kept.push(...g.runs);
       total += g.cost;
     } else {
@@ -88,5 +98,5 @@ export function planRuns(opts: PlanOptions): PlanResult {
       dropped.cost += g.cost;
     }
   }
-  return { budget, cost: total, model, runs: kept, dropped, notes };
+  return { budget, maxRuns, cost: total, model, runs: kept, dropped, notes };
 }

@@ -7,6 +7,7 @@ import { spec, storeFor } from './fixtures.js';
 
 const group = (width: number, value: number, seeds = [0, 1, 2]): Candidate => ({
   reason: 'refine',
+  sharpens: 'model-peak',
   value,
   why: `w${width}`,
   runs: seeds.map((seed) => ({ condition: 'adam', label_noise: 0.2, train_size: 1000, width, seed })),
@@ -31,5 +32,19 @@ describe('planRuns ranking', () => {
     const plan = planRuns({ spec, coverage: cov, model, candidates: [group(16, 100), group(12, 1)], budget: 10 });
     expect(plan.runs.map((r) => r.width)).toEqual([12, 12, 12]);
     expect(plan.dropped).toEqual({ runs: 3, cost: 12 });
+  });
+
+  it('--max-runs caps the number of runs; alone it ranks by value per run, with a budget by value per cost', () => {
+    const cands = [group(64, 2, [0]), group(12, 1, [0]), group(24, 0.5, [0, 1])];
+    // Per run: w64 → 2, w12 → 1, w24 → 0.25; two slots.
+    const capped = planRuns({ spec, coverage: cov, model, candidates: cands, maxRuns: 2 });
+    expect(capped.runs.map((r) => r.width)).toEqual([64, 12]);
+    expect(capped.maxRuns).toBe(2);
+    expect(capped.dropped.runs).toBe(2);
+    // A group never splits: with three slots the two-run w24 group does not fit after w64 and w12.
+    expect(planRuns({ spec, coverage: cov, model, candidates: cands, maxRuns: 3 }).runs.map((r) => r.width)).toEqual([64, 12]);
+    // With a budget as well, value per cost decides (w12: 1 / 2.25 beats w64: 2 / 64), both caps hold.
+    const both = planRuns({ spec, coverage: cov, model, candidates: cands, maxRuns: 1, budget: 1000 });
+    expect(both.runs.map((r) => r.width)).toEqual([12]);
   });
 });
