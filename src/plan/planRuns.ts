@@ -29,8 +29,9 @@ export interface PlanOptions {
 /**
  * The next runs (DESIGN.md §5): first the gaps of the coverage (missing runs, partial runs
  * resumed or restarted, diverged runs re-launched), cheapest first; then refinement and
- * extra-seed groups by value per cost. Walking that order, a run (or a whole group) is kept
- * when it still fits the budget, else dropped, so cheaper later items can use what is left.
+ * extra-seed groups by value per cost (by value per run under a run cap alone). Walking that
+ * order, a run (or a whole group) is kept when it still fits the budget and the run cap, else
+ * dropped, so cheaper later items can use what is left; of a group of extra seeds, as many as fit.
  */
 export function planRuns(opts: PlanOptions): PlanResult {
   const { spec, coverage, model, candidates = [], budget = null, maxRuns = null, resume = true, rerunDiverged = true } = opts;
@@ -72,7 +73,7 @@ export function planRuns(opts: PlanOptions): PlanResult {
     const cost = runs.reduce((s, r) => s + r.cost, 0);
     const score = perRun ? c.value / runs.length : c.value / cost;
     for (const r of runs) r.score = score;
-    return { runs, cost, score };
+    return { runs, cost, score, divisible: c.reason === 'seeds' };
   });
   groups.sort((a, b) => b.score - a.score);
 
@@ -93,9 +94,21 @@ export function planRuns(opts: PlanOptions): PlanResult {
     if (fits(g.cost, g.runs.length)) {
       kept.push(...g.runs);
       total += g.cost;
-    } else {
-      dropped.runs += g.runs.length;
-      dropped.cost += g.cost;
+      continue;
+    }
+    // Extra seeds add up one by one: as many of a seeds group as still fit (a new width or a
+    // resumed cell stays whole).
+    let taken = 0;
+    if (g.divisible)
+      for (const r of g.runs) {
+        if (!fits(r.cost, 1)) break;
+        kept.push(r);
+        total += r.cost;
+        taken++;
+      }
+    for (const r of g.runs.slice(taken)) {
+      dropped.runs++;
+      dropped.cost += r.cost;
     }
   }
   return { budget, maxRuns, cost: total, model, runs: kept, dropped, notes };

@@ -103,9 +103,9 @@ const SLACK = 1.1;
 /**
  * Weight of proposals on the secondary axes (sample-wise peak, hurts onset and recovery,
  * epoch-wise resumes) relative to the model-wise ridge, the map's main line: an octave of
- * train size is worth a quarter octave of width (our own heuristic scale).
+ * train size is worth a fifth of an octave of width (our own heuristic scale).
  */
-const SECONDARY = 0.25;
+const SECONDARY = 0.2;
 
 /** One-sided normal quantile through Student t with very many degrees of freedom. */
 const zOf = (p: number) => tQuantile(1 - p, 1e7);
@@ -306,26 +306,32 @@ export function proposeRefinements(opts: RefineOptions): RefineResult {
     for (const p of found) {
       const significant = p !== weak;
       if (model) peaks.push({ fixed, peak: p, significant });
-      const scale = p === weak ? weight / 2 : weight;
+      // A bump under 2/3 of the bar may be noise: half value for the widths around it.
+      const scale = p === weak && p.prominenceSe < minProminence / 1.5 ? weight / 2 : weight;
       const k = values.findIndex((v) => sameValue(v, p.cellX));
       const near = values.slice(Math.max(0, k - 1), k + 2);
       const nNow = Math.min(...near.map((v) => at(v).stats.n));
-      // Borderline peak (prominence within a factor 1.5 of the bar, or a search-wide p within a
-      // factor 10 of alpha, either side): extra seeds where the test statistic is made, the
-      // peak cell and its key base (the higher flanking minimum).
-      const zValue = 1 - Math.abs(Math.log(Math.max(p.prominenceSe, 1e-6) / minProminence)) / Math.log(1.5);
-      // The p the reader is shown: adjusted across the map's rows where the analysis corrects for them.
+      // Borderline peak: short of the bar (prominence under the minimum, or the search-wide p,
+      // as the reader is shown it, at or above alpha) with a bump of at least 1 SE, value 1; or
+      // passing but close (prominence under 1.5 × the minimum, p above alpha/10), value falling
+      // to 0 at those edges. Extra seeds go where the test statistic is made: the peak cell and
+      // its key base (the higher flanking minimum).
+      const z = Math.max(p.prominenceSe, 1e-6);
       const pShown = (p as Peak & { pAdjusted?: number }).pAdjusted ?? p.p;
-      const pValue = pShown === undefined ? 0 : 1 - Math.abs(Math.log(Math.max(pShown, 1e-9) / alpha)) / Math.log(10);
+      const failing = z < minProminence || (pShown !== undefined && pShown >= alpha);
+      const zValue = z < minProminence ? 1 : Math.max(0, 1 - Math.log(z / minProminence) / Math.log(1.5));
+      const pValue = pShown === undefined ? 0 : pShown >= alpha ? 1 : Math.max(0, 1 - Math.log(alpha / Math.max(pShown, 1e-9)) / Math.log(10));
       // While the grid beside the peak cell is coarser than twice the resolution, the cell's mean
       // is not the peak's height (a sharp peak between cells): a new width there raises the
       // prominence as well as placing it, so seeds wait (a quarter of their value).
       const coarse = peakOctaves(values, { ...p, low: p.cellX, high: p.cellX }) > 2 * limit;
-      const borderValue = scale * Math.max(zValue, pValue) * (coarse ? 0.25 : 1);
+      // A failing bump under 2/3 of the bar is more likely noise: a quarter of the value.
+      const borderValue = scale * (failing ? (z >= minProminence / 1.5 ? 1 : 0.25) : Math.max(zValue, pValue)) * (coarse ? 0.25 : 1);
       if (borderValue > 0) {
         const target = minProminence * 1.5;
-        // SE shrinks as 1/√n: the seeds that bring z to the safe side if the peak is real (at least 1, at most doubling).
-        const ratio = p.prominenceSe < target ? (target / Math.max(p.prominenceSe, 1e-6)) ** 2 - 1 : 0.5;
+        // SE shrinks as 1/√n: the seeds that bring z to the safe side if the peak is real (at
+        // least 1, at most doubling); a search-wide p short of alpha/4 asks for the doubling.
+        const ratio = pShown !== undefined && pShown >= alpha / 4 ? 1 : p.prominenceSe < target ? (target / Math.max(p.prominenceSe, 1e-6)) ** 2 - 1 : 0.5;
         const nPeak = at(p.cellX).stats.n;
         const kSeeds = Math.max(1, Math.min(nPeak, Math.ceil(nPeak * ratio)));
         const base = slice.reduce((b, c) => (Math.abs(c.stats.mean - (p.error - p.prominence)) < Math.abs(b.stats.mean - (p.error - p.prominence)) ? c : b), slice[0]);
@@ -344,9 +350,13 @@ export function proposeRefinements(opts: RefineOptions): RefineResult {
         const m = midpoint(a, b, integer);
         const adjacent = sameValue(b, p.cellX) ? -1 : sameValue(a, p.cellX) ? 1 : 0;
         const sideWeight = adjacent !== 0 && (side === 0 || side === adjacent) ? 1 : 0.5;
-        if (m !== null)
-          propose(cfgAt(m), (scale * sideWeight * Math.log2(b / a)) / 2, model ? 'model-peak' : 'sample-peak',
-            (model ? msg.whyRefine : msg.whyRefineSize)(where, fmt(p.x), fmt(p.low), fmt(p.high), fmt(a), fmt(b)));
+        if (m === null) continue;
+        propose(cfgAt(m), (scale * sideWeight * Math.log2(b / a)) / 2, model ? 'model-peak' : 'sample-peak',
+          (model ? msg.whyRefine : msg.whyRefineSize)(where, fmt(p.x), fmt(p.low), fmt(p.high), fmt(a), fmt(b)));
+        // On the vertex side of a borderline peak the new cell sits nearer the top of a sharp
+        // peak than the cell now holding it, raising the measured prominence: it sharpens the
+        // significance as much as the extra seeds do.
+        if (model && borderValue > 0 && adjacent !== 0 && side === adjacent) propose(cfgAt(m), borderValue, 'model-significance', '');
       }
       // Cells the peak rests on with fewer seeds than the spec (new widths start with
       // `newSeeds`): topped up, value the octaves still unresolved times the SE shrink.
