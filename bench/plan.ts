@@ -49,7 +49,7 @@ const scenarios: Scenario[] = [
 ];
 
 const fmtE = (e: number) => (Number.isFinite(e) ? e.toFixed(2) : 'miss');
-const fmtC = (c: number) => `${(c / 1e9).toFixed(1)}e9`;
+const fmtC = (c: number) => (Number.isFinite(c) ? `${(c / 1e12).toFixed(2)}e12` : '–');
 const median = (v: number[]) => {
   const s = v.filter(Number.isFinite).sort((a, b) => a - b);
   return s.length ? (s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2) : NaN;
@@ -81,7 +81,7 @@ function runLoop(): Outcome[] {
   const outcomes: Outcome[] = [];
   for (const s of scenarios) {
     process.stdout.write(`\n${s.name}\n`);
-    process.stdout.write('restart  reference  planned: runs@round error                     located-at     even: err  located   random: err  located   dense\n');
+    process.stdout.write(`${'restart'.padEnd(9)}${'reference'.padEnd(16)}${'planned: runs:error per round'.padEnd(52)}${'located at'.padEnd(12)}${'even: err'.padEnd(11)}${'located'.padEnd(10)}${'random: err'.padEnd(13)}${'located'.padEnd(10)}dense\n`);
     for (let r = 0; r < restarts; r++) {
       const o = 10 * r;
       const seeds = [o, o + 1];
@@ -110,8 +110,8 @@ function runLoop(): Outcome[] {
       const refText = referenceMissing.length ? `none at n ${referenceMissing.join(',')}` : 'all';
       const trail = rounds.map((x) => `${x.runs}:${fmtE(x.error)}`).join(' ');
       process.stdout.write(
-        `${String(r).padEnd(9)}${refText.padEnd(11)}${trail.padEnd(44)}${String(out.planned.locateRuns ?? 'not').padEnd(15)}` +
-          `${fmtE(out.errorAtEqual.even).padEnd(11)}${String(out.even.locateRuns ?? 'not').padEnd(12)}${fmtE(out.errorAtEqual.random).padEnd(13)}${String(out.random.locateRuns ?? 'not').padEnd(12)}${out.dense.runs}\n`,
+        `${String(r).padEnd(9)}${refText.padEnd(16)}${trail.padEnd(52)}${String(out.planned.locateRuns ?? 'not').padEnd(12)}` +
+          `${fmtE(out.errorAtEqual.even).padEnd(11)}${String(out.even.locateRuns ?? 'not').padEnd(10)}${fmtE(out.errorAtEqual.random).padEnd(13)}${String(out.random.locateRuns ?? 'not').padEnd(10)}${out.dense.runs}\n`,
       );
     }
   }
@@ -119,19 +119,20 @@ function runLoop(): Outcome[] {
   process.stdout.write(`\nsummary (medians over restarts; runs / compute to place every ridge point within ${TOL} octave of the dense grid's; error at the planner's 2-round count)\n`);
   for (const s of scenarios) {
     const os = outcomes.filter((x) => x.scenario === s.name);
-    const ok = os.filter((x) => x.referenceMissing.length === 0);
+    // Judged at the train sizes where the dense grid itself finds a peak (none: nothing to judge).
+    const ok = os.filter((x) => x.referenceMissing.length < s.trainSizes.length);
     const line = (what: string, runs: (number | null)[], comp: (number | null)[]) => {
       const hits = runs.filter((v) => v !== null).length;
       return `  ${what.padEnd(9)} located ${hits}/${runs.length}, runs ${median(runs.map((v) => v ?? NaN))}, compute ${fmtC(median(comp.map((v) => v ?? NaN)))}`;
     };
-    process.stdout.write(`${s.name}: ${ok.length} of ${os.length} restarts where the dense grid finds a peak at every train size\n`);
+    process.stdout.write(`${s.name}: the dense grid finds a peak at ${os.map((x) => s.trainSizes.length - x.referenceMissing.length).join(', ')} of ${s.trainSizes.length} train sizes in the ${os.length} restarts\n`);
     if (!ok.length) continue;
     process.stdout.write(`  dense     runs ${ok[0].dense.runs}, compute ${fmtC(median(ok.map((x) => x.dense.compute)))}\n`);
     process.stdout.write(`${line('planned', ok.map((x) => x.planned.locateRuns), ok.map((x) => x.planned.locateCompute))}\n`);
     process.stdout.write(`${line('even', ok.map((x) => x.even.locateRuns), ok.map((x) => x.even.locateCompute))}\n`);
     process.stdout.write(`${line('random', ok.map((x) => x.random.locateRuns), ok.map((x) => x.random.locateCompute))}\n`);
     process.stdout.write(
-      `  at ${median(ok.map((x) => x.equalRuns))} runs: worst error planned ${ok.map((x) => fmtE(x.errorAtEqual.planned)).join(' ')} · even ${ok.map((x) => fmtE(x.errorAtEqual.even)).join(' ')} · random ${ok.map((x) => fmtE(x.errorAtEqual.random)).join(' ')} octave\n`,
+      `  at ${median(ok.map((x) => x.equalRuns))} runs (planned: 2 rounds): worst error planned ${ok.map((x) => fmtE(x.errorAtEqual.planned)).join(' ')} · even ${ok.map((x) => fmtE(x.errorAtEqual.even)).join(' ')} · random ${ok.map((x) => fmtE(x.errorAtEqual.random)).join(' ')} octave\n`,
     );
   }
   return outcomes;

@@ -92,3 +92,45 @@ describe('datlas simulate', () => {
     }
   });
 });
+
+describe('datlas simulate --plan', () => {
+  it('runs exactly the planned runs (a resume continues its curve), as simulate logs them, across workers', () => {
+    const plan = join(root, 'next.csv');
+    // As plan --emit csv writes it: CRLF, the spreadsheet guard on a leading '-'.
+    writeFileSync(plan, [
+      'index,run,condition,width,train_size,label_noise,seed,epochs,resume_from,reason,cost,why,sharpens',
+      "0,mine,,30,40,0.1,0,1000,,refine,1,\"bisects 20–40, then\",model-peak",
+      '1,rf-s1-n40-w40-q0.1,,40,40,0.1,1,1000,100,resume,1,resumes,epoch-peak',
+      "2,'-odd,,20,40,0.2,1,1000,,seeds,1,x,model-significance",
+    ].join('\r\n') + '\r\n');
+    const out = join(root, 'planned');
+    const r = runCli(['simulate', '--plan', plan, '--preset', 'quick', '--test-size', '300', '--shape', 'jsonl', '--out', out, '--workers', '2', '--json']);
+    expect(r.code, r.stderr).toBe(0);
+    expect(JSON.parse(r.stdout)).toMatchObject({ runs: 3, resumed: 1, shape: 'jsonl' });
+    expect(readdirSync(join(out, 'runs')).sort()).toEqual(['-odd.jsonl', 'mine.jsonl', 'rf-s1-n40-w40-q0.1.jsonl']);
+    const lines = (f: string) => readFileSync(join(out, 'runs', f), 'utf8').trim().split('\n').map((l) => JSON.parse(l));
+    // The resumed run logs the epochs after 100 only; its values are those of the whole run.
+    const resumed = lines('rf-s1-n40-w40-q0.1.jsonl');
+    expect(resumed.map((x) => x.epochs)).toEqual([147, 215, 316, 464, 681, 1000]);
+    const whole = runCli(['simulate', '--preset', 'quick', '--seeds', '2', '--widths', '40', '--train-sizes', '40', '--label-noise', '0.1', '--epochs', '1000', '--test-size', '300', '--shape', 'jsonl', '--out', join(root, 'whole'), '--json']);
+    expect(whole.code, whole.stderr).toBe(0);
+    const full = readFileSync(join(root, 'whole', 'runs', 'rf-s1-n40-w40-q0.1.jsonl'), 'utf8').trim().split('\n').map((l) => JSON.parse(l));
+    expect(resumed.map((x) => x.test_error)).toEqual(full.filter((x) => x.epochs > 100).map((x) => x.test_error));
+    expect(lines('mine.jsonl')[0]).toMatchObject({ run: 'mine', seed: 0, width: 30, train_size: 40, label_noise: 0.1, epochs: 1 });
+  });
+
+  it('refuses flags that would change the planned runs, the linear preset, and bad plan files with file, line and column', () => {
+    const plan = join(root, 'bad.csv');
+    writeFileSync(plan, 'width,train_size,seed,epochs\n8,40,0,10\n8,x,1,10\n');
+    const bad = runCli(['simulate', '--plan', plan, '--out', join(root, 'bad')]);
+    expect(bad.code).toBe(1);
+    expect(bad.stderr.trim()).toBe(`datlas: ${plan} line 3, column train_size: 'x' is not a whole number >= 2`);
+    const clash = runCli(['simulate', '--plan', plan, '--widths', '8', '--out', join(root, 'bad')]);
+    expect(clash.code).toBe(2);
+    expect(clash.stderr).toContain('drop --widths');
+    expect(runCli(['simulate', '--plan', plan, '--preset', 'linear']).code).toBe(2);
+    const missing = runCli(['simulate', '--plan', join(root, 'nope.csv')]);
+    expect(missing.code).toBe(1);
+    expect(missing.stderr).toContain('no plan file at');
+  });
+});
