@@ -41,6 +41,24 @@ export interface RawTable {
   skipped?: number;
   /** What the reader wants the user to know about this source (blocks skipped, key levels named). */
   notes?: string[];
+  /** Per row: the keys naming its run on its path in a JSON document (`r1`, `w=4 (p=4,146)`), or ''. */
+  runKeys?: string[];
+  /** Columns holding run-level values (inherited from an enclosing record or key): ranked after a row's own. */
+  runLevel?: Set<string>;
+  /**
+   * Columns that are settings of a run: key levels (`key1`, `--keys` names) and the scalars of a
+   * record that holds a curve. They join the condition unless they are axes or outcomes.
+   */
+  settingColumns?: Set<string>;
+  /** How a JSON document was read: key levels, curves expanded, arrays not read, summary blocks. */
+  jsonLayout?: JsonLayout;
+}
+
+export interface JsonLayout {
+  levels: { column: string; path: string; how: 'keys' | 'parent' | 'unnamed' | 'pairs' | 'run'; values: string[]; count: number; distinct?: number }[];
+  curves: { path: string; key: string; records: number; rows: number }[];
+  unread: { path: string; length: number; what: 'values' | 'lists' | 'mixed' }[];
+  summaries: { path: string; rows: number; reason: 'key' | 'names' }[];
 }
 
 export function emptyRaw(format: string): RawTable {

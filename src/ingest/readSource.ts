@@ -5,6 +5,7 @@ import { emptyRaw, flattenRecord } from './RawTable.js';
 import type { RawTable, RawValue } from './RawTable.js';
 import { rawFromDelimited } from './rawFromDelimited.js';
 import { rawFromJson, rawFromJsonLines } from './rawFromJson.js';
+import type { JsonReadOptions } from './rawFromJson.js';
 import { parseJsonLenient } from './parseJsonLenient.js';
 import { rawFromArrow } from './rawFromArrow.js';
 import { decodeHead, decodeText } from './decodeText.js';
@@ -46,7 +47,7 @@ export function sniffFormat(bytes: Uint8Array): SourceFormat {
 }
 
 /** Reads bytes of a known format into a RawTable (pure: no file access). Throws on an unreadable file. */
-export function rawFromBytes(bytes: Uint8Array, format: SourceFormat): RawTable {
+export function rawFromBytes(bytes: Uint8Array, format: SourceFormat, opts: JsonReadOptions = {}): RawTable {
   if (bytes.byteLength === 0) return emptyRaw(format);
   if (format === 'arrow') {
     try {
@@ -56,7 +57,7 @@ export function rawFromBytes(bytes: Uint8Array, format: SourceFormat): RawTable 
     }
   }
   const decoded = decodeText(bytes);
-  const raw = rawFromText(decoded.text, format);
+  const raw = rawFromText(decoded.text, format, opts);
   if (decoded.guessed) raw.encoding = decoded.encoding;
   return raw;
 }
@@ -68,7 +69,7 @@ function csvDelimiter(text: string): ',' | ';' {
   return header.includes(';') && !header.includes(',') ? ';' : ',';
 }
 
-export function rawFromText(text: string, format: Exclude<SourceFormat, 'arrow'>): RawTable {
+export function rawFromText(text: string, format: Exclude<SourceFormat, 'arrow'>, opts: JsonReadOptions = {}): RawTable {
   switch (format) {
     case 'csv':
       return rawFromDelimited(text, csvDelimiter(text));
@@ -77,9 +78,9 @@ export function rawFromText(text: string, format: Exclude<SourceFormat, 'arrow'>
     case 'text':
       return rawFromDelimited(text, 'whitespace');
     case 'jsonl':
-      return rawFromJsonLines(text);
+      return rawFromJsonLines(text, opts);
     case 'json':
-      return rawFromJson(text);
+      return rawFromJson(text, opts);
   }
 }
 

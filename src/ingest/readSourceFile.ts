@@ -18,6 +18,10 @@ export interface PortableOptions {
   set: Record<string, string>;
   seedFrom: { source: string; flags: string } | null;
   scale: Partial<Record<Target, Scale>>;
+  /** Names of a JSON document's value-key levels (`--keys`). */
+  keys?: string[];
+  /** Columns that join the condition (`--condition`). */
+  condition?: string[];
 }
 
 /** One file to read: its path as given, a run directory's config, and what the store has for it. */
@@ -97,14 +101,15 @@ export function readSourceFile(job: FileJob): FileOutcome {
   let format = '';
   try {
     format = formatOfBytes(job.given, bytes);
-    const raw = rawFromBytes(bytes, format as SourceFormat);
-    if (job.config) raw.constants = { ...readConfigFile(job.config), ...raw.constants };
     const o = job.options;
+    const raw = rawFromBytes(bytes, format as SourceFormat, { keys: o.keys });
+    if (job.config) raw.constants = { ...readConfigFile(job.config), ...raw.constants };
     const norm = normalizeRaw(raw, {
       source: job.given,
       map: o.map,
       set: o.set,
       scale: o.scale,
+      condition: o.condition,
       seedFrom: o.seedFrom ? new RegExp(o.seedFrom.source, o.seedFrom.flags) : undefined,
     });
     return { kind: 'parsed', stamp, config, format, norm };

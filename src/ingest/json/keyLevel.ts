@@ -1,0 +1,56 @@
+/**
+ * What an object key says: a value of an axis (`"0.2"`, `"7"`), `name=value` pairs
+ * (`"w=4 (p=4,146, p/n=1.04)"`, `"seed_7"`), or a name (`"r1"`, `"history"`).
+ */
+import { matchTarget } from '../synonyms.js';
+
+export type KeyMeaning =
+  | { kind: 'value'; value: number }
+  | { kind: 'pairs'; pairs: [string, number][] }
+  | { kind: 'name' };
+
+/** A number as a key writes it, thousands separators allowed (`4,146`, `1_000`). */
+export function keyNumber(text: string): number | null {
+  const t = text.trim();
+  if (/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(t)) return Number(t);
+  if (/^[-+]?\d{1,3}([,_]\d{3})+(\.\d+)?$/.test(t)) return Number(t.replace(/[,_]/g, ''));
+  if (/^[-+]?(nan|inf|infinity)$/i.test(t)) return null;
+  return null;
+}
+
+const NUM = String.raw`[-+]?(?:\d{1,3}(?:,\d{3})+|\d+)(?:\.\d+)?(?:[eE][-+]?\d+)?|[-+]?\.\d+(?:[eE][-+]?\d+)?`;
+const PAIR = new RegExp(String.raw`([A-Za-z_][\w/.\-]*)\s*[=:]\s*(${NUM})`, 'g');
+const JOINED = new RegExp(String.raw`^([A-Za-z][A-Za-z_]*?)[_\-]?(${NUM})$`);
+
+/** The meaning of one key. */
+export function keyMeaning(key: string): KeyMeaning {
+  const v = keyNumber(key);
+  if (v !== null) return { kind: 'value', value: v };
+  const pairs: [string, number][] = [];
+  for (const m of key.matchAll(PAIR)) pairs.push([m[1], Number(m[2].replace(/,/g, ''))]);
+  if (pairs.length > 0) return { kind: 'pairs', pairs };
+  // `seed_7`, `width8`, `noise-0.2`: a name of an axis joined to its value.
+  const j = JOINED.exec(key.trim());
+  if (j && matchTarget(j[1]) !== null && /^[a-z_]{2,}$/i.test(j[1])) return { kind: 'pairs', pairs: [[j[1].replace(/_$/, ''), Number(j[2].replace(/,/g, ''))]] };
+  return { kind: 'name' };
+}
+
+/**
+ * The column a level of value keys stands for when its parent's key names an axis
+ * (`per_seed` → seed, `by_noise` → noise, `noise_levels` → noise, `widths` → width), or null.
+ */
+export function levelNameOfParent(parentKey: string | null): string | null {
+  if (parentKey === null) return null;
+  const candidates: string[] = [];
+  let k = parentKey.trim().toLowerCase().replace(/[\s-]+/g, '_');
+  k = k.replace(/^(per|by|for|each|over|results_by|results_per)_?/, '').replace(/_?(levels|level|values|list|sweep|grid|results)$/, '');
+  candidates.push(k);
+  if (k.endsWith('es')) candidates.push(k.slice(0, -2));
+  if (k.endsWith('s')) candidates.push(k.slice(0, -1));
+  for (const c of candidates) {
+    if (c === '') continue;
+    const t = matchTarget(c);
+    if (t && ['seed', 'width', 'epochs', 'train_size', 'label_noise', 'params'].includes(t.target)) return c;
+  }
+  return null;
+}

@@ -1,0 +1,11 @@
+import { readFileSync } from 'node:fs';
+import { rawFromText } from './src/ingest/readSource.js';
+import { normalizeRaw } from './src/ingest/normalizeRaw.js';
+const [file, keys] = process.argv.slice(2);
+const fmt = file.endsWith('.jsonl') ? 'jsonl' : file.endsWith('.csv') ? 'csv' : 'json';
+const raw = rawFromText(readFileSync(file, 'utf8'), fmt as 'json', { keys: keys ? keys.split(',') : undefined });
+const n = normalizeRaw(raw, { source: file });
+const t = n.table;
+for (let i = 0; i < t.length; i++) console.log(t.run[i], '|', t.condition[i], '| w', t.width[i], 'e', t.epochs[i], 'n', t.train_size[i], 'ln', t.label_noise[i], 's', t.seed[i], 'te', t.test_error[i], 'tr', t.train_error[i], JSON.stringify(Object.fromEntries(Object.entries(t.extra).map(([k, v]) => [k, v[i]]))));
+console.log({ read: n.read, accepted: t.length, rejected: n.rejects.length, skipped: n.skipped, pending: n.pending });
+console.log(n.rejects.slice(0, 5), n.notes, JSON.stringify(n.layout));
