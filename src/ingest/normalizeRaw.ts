@@ -154,6 +154,11 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     }
   }
   notes.push(...outcomeNotes);
+  // A column made from object keys says so: `label_noise (keys under 'per_seed.*')`.
+  for (const lv of raw.jsonLayout?.levels ?? []) {
+    if (lv.how === 'run') continue;
+    for (const t of TARGETS) if (colOf[t] !== undefined && raw.names[colOf[t]!] === lv.column && mapping[t] === lv.column) mapping[t] = `${lv.column} (keys under '${lv.path}')`;
+  }
   const passedOver: Record<string, string[]> = {};
   for (const [t, names] of Object.entries(candidates) as [Target, string[]][]) {
     const others = names.filter((n) => n !== mapping[t]);
