@@ -153,16 +153,16 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
       mapping[t] ??= raw.names[j];
     }
   }
+  const passedOver: Record<string, string[]> = {};
+  for (const [t, names] of Object.entries(candidates) as [Target, string[]][]) {
+    const others = names.filter((n) => n !== mapping[t]);
+    if (others.length > 0) passedOver[t] = others;
+  }
   notes.push(...outcomeNotes);
   // A column made from object keys says so: `label_noise (keys under 'per_seed.*')`.
   for (const lv of raw.jsonLayout?.levels ?? []) {
     if (lv.how === 'run') continue;
     for (const t of TARGETS) if (colOf[t] !== undefined && raw.names[colOf[t]!] === lv.column && mapping[t] === lv.column) mapping[t] = `${lv.column} (keys under '${lv.path}')`;
-  }
-  const passedOver: Record<string, string[]> = {};
-  for (const [t, names] of Object.entries(candidates) as [Target, string[]][]) {
-    const others = names.filter((n) => n !== mapping[t]);
-    if (others.length > 0) passedOver[t] = others;
   }
 
   // 2. Constants: canonical ones fill targets without a column, others become the condition.
