@@ -91,6 +91,57 @@ export class RecordColumns {
     raw.length = row + 1;
   }
 
+  // The last inherited-fields object and the last own key order, with their columns: a curve's
+  // points share both, so a million points cost no key lookups.
+  private lastBase: object | null = null;
+  private baseKeys: string[] = [];
+  private baseCols: number[] = [];
+  private readonly ownKeys: string[] = [];
+  private readonly ownCols: number[] = [];
+
+  /** Adds one row made of inherited fields and its own (own win where both have a key): no merged object. */
+  addMerged(base: Record<string, RawValue>, own: Record<string, RawValue>, line: number): void {
+    const raw = this.raw;
+    const row = raw.length;
+    const cols = raw.columns as RawValue[][];
+    if (base !== this.lastBase) {
+      this.lastBase = base;
+      this.baseKeys = Object.keys(base);
+      this.baseCols = this.baseKeys.map((k) => this.col(k, row));
+    }
+    const bk = this.baseKeys;
+    const bc = this.baseCols;
+    for (let i = 0; i < bk.length; i++) cols[bc[i]][row] = base[bk[i]];
+    const ok = this.ownKeys;
+    const oc = this.ownCols;
+    let i = 0;
+    for (const key in own) {
+      let j: number;
+      if (i < ok.length && ok[i] === key) j = oc[i];
+      else {
+        j = this.col(key, row);
+        ok[i] = key;
+        oc[i] = j;
+      }
+      cols[j][row] = own[key];
+      i++;
+    }
+    raw.lines.push(line);
+    raw.length = row + 1;
+  }
+
+  /** The column of a key, made (padded to `row` rows) when new. */
+  private col(key: string, row: number): number {
+    let j = this.index.get(key);
+    if (j === undefined) {
+      j = this.raw.names.length;
+      this.index.set(key, j);
+      this.raw.names.push(key);
+      this.raw.columns.push(new Array<RawValue>(row));
+    }
+    return j;
+  }
+
   /** Adds a row that could not be read at all (it still counts as read, and is rejected). */
   addError(line: number, reason: string): void {
     this.raw.rowErrors.set(this.raw.length, { field: '', reason });

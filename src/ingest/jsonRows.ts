@@ -50,7 +50,20 @@ const isScalar = (x: unknown) => x === null || typeof x !== 'object';
 /** Not a value: null, absent, or NaN (as JSON writers and our lenient parse leave it). */
 const isVoid = (v: unknown) => v === null || v === undefined || v === 'NaN' || (typeof v === 'number' && Number.isNaN(v));
 const isEpochName = (k: string) => matchTarget(k)?.target === 'epochs';
+type KeyKind = number;
+const SUMMARY = 1;
+const METRIC = 2;
+const EPOCH = 4;
 const join = (path: string, key: string) => (path === '' ? key : `${path}.${key}`);
+
+/** An object of scalars only (taken as a row as it is, no flattening). */
+function isScalarRecord(v: Rec): boolean {
+  for (const k in v) {
+    const x = v[k];
+    if (x !== null && typeof x === 'object') return false;
+  }
+  return true;
+}
 
 /** An object holding no arrays at any depth: a block of settings (`config`), flattened into its parent. */
 function isFlatObject(v: unknown): v is Rec {
@@ -73,6 +86,7 @@ export class JsonRows {
   private readonly levelIndex = new Map<string, JsonLayout['levels'][number]>();
   private readonly curveIndex = new Map<string, JsonLayout['curves'][number]>();
   private readonly summaryIndex = new Map<string, JsonLayout['summaries'][number]>();
+  private readonly kinds = new Map<string, KeyKind>();
 
   constructor(private readonly opts: JsonRowsOptions = {}) {
     this.rc = new RecordColumns(opts.format ?? 'json');
@@ -118,22 +132,41 @@ export class JsonRows {
   }
 
   /** One row: stored, counted as a summary, or rejected as a curve point with nothing measured. */
-  private emit(row: Record<string, RawValue>, own: Record<string, RawValue>, ctx: Ctx, curvePoint: boolean): void {
-    if (ctx.summary !== null) return this.summaryCount(ctx.summary, 'key');
-    const ownKeys = Object.keys(own);
-    if (ownKeys.some(isSummaryName) && !ownKeys.some((k) => !isSummaryName(k) && METRIC_TARGETS.includes(matchTarget(k)?.target as never))) {
-      return this.summaryCount(ctx.path, 'names');
+  /** What a key is, by name (asked once per distinct key: a curve repeats its keys a million times). */
+  private kind(k: string): KeyKind {
+    let x = this.kinds.get(k);
+    if (x === undefined) {
+      const summary = isSummaryName(k);
+      x = (summary ? SUMMARY : 0) | (!summary && METRIC_TARGETS.includes(matchTarget(k)?.target as never) ? METRIC : 0) | (isEpochName(k) ? EPOCH : 0);
+      this.kinds.set(k, x);
     }
-    const line = this.lineOf(ctx);
-    if (curvePoint) {
-      const measured = ownKeys.filter((k) => !isEpochName(k));
-      if (measured.length > 0 && measured.every((k) => isVoid(own[k]))) {
-        this.rc.addError(line, layoutText.notEvaluated);
-        this.runKeys.push(ctx.runKey);
-        return;
+    return x;
+  }
+
+  /** One row (the inherited fields, then its own): stored, counted as a summary, or rejected as a curve point with nothing measured. */
+  private emit(fields: Record<string, RawValue>, own: Record<string, RawValue>, ctx: Ctx, curvePoint: boolean): void {
+    if (ctx.summary !== null) return this.summaryCount(ctx.summary, 'key');
+    let summaries = 0;
+    let metrics = 0;
+    let measured = 0;
+    let voids = 0;
+    for (const k in own) {
+      const x = this.kind(k);
+      if (x & SUMMARY) summaries++;
+      if (x & METRIC) metrics++;
+      if (!(x & EPOCH)) {
+        measured++;
+        if (isVoid(own[k])) voids++;
       }
     }
-    this.rc.add(row, line);
+    if (summaries > 0 && metrics === 0) return this.summaryCount(ctx.path, 'names');
+    const line = this.lineOf(ctx);
+    if (curvePoint && measured > 0 && voids === measured) {
+      this.rc.addError(line, layoutText.notEvaluated);
+      this.runKeys.push(ctx.runKey);
+      return;
+    }
+    this.rc.addMerged(fields, own, line);
     this.runKeys.push(ctx.runKey);
   }
 
@@ -174,9 +207,9 @@ export class JsonRows {
     }
     // A list of flat records inside a record is its curve: per-point rules apply.
     if (curve && records === arr.length && arr.every(isFlatObject)) {
-      const own = arr.map((x) => flattenRecord(x as Rec));
+      const own = arr.map((x) => (isScalarRecord(x as Rec) ? (x as Record<string, RawValue>) : flattenRecord(x as Rec)));
       clearInterleavedGaps(own);
-      for (const o of own) this.emit({ ...ctx.fields, ...o }, o, ctx, true);
+      for (const o of own) this.emit(ctx.fields, o, ctx, true);
       return arr.length;
     }
     let count = 0;
@@ -217,7 +250,7 @@ export class JsonRows {
         points.push(p);
       }
       clearInterleavedGaps(points);
-      for (const p of points) this.emit({ ...fields, ...p }, p, ctx, true);
+      for (const p of points) this.emit(fields, p, ctx, true);
       count += block.length;
       this.noteCurve(ctx.pattern, block.names.join(','), block.length);
     }
@@ -243,7 +276,7 @@ export class JsonRows {
       } else if (isFlatObject(v)) {
         // A flat object under a summary key (`"aggregated": {"test_acc_mean": 0.4}`): one summary row.
         const o = flattenRecord(v);
-        this.emit({ ...fields, ...o }, o, c, false);
+        this.emit(fields, o, c, false);
         count++;
       } else count += this.visitObject(v as Rec, c, false);
     }
@@ -256,7 +289,7 @@ export class JsonRows {
       return count;
     }
     if (Object.keys(own).length === 0 || (!asRecord && ctx.path !== '' && nested.length > 0)) return 0;
-    this.emit(fields, own, ctx, false);
+    this.emit(ctx.fields, own, ctx, false);
     return 1;
   }
 
@@ -299,7 +332,7 @@ export class JsonRows {
       if (Array.isArray(v)) count += this.visitArray(v, c, false);
       else if (isFlatObject(v)) {
         const o = flattenRecord(v);
-        this.emit({ ...fields, ...o }, o, c, false);
+        this.emit(fields, o, c, false);
         count++;
       } else count += this.visitObject(v as Rec, c, true);
     });
@@ -318,7 +351,7 @@ export class JsonRows {
         }
         const own: Record<string, RawValue> = {};
         split.columns.forEach((c, j) => (own[c] = row[j] as RawValue));
-        this.emit({ ...ctx.fields, ...own }, own, ctx, false);
+        this.emit(ctx.fields, own, ctx, false);
       }
       return split.data.length;
     }
@@ -328,7 +361,7 @@ export class JsonRows {
     if (!rows) return -1;
     for (const r of rows) {
       const own = flattenRecord(r);
-      this.emit({ ...ctx.fields, ...own }, own, ctx, false);
+      this.emit(ctx.fields, own, ctx, false);
     }
     return rows.length;
   }

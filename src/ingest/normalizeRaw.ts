@@ -9,6 +9,7 @@ import { conditionKey, hasConfigPrefix, isDerived, isOutcome, NOT_CONDITION, out
 import type { Target } from './synonyms.js';
 import { ingestText, layoutText } from '../messages.js';
 import type { Reject } from '../store/Reject.js';
+import { formatCondition } from '../store/conditionText.js';
 
 export type Scale = 'percent' | 'fraction';
 
@@ -663,12 +664,7 @@ function absentColumns(n: number): { values: Float64Array; kind: Uint8Array } {
   return absent;
 }
 
-export function formatCondition(pairs: [string, string][]): string {
-  return pairs
-    .sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : 0))
-    .map(([k, v]) => `${k}=${v}`)
-    .join(',');
-}
+export { formatCondition };
 
 /** The first `k` rows of a table (copies, so the rest can be freed). */
 export function sliceTable(t: RowTable, k: number): RowTable {

@@ -1,0 +1,35 @@
+import { describe, expect, it } from 'vitest';
+import { isDerived, isOutcome, isSummaryName, outcomeMetric } from '../../src/ingest/fieldKinds.js';
+import { matchTarget } from '../../src/ingest/synonyms.js';
+
+describe('run-level outcomes never split conditions', () => {
+  it('final_, best_, last_, min_, max_ prefixes, timings, ranks, metric names', () => {
+    for (const n of ['final_test_acc', 'best_epoch', 'last_train_loss', 'min_val_loss', 'max_test_acc', 'wallclock_sec', 'train_time', 'effective_rank', 'test_acc', 'config.runtime_seconds']) {
+      expect(isOutcome(n), n).toBe(true);
+    }
+  });
+  it('settings are not outcomes', () => {
+    for (const n of ['lr', 'optimizer', 'weight_decay', 'config.batch_size', 'depth']) expect(isOutcome(n), n).toBe(false);
+  });
+  it('final_/last_ name the metric they hold', () => {
+    expect(outcomeMetric('final_test_acc')).toEqual({ prefix: 'final', target: 'test_accuracy' });
+    expect(outcomeMetric('last_train_loss')).toEqual({ prefix: 'last', target: 'train_loss' });
+    expect(outcomeMetric('best_test_err')).toEqual({ prefix: 'best', target: 'test_error' });
+    expect(outcomeMetric('final_lr')).toBeNull();
+  });
+  it('summaries over seeds and derived values', () => {
+    expect(isSummaryName('test_acc_mean')).toBe(true);
+    expect(isSummaryName('test_err_std')).toBe(true);
+    expect(isSummaryName('mean')).toBe(false);
+    expect(isDerived('p_over_n')).toBe(true);
+    expect(isDerived('p/n')).toBe(true);
+    expect(isDerived('lr')).toBe(false);
+  });
+});
+
+describe('column names matched by words', () => {
+  it('hidden-layer words are width; parameter counts are params, never width', () => {
+    for (const n of ['Hidden Neurons', 'num hidden units', 'n_hidden', 'hidden_layer_size', 'Number of hidden units', 'numHiddenUnits']) expect(matchTarget(n)?.target, n).toBe('width');
+    for (const n of ['Parameters', 'n_params', 'num_params', 'param_count', 'Number of Parameters', 'trainable params']) expect(matchTarget(n)?.target, n).toBe('params');
+  });
+});
