@@ -384,7 +384,7 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
   }
   const runKeys = raw.runKeys;
   let k = 0;
-  const last = { run: '', width: NaN, train_size: NaN, label_noise: NaN, seed: NaN, condition: '' };
+  const last = { run: '', width: NaN, train_size: NaN, label_noise: NaN, seed: NaN, condition: '', key: '' };
   const reject = (i: number, field: string, reason: string) => rejects.push({ source, line: raw.lines[i], field: clip(field), reason });
   let skipped = 0;
   rows: for (let i = 0; i < n; i++) {
@@ -509,21 +509,21 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
       if (v !== '') condition = condition === '' ? v : `${v},${condition}`;
     }
     let run = runCol ? text(cellAt(runCol, i)) : runConst;
-    if (runKeys !== undefined && run === '' && runKeys[i] !== '') {
-      // Keys naming the run in a document (`r1`, `w=4 (p=4,146)`), with the seed when one varies beneath.
-      run = `${runKeys[i]}${condition === '' ? '' : `,${condition}`},width=${width},train_size=${trainSize},label_noise=${noise}${Number.isFinite(seed) ? `,seed=${seed}` : ''}`;
-    }
     if (run === '') {
       // Rows of one run are usually contiguous: reuse the id while the configuration repeats.
+      // Keys naming the run in a document (`r1`, `w=4 (p=4,146)`) lead it.
+      const key = runKeys === undefined ? '' : runKeys[i];
       if (width !== last.width || trainSize !== last.train_size || noise !== last.label_noise ||
-          !(seed === last.seed || (seed !== seed && last.seed !== last.seed)) || condition !== last.condition || last.run === '') {
-        last.run = `${condition === '' ? '' : `${condition},`}width=${width},train_size=${trainSize},label_noise=${noise}` +
-          (Number.isFinite(seed) ? `,seed=${seed}` : `,source=${source}`);
+          !(seed === last.seed || (seed !== seed && last.seed !== last.seed)) || condition !== last.condition || key !== last.key || last.run === '') {
+        last.run = key === ''
+          ? `${condition === '' ? '' : `${condition},`}width=${width},train_size=${trainSize},label_noise=${noise}` + (Number.isFinite(seed) ? `,seed=${seed}` : `,source=${source}`)
+          : `${key}${condition === '' ? '' : `,${condition}`},width=${width},train_size=${trainSize},label_noise=${noise}${Number.isFinite(seed) ? `,seed=${seed}` : ''}`;
         last.width = width;
         last.train_size = trainSize;
         last.label_noise = noise;
         last.seed = seed;
         last.condition = condition;
+        last.key = key;
       }
       run = last.run;
     }
