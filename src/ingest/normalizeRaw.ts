@@ -77,20 +77,26 @@ function numberOf(v: RawValue): { value: number; kind: number } {
   return { value: p.values[0], kind: p.kind[0] };
 }
 
-/** Maps, converts and validates the rows of one source; every row read ends accepted, rejected or pending. */
-export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized {
-  const { source, map = {}, set = {}, seedFrom, scale = {}, condition: conditionNames = [] } = opts;
+/** The columns a source's stages read: targets found, constants, conditions and extras. */
+interface ColumnPlan {
+  mapping: Record<string, string>;
+  colOf: Partial<Record<Target, number>>;
+  constOf: Partial<Record<Target, RawValue>>;
+  passedOver: Record<string, string[]>;
+  condFixed: Map<string, string>;
+  constExtras: { name: string; value: number }[];
+  extraCols: { name: string; j: number }[];
+  condCols: { key: string; j: number }[];
+}
+
+/**
+ * Stages 1–4 of normalisation: explicit mapping and synonyms (with final_/last_ outcomes standing
+ * in for a missing metric), constants (config keys, --set), params, and the columns left over
+ * (extra measurements, or conditions when they are settings).
+ */
+function mapColumns(raw: RawTable, o: { source: string; map: Partial<Record<Target, string>>; set: Record<string, string>; conditionNames: string[]; notes: string[] }): ColumnPlan {
+  const { source, map, set, conditionNames, notes } = o;
   const n = raw.length;
-  const notes: string[] = [];
-  if (raw.encoding) notes.push(ingestText.encodingNote(source, raw.encoding));
-  if (raw.headerRepeats) notes.push(ingestText.headerRepeated(source, raw.headerRepeats.line, raw.headerRepeats.count));
-  if (raw.notes) notes.push(...raw.notes);
-  const summaries = raw.skipped ?? 0;
-  if (n === 0 && !raw.pendingLine) {
-    if (summaries === 0) notes.push(ingestText.noRows(source, raw.names.length > 0));
-    const layout: SourceLayout = { mapping: {}, passedOver: {}, structure: structureNotes(raw, ''), conditions: {} };
-    return { table: emptyTable(0), rejects: [], read: summaries, pending: 0, skipped: summaries, mapping: {}, notes, layout };
-  }
   const mapping: Record<string, string> = {};
   const colOf: Partial<Record<Target, number>> = {};
   const constOf: Partial<Record<Target, RawValue>> = {};
@@ -247,9 +253,18 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     else notes.push(ingestText.skippedColumn(source, name));
   });
 
+  return { mapping, colOf, constOf, passedOver, condFixed, constExtras, extraCols, condCols };
+}
+
+const NUMERIC_TARGETS: Target[] = ['seed', 'width', 'epochs', 'train_size', 'label_noise', 'test_error', 'train_error', 'test_loss',
+  'train_loss', 'test_accuracy', 'train_accuracy', 'wall_seconds'];
+
+/** Stage 5: the numeric targets parsed column by column, percent scales found and undone. */
+function parseTargets(raw: RawTable, o: { colOf: Partial<Record<Target, number>>; constOf: Partial<Record<Target, RawValue>>; scale: Partial<Record<Target, Scale>>; source: string; notes: string[] }) {
+  const { colOf, constOf, scale, source, notes } = o;
+  const n = raw.length;
   // 5. Parse numeric targets column by column.
-  const numericTargets: Target[] = ['seed', 'width', 'epochs', 'train_size', 'label_noise', 'test_error', 'train_error', 'test_loss',
-    'train_loss', 'test_accuracy', 'train_accuracy', 'wall_seconds'];
+  const numericTargets = NUMERIC_TARGETS;
   const parsed: Partial<Record<Target, ParsedColumn>> = {};
   const constNum: Partial<Record<Target, { value: number; kind: number }>> = {};
   for (const t of numericTargets) {
@@ -291,6 +306,28 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     const ex = parsed[t]?.thousands;
     if (ex !== undefined) notes.push(ingestText.thousandsColumn(source, clip(raw.names[colOf[t]!]), ex));
   }
+
+  return { parsed, constNum };
+}
+
+/** Maps, converts and validates the rows of one source; every row read ends accepted, rejected or pending. */
+export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized {
+  const { source, map = {}, set = {}, seedFrom, scale = {}, condition: conditionNames = [] } = opts;
+  const n = raw.length;
+  const notes: string[] = [];
+  if (raw.encoding) notes.push(ingestText.encodingNote(source, raw.encoding));
+  if (raw.headerRepeats) notes.push(ingestText.headerRepeated(source, raw.headerRepeats.line, raw.headerRepeats.count));
+  if (raw.notes) notes.push(...raw.notes);
+  const summaries = raw.skipped ?? 0;
+  if (n === 0 && !raw.pendingLine) {
+    if (summaries === 0) notes.push(ingestText.noRows(source, raw.names.length > 0));
+    const layout: SourceLayout = { mapping: {}, passedOver: {}, structure: structureNotes(raw, ''), conditions: {} };
+    return { table: emptyTable(0), rejects: [], read: summaries, pending: 0, skipped: summaries, mapping: {}, notes, layout };
+  }
+  const { mapping, colOf, constOf, passedOver, condFixed, constExtras, extraCols, condCols } = mapColumns(raw, { source, map, set, conditionNames, notes });
+
+  const { parsed, constNum } = parseTargets(raw, { colOf, constOf, scale, source, notes });
+  const numericTargets = NUMERIC_TARGETS;
 
   // 6. Per-row checks and output, column arrays only (no per-row objects on this path).
   // (Most logs have no extra or condition columns: those steps are skipped outright then, so the
