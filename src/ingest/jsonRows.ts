@@ -25,7 +25,7 @@ export interface JsonRowsOptions {
 
 /** Keys whose subtree holds statistics over seeds, not runs. */
 const SUMMARY_KEYS = new Set(['aggregated', 'aggregate', 'aggregates', 'summary', 'summaries', 'mean', 'means', 'avg', 'average',
-  'averages', 'averaged', 'acrossseeds', 'overseeds', 'seedmean', 'seedmeans', 'meanoverseeds', 'stats', 'statistics']);
+  'averages', 'averaged', 'acrossseeds', 'overseeds', 'seedmean', 'seedmeans', 'meanoverseeds']);
 const summaryKey = (k: string) => SUMMARY_KEYS.has(k.toLowerCase().replace(/[^a-z]/g, ''));
 
 interface Ctx {

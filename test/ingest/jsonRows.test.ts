@@ -201,6 +201,14 @@ describe('columns matched by words; params is its own column', () => {
     expect(rows.map((x) => x.extra.params)).toEqual([3190, 6370, 12730]);
   });
 
+  it('with no width column, params serves as the model-size axis, with a note', async () => {
+    const { r, rows } = await read('params-only.csv');
+    expect(r.accepted).toBe(3);
+    expect(pick(rows, 'width', 'test_error')).toEqual([[1000, 0.3], [2000, 0.4], [4000, 0.2]]);
+    expect(rows.map((x) => x.extra.params)).toEqual([1000, 2000, 4000]);
+    expect(r.notes.join('\n')).toMatch(/no width column; parameter count 'n_params' serves as the model-size axis/);
+  });
+
   it('a ratio p_over_n serves as width through --map', async () => {
     const { r, rows } = await read('p-over-n.csv', { map: { width: 'p_over_n' } });
     expect(r.accepted).toBe(3);
