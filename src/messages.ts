@@ -407,6 +407,7 @@ const at = (source: string) => (source === '' ? '' : `${fmtPath(source)}: `);
 const list = (values: string[], more: number) => `${values.join(', ')}${more > 0 ? `, … (${more} more)` : ''}`;
 export const layoutText = {
   notEvaluated: 'curve point with every metric NaN or empty (not evaluated at this epoch)',
+  valuesWithoutNames: "a list of values without column names: write records (pandas orient='records' or 'split')",
   levelNamed: (source: string, path: string, column: string, parent: string) =>
     `${at(source)}keys under '${path}' read as ${column} (named by '${parent}'; rename with --keys)`,
   levelUnnamed: (source: string, path: string, column: string, values: string[], more: number) =>

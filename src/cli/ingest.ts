@@ -5,6 +5,7 @@ import { progressBar } from './progress.js';
 import { UserError, usageError } from '../UserError.js';
 import { ingestText, layoutText } from '../messages.js';
 import type { Target } from '../ingest/synonyms.js';
+import { TARGETS } from '../ingest/synonyms.js';
 import type { Scale } from '../ingest/normalizeRaw.js';
 
 interface IngestArgs {
@@ -167,7 +168,9 @@ function layoutLines(groups: import('../ingest/groupLayouts.js').LayoutGroup[]):
   const out: string[] = [];
   for (const g of groups.slice(0, 8)) {
     out.push(layoutText.layoutHead(g.sources, g.example));
-    for (const [t, from] of Object.entries(g.mapping)) out.push(layoutText.mappingLine(t, from, g.passedOver[t] ?? []));
+    const order = (t: string) => { const i = (TARGETS as readonly string[]).indexOf(t); return i < 0 ? 99 : i; };
+    const targets = Object.keys(g.mapping).sort((a, b) => order(a) - order(b));
+    for (const t of targets) out.push(layoutText.mappingLine(t, g.mapping[t], g.passedOver[t] ?? []));
     for (const s of g.structure) out.push(`  ${s}`);
     const conds = Object.entries(g.conditions);
     const shown = conds.slice(0, 6).map(([c, n]) => layoutText.conditionRuns(c, n)).join('; ');

@@ -202,6 +202,11 @@ export class JsonRows {
       else if (Array.isArray(x)) arrays++;
     }
     if (records === 0) {
+      if (ctx.path === '' && arrays === arr.length) {
+        // Rows without column names (pandas `orient="values"`): each one counted, and rejected.
+        for (let i = 0; i < arr.length; i++) this.addError(this.lineOf(ctx), layoutText.valuesWithoutNames);
+        return arr.length;
+      }
       this.noteUnread(ctx.path, arr.length, arrays === arr.length ? 'lists' : 'values');
       return 0;
     }

@@ -152,6 +152,21 @@ describe('nested JSON documents: every block read, each row with its own branch'
   });
 });
 
+describe('summaries and rows without names', () => {
+  it('records whose metrics are all means or spreads over seeds are skipped and named', async () => {
+    const { r, rows } = await read('summary-rows.json');
+    expect([r.read, r.accepted, r.rejected, r.skipped]).toEqual([4, 2, 0, 2]);
+    expect(pick(rows, 'width', 'test_error')).toEqual([[4, 0.3], [8, 0.2]]);
+    expect(r.layouts[0].structure.join('\n')).toMatch(/2 records under 'by_width' skipped: metrics are all means or spreads over seeds/);
+  });
+
+  it('pandas orient="values" (lists without column names): every row counted and rejected with the reason', async () => {
+    const { r } = await read('pandas-values.json');
+    expect([r.read, r.accepted, r.rejected]).toEqual([2, 0, 2]);
+    expect(r.rejects[0].reason).toMatch(/without column names/);
+  });
+});
+
 describe('pandas writers', () => {
   const expected = [[4, 500, 20, 0.31], [8, 500, 20, 0.36], [16, 500, 20, 0.22]];
   for (const name of ['pandas-records.json', 'pandas-columns.json', 'pandas-index.json', 'pandas-split.json', 'pandas-table.json', 'pandas-index.csv']) {
