@@ -117,7 +117,7 @@ export const command: CommandSpec<MapArgs> = {
     const { readStore } = await import('../store/readStore.js');
     const { buildMap } = await import('../grid/buildMap.js');
     const { mapToJson } = await import('../grid/mapJson.js');
-    const { axisSource } = await import('../store/columnSources.js');
+    const { axisSource } = await import('../ingest/axisSource.js');
     const { table, manifest } = await readStore(args.store);
     const named = <M extends { x: { name: string; source?: string }; y: { name: string; source?: string } }>(m: M): M => {
       m.x.source = axisSource(manifest, m.x.name);

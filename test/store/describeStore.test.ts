@@ -3,7 +3,7 @@ import { describeStore, reasonKind } from '../../src/store/describeStore.js';
 import { tableFromRows } from '../../src/store/tableFromRows.js';
 import { emptyManifest } from '../../src/store/Manifest.js';
 import { formatCondition, parseCondition } from '../../src/store/conditionText.js';
-import { axisSource } from '../../src/store/columnSources.js';
+import { axisSource } from '../../src/ingest/axisSource.js';
 
 const row = (run: string, condition: string, width: number, epochs: number, seed: number) => ({
   run, condition, source: 'a.csv', source_line: 1, status: 'ok' as const, seed, width, epochs, train_size: 1000, label_noise: 0.1,

@@ -1,8 +1,10 @@
-import type { Manifest } from './Manifest.js';
+import type { Manifest } from '../store/Manifest.js';
+import { matchTarget } from './synonyms.js';
 
 /**
- * The source column an axis was read from, when every source agrees and it is not the axis's
- * own name (`p_over_n` for width): charts title the axis `width (p_over_n)`. Undefined otherwise.
+ * The source column an axis was read from, when every source agrees and it is not one of the
+ * axis's own names (`p_over_n` or `D` mapped to width, not `epoch` for epochs): charts and text
+ * title the axis `width (p_over_n)`. Undefined otherwise.
  */
 export function axisSource(manifest: Pick<Manifest, 'sources'>, axis: string): string | undefined {
   const names = new Set<string>();
@@ -13,6 +15,5 @@ export function axisSource(manifest: Pick<Manifest, 'sources'>, axis: string): s
   }
   if (names.size !== 1) return undefined;
   const [name] = names;
-  const key = (s: string) => s.toLowerCase().replace(/[^a-z0-9]/g, '');
-  return key(name) === key(axis) || key(name.slice(name.lastIndexOf('.') + 1)) === key(axis) ? undefined : name;
+  return matchTarget(name)?.target === axis ? undefined : name;
 }
