@@ -432,6 +432,9 @@ export const layoutText = {
   layoutHead: (sources: number, example: string) => `layout of ${sources} source${sources === 1 ? '' : 's'} (e.g. ${fmtPath(example)}):`,
   conditionsLine: (n: number, shown: string) => `  conditions: ${n} (${shown})`,
   conditionRuns: (condition: string, runs: number) => `${condition === '' ? '(none)' : condition}: ${runs} run${runs === 1 ? '' : 's'}`,
+  unusedKeys: (source: string, names: string[]) =>
+    `${at(source)}--keys ${names.join(',')}: no level of value keys left to name (the document has fewer levels)`,
+  moreLayouts: (n: number) => `… ${n} more layout${n === 1 ? '' : 's'} (ingest --json lists them all)`,
   badKeys: (text: string) => `--keys expects NAME[,NAME...] (outermost level first, e.g. --keys seed,label_noise), got '${text}'`,
   describeHead: (store: string, rows: number, runs: number) => `store ${store}: ${rows} rows, ${runs} runs`,
   describeColumn: (canonical: string, source: string) => `  ${canonical} ← ${source}`,

@@ -176,5 +176,6 @@ function layoutLines(groups: import('../ingest/groupLayouts.js').LayoutGroup[]):
     const shown = conds.slice(0, 6).map(([c, n]) => layoutText.conditionRuns(c, n)).join('; ');
     out.push(layoutText.conditionsLine(conds.length, conds.length > 6 ? `${shown}; …` : shown));
   }
+  if (groups.length > 8) out.push(layoutText.moreLayouts(groups.length - 8));
   return out;
 }

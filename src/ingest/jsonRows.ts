@@ -87,6 +87,8 @@ export class JsonRows {
   private readonly curveIndex = new Map<string, JsonLayout['curves'][number]>();
   private readonly summaryIndex = new Map<string, JsonLayout['summaries'][number]>();
   private readonly kinds = new Map<string, KeyKind>();
+  /** Value-key levels of the deepest branch (what --keys can name). */
+  private deepest = 0;
 
   constructor(private readonly opts: JsonRowsOptions = {}) {
     this.rc = new RecordColumns(opts.format ?? 'json');
@@ -116,6 +118,8 @@ export class JsonRows {
       l.distinct = l.values.length;
       l.values = l.values.slice(0, 12);
     }
+    const keys = this.opts.keys ?? [];
+    if (keys.length > this.deepest) this.layout.unusedKeys = keys.slice(this.deepest);
     raw.jsonLayout = this.layout;
     return raw;
   }
@@ -320,6 +324,7 @@ export class JsonRows {
       if (m.kind === 'value') {
         fields[name] = m.value;
         c.depth = ctx.depth + 1;
+        if (c.depth > this.deepest) this.deepest = c.depth;
         this.runLevel.add(name);
         this.settingColumns.add(name);
         if (note) this.noteLevel(name, ctx.pattern, how, k);

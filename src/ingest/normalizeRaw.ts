@@ -613,6 +613,7 @@ function structureNotes(raw: RawTable, source: string): string[] {
   for (const c of l.curves) out.push(layoutText.curves(source, c.path, c.key, c.records, c.rows));
   for (const u of l.unread) out.push(layoutText.unread(source, u.path, u.length, u.what));
   for (const s of l.summaries) out.push(layoutText.summaries(source, s.path, s.rows, s.reason));
+  if (l.unusedKeys) out.push(layoutText.unusedKeys(source, l.unusedKeys));
   return out;
 }
 
