@@ -432,6 +432,8 @@ export const layoutText = {
   layoutHead: (sources: number, example: string) => `layout of ${sources} source${sources === 1 ? '' : 's'} (e.g. ${fmtPath(example)}):`,
   conditionsLine: (n: number, shown: string) => `  conditions: ${n} (${shown})`,
   conditionRuns: (condition: string, runs: number) => `${condition === '' ? '(none)' : condition}: ${runs} run${runs === 1 ? '' : 's'}`,
+  numbered: (source: string, path: string, curves: number) =>
+    `${at(source)}${curves} curve${curves === 1 ? '' : 's'} at ${path} without an epoch or step key: points numbered 1, 2, … as epochs (one per epoch); map another column with --map epochs=COLUMN`,
   unusedKeys: (source: string, names: string[]) =>
     `${at(source)}--keys ${names.join(',')}: no level of value keys left to name (the document has fewer levels)`,
   moreLayouts: (n: number) => `… ${n} more layout${n === 1 ? '' : 's'} (ingest --json lists them all)`,

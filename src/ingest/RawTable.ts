@@ -59,6 +59,8 @@ export interface JsonLayout {
   curves: { path: string; key: string; records: number; rows: number }[];
   unread: { path: string; length: number; what: 'values' | 'lists' | 'mixed' }[];
   summaries: { path: string; rows: number; reason: 'key' | 'names' }[];
+  /** Curves without an epoch key whose points were numbered 1..n as epochs. */
+  numbered?: { path: string; curves: number }[];
   /** Names of --keys past the deepest level of value keys the document has. */
   unusedKeys?: string[];
 }

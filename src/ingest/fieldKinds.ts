@@ -15,6 +15,19 @@ export const NOT_CONDITION = new Set(['name', 'id', 'runname', 'experiment', 'ex
   'created', 'createdat', 'started', 'startedat', 'finished', 'finishedat', 'device', 'gpu', 'version', 'pid', 'jobname', 'slurmjobid',
   'index', 'runkey']);
 
+/** Last words of keys that name where a run lives or who it is (`save_dir`, `data_path`, `run_name`). */
+const PLACE_WORDS = new Set(['dir', 'directory', 'path', 'file', 'filename', 'folder', 'id', 'root', 'url', 'uri',
+  'checkpoint', 'ckpt', 'log', 'logs', 'host', 'date', 'time', 'timestamp', 'uuid', 'hash']);
+
+/** Whether a key identifies or places a run rather than configuring it: never a condition. */
+export function isNotCondition(name: string, value?: unknown): boolean {
+  if (NOT_CONDITION.has(nameKey(name))) return true;
+  const words = nameWords(name.slice(name.lastIndexOf('.') + 1));
+  if (words.length > 0 && PLACE_WORDS.has(words[words.length - 1])) return true;
+  // A file path as a value (`./runs/w8_s0`, `C:\\data`) differs per run: a place, not a setting.
+  return typeof value === 'string' && /[/\\]/.test(value) && !/^\s*[-+]?\d/.test(value);
+}
+
 /** Prefixes of run-level outcomes (`final_test_acc`, `best_epoch`, `min_val_loss`). */
 export const OUTCOME_PREFIXES = ['final', 'best', 'last', 'min', 'max', 'peak', 'top', 'end'] as const;
 /** Words of timings and ranks measured once per run (`wallclock_sec`, `train_time`, `effective_rank`). */

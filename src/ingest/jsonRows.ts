@@ -54,6 +54,8 @@ type KeyKind = number;
 const SUMMARY = 1;
 const METRIC = 2;
 const EPOCH = 4;
+const AXIS = 8;
+const AXIS_TARGETS: readonly string[] = ['width', 'seed', 'train_size', 'label_noise', 'params', 'run', 'condition'];
 const join = (path: string, key: string) => (path === '' ? key : `${path}.${key}`);
 
 /** An object of scalars only (taken as a row as it is, no flattening). */
@@ -141,7 +143,9 @@ export class JsonRows {
     let x = this.kinds.get(k);
     if (x === undefined) {
       const summary = isSummaryName(k);
-      x = (summary ? SUMMARY : 0) | (!summary && METRIC_TARGETS.includes(matchTarget(k)?.target as never) ? METRIC : 0) | (isEpochName(k) ? EPOCH : 0);
+      const t = matchTarget(k)?.target;
+      x = (summary ? SUMMARY : 0) | (!summary && METRIC_TARGETS.includes(t as never) ? METRIC : 0) | (t === 'epochs' ? EPOCH : 0) |
+        (t !== undefined && AXIS_TARGETS.includes(t) ? AXIS : 0);
       this.kinds.set(k, x);
     }
     return x;
@@ -176,6 +180,29 @@ export class JsonRows {
 
   private noteUnread(path: string, length: number, what: 'values' | 'lists' | 'mixed'): void {
     this.layout.unread.push({ path: path || '(top)', length, what });
+  }
+
+  /**
+   * A curve of metrics alone with no epoch or step key (`{"train_loss": [...], "test_acc": [...]}`)
+   * is indexed by epoch: its points are numbered 1..n (logged after each epoch), with a note. A
+   * block naming an axis (width, seed, ...) is a table of runs, not a curve, and is left alone.
+   */
+  private numberPoints(points: Record<string, RawValue>[], pattern: string): void {
+    let metric = false;
+    for (const p of points) {
+      for (const k in p) {
+        const x = this.kind(k);
+        if (x & EPOCH) return;
+        if (x & AXIS) return;
+        if (x & METRIC) metric = true;
+      }
+    }
+    if (!metric) return;
+    for (let i = 0; i < points.length; i++) points[i].epoch = i + 1;
+    const list = (this.layout.numbered ??= []);
+    const seen = list.find((x) => x.path === pattern);
+    if (seen) seen.curves++;
+    else list.push({ path: pattern || '(top)', curves: 1 });
   }
 
   private noteCurve(path: string, key: string, rows: number): void {
@@ -218,6 +245,7 @@ export class JsonRows {
     if (curve && records === arr.length && arr.every(isFlatObject)) {
       const own = arr.map((x) => (isScalarRecord(x as Rec) ? (x as Record<string, RawValue>) : flattenRecord(x as Rec)));
       clearInterleavedGaps(own);
+      this.numberPoints(own, ctx.pattern);
       for (const o of own) this.emit(ctx.fields, o, ctx, true);
       return arr.length;
     }
@@ -259,6 +287,7 @@ export class JsonRows {
         points.push(p);
       }
       clearInterleavedGaps(points);
+      this.numberPoints(points, ctx.pattern);
       for (const p of points) this.emit(fields, p, ctx, true);
       count += block.length;
       this.noteCurve(ctx.pattern, block.names.join(','), block.length);

@@ -5,7 +5,7 @@ import type { RawColumn, RawTable, RawValue } from './RawTable.js';
 import { CELL_BAD, CELL_MISSING, CELL_NONFINITE, isNumericColumn, notNumberHint, parseColumn } from './parseNumbers.js';
 import type { ParsedColumn } from './parseNumbers.js';
 import { isFractionTarget, matchTarget, nameKey, nameWords, TARGETS } from './synonyms.js';
-import { conditionKey, hasConfigPrefix, isDerived, isOutcome, NOT_CONDITION, outcomeMetric } from './fieldKinds.js';
+import { conditionKey, hasConfigPrefix, isDerived, isNotCondition, isOutcome, outcomeMetric } from './fieldKinds.js';
 import type { Target } from './synonyms.js';
 import { ingestText, layoutText } from '../messages.js';
 import type { Reject } from '../store/Reject.js';
@@ -187,7 +187,7 @@ function mapColumns(raw: RawTable, o: { source: string; map: Partial<Record<Targ
       continue; // a column of the same meaning wins (e.g. config `epochs` = planned total)
     }
     const ck = conditionKey(key);
-    if (NOT_CONDITION.has(nameKey(ck)) || v === undefined || v === null) continue;
+    if (v === undefined || v === null || isNotCondition(ck, v)) continue;
     if (isOutcome(ck) || isDerived(ck)) {
       // A run-level outcome (best_test_acc, wallclock_sec, effective_rank): an extra column, never a condition.
       if (typeof v === 'number' || (typeof v === 'string' && Number.isFinite(Number(v)) && v.trim() !== '')) outcomeConsts.push({ name: ck, value: Number(v) });
@@ -239,14 +239,14 @@ function mapColumns(raw: RawTable, o: { source: string; map: Partial<Record<Targ
         if (numeric) extraCols.push({ name, j });
         return;
       }
-      if (!NOT_CONDITION.has(nameKey(ck))) condCols.push({ key: ck, j });
+      if (!isNotCondition(ck, cellAt(col, 0))) condCols.push({ key: ck, j });
       return;
     }
     if (isNumericColumn(col, n)) {
       extraCols.push({ name, j });
       return;
     }
-    if (NOT_CONDITION.has(nameKey(name))) return;
+    if (isNotCondition(name, cellAt(col, 0))) return;
     const levels = new Set<string>();
     for (let i = 0; i < n && levels.size <= MAX_CONDITION_LEVELS; i++) levels.add(text(cellAt(col, i)));
     if (levels.size <= MAX_CONDITION_LEVELS) condCols.push({ key: name, j });
@@ -613,6 +613,7 @@ function structureNotes(raw: RawTable, source: string): string[] {
   for (const c of l.curves) out.push(layoutText.curves(source, c.path, c.key, c.records, c.rows));
   for (const u of l.unread) out.push(layoutText.unread(source, u.path, u.length, u.what));
   for (const s of l.summaries) out.push(layoutText.summaries(source, s.path, s.rows, s.reason));
+  for (const c of l.numbered ?? []) out.push(layoutText.numbered(source, c.path, c.curves));
   if (l.unusedKeys) out.push(layoutText.unusedKeys(source, l.unusedKeys));
   return out;
 }

@@ -33,3 +33,12 @@ describe('column names matched by words', () => {
     for (const n of ['Parameters', 'n_params', 'num_params', 'param_count', 'Number of Parameters', 'trainable params']) expect(matchTarget(n)?.target, n).toBe('params');
   });
 });
+
+describe('identifiers and places never split conditions', () => {
+  it('directories, paths, ids, checkpoints; path-like values', async () => {
+    const { isNotCondition } = await import('../../src/ingest/fieldKinds.js');
+    for (const n of ['save_dir', 'data_path', 'output_dir', 'run_id', 'checkpoint', 'args.log_dir', 'timestamp']) expect(isNotCondition(n), n).toBe(true);
+    expect(isNotCondition('out', './runs/w8_s0')).toBe(true);
+    for (const n of ['optimizer', 'dataset_name', 'model_name', 'lr', 'schedule']) expect(isNotCondition(n, 'adam'), n).toBe(false);
+  });
+});

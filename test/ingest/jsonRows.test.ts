@@ -124,6 +124,21 @@ describe('nested JSON documents: every block read, each row with its own branch'
     ]);
   });
 
+  it('per-width lists of metrics without an epoch key: points numbered 1..n as epochs (not the config\'s planned total)', async () => {
+    const { r, rows } = await read('per-width-lists.json', { keys: ['width'] });
+    expect([r.read, r.accepted, r.rejected]).toEqual([6, 6, 0]);
+    expect(pick(rows, 'width', 'epochs', 'test_loss', 'test_error', 'label_noise')).toEqual([
+      [16, 1, 1, 0.5, 0.2], [16, 2, 0.8, 0.4, 0.2], [16, 3, 0.9, 0.45, 0.2], [64, 1, 0.9, 0.45, 0.2], [64, 2, 0.7, 0.35, 0.2], [64, 3, 0.6, 0.3, 0.2],
+    ]);
+    expect(r.layouts[0].structure.join('\n')).toMatch(/2 curves at results\.\* without an epoch or step key: points numbered/);
+  });
+
+  it('a block of equal-length lists naming an axis is a table of runs, not a curve: no epochs invented', async () => {
+    const { jsonRows } = await import('../../src/ingest/jsonRows.js');
+    const raw = jsonRows({ width: [4, 8], test_error: [0.3, 0.2] });
+    expect(raw.names).toEqual(['width', 'test_error']);
+  });
+
   it('Python NaN / Infinity tokens: Infinity marks the run diverged, an all-NaN point is rejected', async () => {
     const { r, rows } = await read('nonfinite.json');
     expect([r.read, r.accepted, r.rejected]).toEqual([4, 3, 1]);
