@@ -71,6 +71,10 @@ export function matchTarget(name: string): { target: Target; rank: number } | nu
     const last = LOOKUP.get(nameKey(name.slice(dot + 1)));
     if (last) return { target: last.target, rank: last.rank + 100 };
   }
+  // A plural of a synonym (`widths`, `test_errors`, `test_losses`, `seeds`): lists named for what they hold.
+  const k = nameKey(dot >= 0 ? name.slice(dot + 1) : name);
+  const plural = k.length > 3 && k.endsWith('s') ? LOOKUP.get(k.slice(0, -1)) ?? (k.endsWith('es') ? LOOKUP.get(k.slice(0, -2)) : undefined) : undefined;
+  if (plural) return { target: plural.target, rank: plural.rank + 150 };
   return matchWords(dot >= 0 ? name.slice(dot + 1) : name);
 }
 

@@ -42,3 +42,14 @@ describe('identifiers and places never split conditions', () => {
     for (const n of ['optimizer', 'dataset_name', 'model_name', 'lr', 'schedule']) expect(isNotCondition(n, 'adam'), n).toBe(false);
   });
 });
+
+describe('plurals of synonyms', () => {
+  it('lists named for what they hold', () => {
+    expect(matchTarget('widths')?.target).toBe('width');
+    expect(matchTarget('test_errors')?.target).toBe('test_error');
+    expect(matchTarget('test_losses')?.target).toBe('test_loss');
+    expect(matchTarget('seeds')?.target).toBe('seed');
+    expect(matchTarget('train_accs')?.target).toBe('train_accuracy');
+    expect(matchTarget('epochs')?.target).toBe('epochs');
+  });
+});

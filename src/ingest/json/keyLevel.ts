@@ -44,9 +44,10 @@ export function levelNameOfParent(parentKey: string | null): string | null {
   const candidates: string[] = [];
   let k = parentKey.trim().toLowerCase().replace(/[\s-]+/g, '_');
   k = k.replace(/^(per|by|for|each|over|results_by|results_per)_?/, '').replace(/_?(levels|level|values|list|sweep|grid|results)$/, '');
-  candidates.push(k);
-  if (k.endsWith('es')) candidates.push(k.slice(0, -2));
+  // The singular first: the level is named for one of its values (`widths` → width).
   if (k.endsWith('s')) candidates.push(k.slice(0, -1));
+  if (k.endsWith('es')) candidates.push(k.slice(0, -2));
+  candidates.push(k);
   for (const c of candidates) {
     if (c === '') continue;
     const t = matchTarget(c);
