@@ -50,6 +50,8 @@ export interface RawTable {
    * record that holds a curve. They join the condition unless they are axes or outcomes.
    */
   settingColumns?: Set<string>;
+  /** Run-level columns that are outcomes whatever their names (a run folder's metrics-file scalars): extras, never conditions. */
+  outcomeColumns?: Set<string>;
   /** How a JSON document was read: key levels, curves expanded, arrays not read, summary blocks. */
   jsonLayout?: JsonLayout;
 }

@@ -230,6 +230,10 @@ function mapColumns(raw: RawTable, o: { source: string; map: Partial<Record<Targ
       condCols.push({ key: conditionKey(name), j });
       return;
     }
+    if (raw.outcomeColumns?.has(name)) {
+      if (isNumericColumn(col, n)) extraCols.push({ name, j });
+      return;
+    }
     if (hasConfigPrefix(name) || settings?.has(name)) {
       // Settings (a config key, a record's scalar above its curve, a key level) split conditions;
       // outcomes and values derived from the axes (p_over_n) stay extra columns.

@@ -4,6 +4,7 @@ import type { FileStamp } from '../store/Manifest.js';
 import { formatOfBytes, rawFromBytes, readConfigFile } from './readSource.js';
 import type { SourceFormat } from './readSource.js';
 import { normalizeRaw } from './normalizeRaw.js';
+import { hasConfigPrefix } from './fieldKinds.js';
 import type { Normalized, Scale } from './normalizeRaw.js';
 import type { Target } from './synonyms.js';
 import { NUMERIC_COLUMNS } from '../store/RowTable.js';
@@ -103,7 +104,17 @@ export function readSourceFile(job: FileJob): FileOutcome {
     format = formatOfBytes(job.given, bytes);
     const o = job.options;
     const raw = rawFromBytes(bytes, format as SourceFormat, { keys: o.keys });
-    if (job.config) raw.constants = { ...readConfigFile(job.config), ...raw.constants };
+    if (job.config) {
+      raw.constants = { ...readConfigFile(job.config), ...raw.constants };
+      // Beside a config file the metrics file holds outcomes: its scalars never split conditions
+      // (key levels and config-like blocks inside it still do).
+      if (raw.settingColumns) {
+        const levels = new Set((raw.jsonLayout?.levels ?? []).map((l) => l.column));
+        const keep = (c: string) => levels.has(c) || hasConfigPrefix(c);
+        raw.outcomeColumns = new Set([...raw.settingColumns].filter((c) => !keep(c)));
+        raw.settingColumns = new Set([...raw.settingColumns].filter(keep));
+      }
+    }
     const norm = normalizeRaw(raw, {
       source: job.given,
       map: o.map,

@@ -209,7 +209,7 @@ describe('JSON Lines and run folders', () => {
     expect(r.mapping.width).toBe('config.width');
   });
 
-  it('run folders: outcome fields (best_*, final_*, effective_rank, wallclock_sec) never split conditions; one condition per distinct setting', async () => {
+  it('run folders: the metrics file\'s scalars (best_*, final_*, effective_rank, wallclock_sec, epochs_run, a status text) never split conditions; one condition per distinct setting', async () => {
     const { r, rows } = await read('run-folders');
     expect([r.read, r.accepted, r.rejected]).toEqual([8, 8, 0]);
     expect(new Set(rows.map((x) => x.condition))).toEqual(new Set(['lr=0.05,optimizer=sgd']));
@@ -217,7 +217,8 @@ describe('JSON Lines and run folders', () => {
     expect(pick(rows, 'seed', 'width', 'epochs', 'test_error')).toEqual([
       [0, 4, 1, 0.5], [0, 4, 2, 0.36], [0, 8, 1, 0.5], [0, 8, 2, 0.32], [1, 4, 1, 0.5], [1, 4, 2, 0.35], [1, 8, 1, 0.5], [1, 8, 2, 0.31],
     ]);
-    expect(Object.keys(rows[0].extra).sort()).toEqual(['best_epoch', 'best_test_acc', 'effective_rank', 'final_train_acc', 'wallclock_sec']);
+    // A text outcome (status_text) and a flag (stopped_early) are not conditions either.
+    expect(Object.keys(rows[0].extra).sort()).toEqual(['best_epoch', 'best_test_acc', 'effective_rank', 'epochs_run', 'final_train_acc', 'wallclock_sec']);
     expect(rows.find((x) => x.width === 8 && x.seed === 1)!.extra.effective_rank).toBe(25);
   });
 });
