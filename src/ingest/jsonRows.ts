@@ -9,7 +9,7 @@
  */
 import { RecordColumns, emptyRaw, flattenRecord } from './RawTable.js';
 import type { JsonLayout, RawTable, RawValue } from './RawTable.js';
-import { keyMeaning, levelNameOfParent } from './json/keyLevel.js';
+import { keyMeaning, keyNumber, levelNameOfParent } from './json/keyLevel.js';
 import { columnarBlock, isScalarArray } from './json/columnarBlock.js';
 import { columnsTable, indexTable, splitTable, tableOrient } from './json/tableShapes.js';
 import { isRunCollection } from './json/runCollection.js';
@@ -42,6 +42,8 @@ interface Ctx {
   line: number;
   /** The path with the keys of levels written `*` (one note per level, not per branch). */
   pattern: string;
+  /** What a scalar under value keys measures: the nearest name key above (`test_error`), else `value`. */
+  valueName: string;
 }
 
 type Rec = Record<string, unknown>;
@@ -57,6 +59,27 @@ const EPOCH = 4;
 const AXIS = 8;
 const AXIS_TARGETS: readonly string[] = ['width', 'seed', 'train_size', 'label_noise', 'params', 'run', 'condition'];
 const join = (path: string, key: string) => (path === '' ? key : `${path}.${key}`);
+
+/** Scalars under value keys (`{"4": 0.31, "8": 0.36}`: a metric per width): a level of one-value rows. */
+function isValueKeyed(v: unknown): boolean {
+  if (!isRecord(v)) return false;
+  let any = false;
+  for (const k in v) {
+    if (!isScalar(v[k]) || keyMeaning(k).kind !== 'value') return false;
+    any = true;
+  }
+  return any;
+}
+
+/** Whether value keys appear anywhere in an object (then it holds rows, not settings). */
+function hasValueKeys(v: Rec): boolean {
+  for (const k in v) {
+    if (keyMeaning(k).kind !== 'name') return true;
+    const x = v[k];
+    if (isRecord(x) && hasValueKeys(x)) return true;
+  }
+  return false;
+}
 
 /** An object of scalars only (taken as a row as it is, no flattening). */
 function isScalarRecord(v: Rec): boolean {
@@ -98,7 +121,7 @@ export class JsonRows {
 
   /** Walks one document (or one JSON Lines row, all of whose rows get `line`). */
   add(value: unknown, line = 0): void {
-    const ctx: Ctx = { fields: {}, path: '', depth: 0, parentKey: null, summary: null, runKey: '', line, pattern: '' };
+    const ctx: Ctx = { fields: {}, path: '', depth: 0, parentKey: null, summary: null, runKey: '', line, pattern: '', valueName: 'value' };
     if (Array.isArray(value)) this.visitArray(value, ctx, false);
     else if (isRecord(value)) this.visitObject(value, ctx, true);
     else this.rc.addError(line || this.rc.raw.length + 1, ingestText.notARecord), this.runKeys.push('');
@@ -263,6 +286,7 @@ export class JsonRows {
   }
 
   private visitObject(obj: Rec, ctx: Ctx, asRecord: boolean): number {
+    if (isValueKeyed(obj)) return this.scalarLevel(obj, ctx);
     const shaped = this.tableShape(obj, ctx);
     if (shaped >= 0) return shaped;
     const keys = Object.keys(obj);
@@ -273,7 +297,7 @@ export class JsonRows {
     for (const k of keys) {
       const v = obj[k];
       if (isScalar(v)) own[k] = v as RawValue;
-      else if (isFlatObject(v) && !summaryKey(k) && keyMeaning(k).kind === 'name') flattenRecord(v, k, own);
+      else if (isFlatObject(v) && !summaryKey(k) && keyMeaning(k).kind === 'name' && !hasValueKeys(v)) flattenRecord(v, k, own);
       else nested.push(k);
     }
     const fields = { ...ctx.fields, ...own };
@@ -294,7 +318,8 @@ export class JsonRows {
     }
     // Keys that are values or name=value pairs, and names of sibling per-run objects, are a level.
     const meaning = new Map(nested.map((k) => [k, keyMeaning(k)]));
-    const runNames = nested.filter((k) => meaning.get(k)!.kind === 'name' && isRecord(obj[k]) && !summaryKey(k) && levelNameOfParent(k) === null);
+    // (Keys naming a metric or an axis, `test_error`, `widths`, are not run names.)
+    const runNames = nested.filter((k) => meaning.get(k)!.kind === 'name' && isRecord(obj[k]) && !summaryKey(k) && levelNameOfParent(k) === null && matchTarget(k) === null);
     const runs = runNames.length >= 2 && isRunCollection(Object.fromEntries(runNames.map((k) => [k, obj[k]])));
     const level = nested.filter((k) => meaning.get(k)!.kind !== 'name' || (runs && runNames.includes(k)));
     if (level.length > 0) count += this.visitLevel(obj, level, level.map((k) => meaning.get(k)!), { ...ctx, fields });
@@ -306,12 +331,13 @@ export class JsonRows {
         if ((v as unknown[]).length > 0 && ctx.summary === null) this.noteUnread(path, (v as unknown[]).length, 'values');
         continue;
       }
-      const c: Ctx = { ...ctx, fields, path, parentKey: k, summary: ctx.summary ?? (summaryKey(k) ? path : null), pattern: join(ctx.pattern, k) };
-      if (Array.isArray(v)) {
+      const c: Ctx = { ...ctx, fields, path, parentKey: k, summary: ctx.summary ?? (summaryKey(k) ? path : null), pattern: join(ctx.pattern, k), valueName: levelNameOfParent(k) === null ? k : ctx.valueName };
+      if (isValueKeyed(v)) count += this.scalarLevel(v as Rec, c);
+      else if (Array.isArray(v)) {
         const got = this.visitArray(v, c, true);
         if (got > 0 && c.summary === null && v.every(isFlatObject)) this.noteCurve(ctx.pattern, k, got);
         count += got;
-      } else if (isFlatObject(v)) {
+      } else if (isFlatObject(v) && !hasValueKeys(v)) {
         // A flat object under a summary key (`"aggregated": {"test_acc_mean": 0.4}`): one summary row.
         const o = flattenRecord(v);
         this.emit(fields, o, c, false);
@@ -329,6 +355,32 @@ export class JsonRows {
     if (Object.keys(own).length === 0 || (!asRecord && ctx.path !== '' && nested.length > 0)) return 0;
     this.emit(ctx.fields, own, ctx, false);
     return 1;
+  }
+
+  /** The column a level of value keys fills: --keys, else its parent's axis name, else key1, key2, ... */
+  private levelName(ctx: Ctx): { name: string; how: JsonLayout['levels'][number]['how'] } {
+    const given = this.opts.keys?.[ctx.depth];
+    if (given) return { name: given, how: 'keys' };
+    const parent = levelNameOfParent(ctx.parentKey);
+    if (parent) return { name: parent, how: 'parent' };
+    return { name: `key${ctx.depth + 1}`, how: 'unnamed' };
+  }
+
+  /** `{"4": 0.31, "8": 0.36}`: one row per key, the key in the level's column, the scalar named for what it measures. */
+  private scalarLevel(obj: Rec, ctx: Ctx): number {
+    const { name, how } = this.levelName(ctx);
+    const depth = ctx.depth + 1;
+    if (depth > this.deepest) this.deepest = depth;
+    this.runLevel.add(name);
+    this.settingColumns.add(name);
+    let count = 0;
+    for (const k in obj) {
+      const fields = { ...ctx.fields, [name]: keyNumber(k) as number };
+      if (ctx.summary === null) this.noteLevel(name, ctx.pattern, how, k);
+      this.emit(fields, { [ctx.valueName]: obj[k] as RawValue }, { ...ctx, path: join(ctx.path, k) }, false);
+      count++;
+    }
+    return count;
   }
 
   /** An object whose keys are values, `name=value` pairs or run names: one branch per key. */
@@ -368,8 +420,9 @@ export class JsonRows {
         c.runKey = ctx.runKey === '' ? k : `${ctx.runKey}/${k}`;
       }
       const v = obj[k];
-      if (Array.isArray(v)) count += this.visitArray(v, c, false);
-      else if (isFlatObject(v)) {
+      if (isValueKeyed(v)) count += this.scalarLevel(v as Rec, c);
+      else if (Array.isArray(v)) count += this.visitArray(v, c, false);
+      else if (isFlatObject(v) && !hasValueKeys(v)) {
         const o = flattenRecord(v);
         this.emit(fields, o, c, false);
         count++;

@@ -139,6 +139,13 @@ describe('nested JSON documents: every block read, each row with its own branch'
     expect(raw.names).toEqual(['width', 'test_error']);
   });
 
+  it('a metric per seed then width as plain numbers: one row per key; train and test halves merge into one row', async () => {
+    const { r, rows } = await read('final-by-seed-width.json', { keys: ['seed', 'width'], set: { train_size: '500', epochs: '100' } });
+    // 8 values read: 4 rows kept, the 4 halves that completed them counted as duplicates (DESIGN.md §4).
+    expect([r.read, r.accepted, r.duplicates, r.rejected]).toEqual([8, 4, 4, 0]);
+    expect(pick(rows, 'seed', 'width', 'test_error', 'train_error')).toEqual([[0, 4, 0.3, 0.1], [0, 8, 0.25, 0], [1, 4, 0.32, 0.12], [1, 8, 0.24, 0.01]]);
+  });
+
   it('Python NaN / Infinity tokens: Infinity marks the run diverged, an all-NaN point is rejected', async () => {
     const { r, rows } = await read('nonfinite.json');
     expect([r.read, r.accepted, r.rejected]).toEqual([4, 3, 1]);
