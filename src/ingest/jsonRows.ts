@@ -264,12 +264,14 @@ export class JsonRows {
       this.noteUnread(ctx.path, arr.length, arrays === arr.length ? 'lists' : 'values');
       return 0;
     }
-    // A list of flat records inside a record is its curve: per-point rules apply.
-    if (curve && records === arr.length && arr.every(isFlatObject)) {
+    // A list of flat records is a block of rows (inside a record: its curve, where per-point rules apply).
+    if (records === arr.length && arr.every((x) => isFlatObject(x) && !hasValueKeys(x))) {
       const own = arr.map((x) => (isScalarRecord(x as Rec) ? (x as Record<string, RawValue>) : flattenRecord(x as Rec)));
-      clearInterleavedGaps(own);
-      this.numberPoints(own, ctx.pattern);
-      for (const o of own) this.emit(ctx.fields, o, ctx, true);
+      if (curve) {
+        clearInterleavedGaps(own);
+        this.numberPoints(own, ctx.pattern);
+      }
+      for (const o of own) this.emit(ctx.fields, o, ctx, curve);
       return arr.length;
     }
     let count = 0;

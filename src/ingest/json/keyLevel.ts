@@ -22,8 +22,21 @@ const NUM = String.raw`[-+]?(?:\d{1,3}(?:,\d{3})+|\d+)(?:\.\d+)?(?:[eE][-+]?\d+)
 const PAIR = new RegExp(String.raw`([A-Za-z_][\w/.\-]*)\s*[=:]\s*(${NUM})`, 'g');
 const JOINED = new RegExp(String.raw`^([A-Za-z][A-Za-z_]*?)[_\-]?(${NUM})$`);
 
+// Keys repeat across the records of a document: each distinct key is read once.
+const memo = new Map<string, KeyMeaning>();
+
 /** The meaning of one key. */
 export function keyMeaning(key: string): KeyMeaning {
+  let m = memo.get(key);
+  if (m === undefined) {
+    m = readKey(key);
+    if (memo.size > 100_000) memo.clear();
+    memo.set(key, m);
+  }
+  return m;
+}
+
+function readKey(key: string): KeyMeaning {
   const v = keyNumber(key);
   if (v !== null) return { kind: 'value', value: v };
   const pairs: [string, number][] = [];
