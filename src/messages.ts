@@ -417,7 +417,7 @@ export const layoutText = {
   levelRuns: (source: string, path: string, n: number, values: string[]) =>
     `${at(source)}${n} keys under '${path}' name runs (${list(values.slice(0, 4), n - Math.min(4, values.length))})`,
   curves: (source: string, path: string, key: string, records: number, rows: number) =>
-    `${at(source)}curve '${key}' at ${path || '(top)'} expanded: ${records} record${records === 1 ? '' : 's'} → ${rows} rows`,
+    `${at(source)}curve '${key}' at ${(path || '(top)').replace(/\*/g, '<key>')} expanded: ${records} record${records === 1 ? '' : 's'} → ${rows} rows`,
   unread: (source: string, path: string, length: number, what: string) =>
     `${at(source)}array '${path}' (${length} ${what === 'lists' ? 'lists' : 'values'}) not read: not records and not a column of a block of equal-length arrays`,
   summaries: (source: string, path: string, rows: number, reason: string) =>

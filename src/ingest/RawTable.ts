@@ -149,8 +149,8 @@ export class RecordColumns {
   }
 
   /** Adds a row that could not be read at all (it still counts as read, and is rejected). */
-  addError(line: number, reason: string): void {
-    this.raw.rowErrors.set(this.raw.length, { field: '', reason });
+  addError(line: number, reason: string, field = ''): void {
+    this.raw.rowErrors.set(this.raw.length, { field, reason });
     this.raw.lines.push(line);
     this.raw.length++;
   }

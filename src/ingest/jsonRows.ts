@@ -175,7 +175,7 @@ export class JsonRows {
   }
 
   /** One row (the inherited fields, then its own): stored, counted as a summary, or rejected as a curve point with nothing measured. */
-  private emit(fields: Record<string, RawValue>, own: Record<string, RawValue>, ctx: Ctx, curvePoint: boolean): void {
+  private emit(fields: Record<string, RawValue>, own: Record<string, RawValue>, ctx: Ctx, curvePoint: boolean, index = -1): void {
     if (ctx.summary !== null) return this.summaryCount(ctx.summary, 'key');
     let summaries = 0;
     let metrics = 0;
@@ -193,7 +193,8 @@ export class JsonRows {
     if (summaries > 0 && metrics === 0) return this.summaryCount(ctx.path, 'names');
     const line = this.lineOf(ctx);
     if (curvePoint && measured > 0 && voids === measured) {
-      this.rc.addError(line, layoutText.notEvaluated);
+      // Its place in the document: a record number alone does not find a point of a nested curve.
+      this.rc.addError(line, layoutText.notEvaluated, index < 0 ? ctx.path || '(top)' : `${ctx.path || '(top)'}[${index}]`);
       this.runKeys.push(ctx.runKey);
       return;
     }
@@ -271,7 +272,7 @@ export class JsonRows {
         clearInterleavedGaps(own);
         this.numberPoints(own, ctx.pattern);
       }
-      for (const o of own) this.emit(ctx.fields, o, ctx, curve);
+      for (let i = 0; i < own.length; i++) this.emit(ctx.fields, own[i], ctx, curve, i);
       return arr.length;
     }
     let count = 0;
@@ -314,7 +315,7 @@ export class JsonRows {
       }
       clearInterleavedGaps(points);
       this.numberPoints(points, ctx.pattern);
-      for (const p of points) this.emit(fields, p, ctx, true);
+      for (let i = 0; i < points.length; i++) this.emit(fields, points[i], ctx, true, i);
       count += block.length;
       this.noteCurve(ctx.pattern, block.names.join(','), block.length);
     }
