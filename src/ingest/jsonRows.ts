@@ -417,6 +417,8 @@ export class JsonRows {
           for (const [n, v] of m.pairs) {
             fields[n] = v;
             this.runLevel.add(n);
+            // A setting (`lr=0.1`) splits conditions; axes, their synonyms (`p`) and ratios (`p/n`) do not.
+            this.settingColumns.add(n);
             if (note) this.noteLevel(n, ctx.pattern, 'pairs', String(v));
           }
         } else if (note) this.noteLevel('run', ctx.pattern, 'run', k);

@@ -85,6 +85,12 @@ describe('nested JSON documents: every block read, each row with its own branch'
     expect(new Set(rows.map((x) => x.condition))).toEqual(new Set(['']));
   });
 
+  it('a setting in name=value keys (lr=0.1) splits conditions: the two runs never share a cell', async () => {
+    const { r, rows } = await read('lr-keyed.json');
+    expect([r.read, r.accepted, r.duplicates, r.rejected]).toEqual([2, 2, 0, 0]);
+    expect(pick(rows, 'condition', 'test_error')).toEqual([['lr=0.01', 0.35], ['lr=0.1', 0.3]]);
+  });
+
   it('per-run objects of equal-length arrays: every run, its own width and seed, not a sibling\'s', async () => {
     const { r, rows } = await read('per-run.json');
     expect([r.read, r.accepted, r.rejected]).toEqual([9, 9, 0]);

@@ -20,6 +20,7 @@ export function keyNumber(text: string): number | null {
 
 const NUM = String.raw`[-+]?(?:\d{1,3}(?:,\d{3})+|\d+)(?:\.\d+)?(?:[eE][-+]?\d+)?|[-+]?\.\d+(?:[eE][-+]?\d+)?`;
 const PAIR = new RegExp(String.raw`([A-Za-z_][\w/.\-]*)\s*[=:]\s*(${NUM})`, 'g');
+const AXIS_NAMES: readonly string[] = ['seed', 'width', 'epochs', 'train_size', 'label_noise', 'params'];
 const JOINED = new RegExp(String.raw`^([A-Za-z][A-Za-z_]*?)[_\-]?(${NUM})$`);
 
 // Keys repeat across the records of a document: each distinct key is read once.
@@ -42,10 +43,17 @@ function readKey(key: string): KeyMeaning {
   const pairs: [string, number][] = [];
   for (const m of key.matchAll(PAIR)) pairs.push([m[1], Number(m[2].replace(/,/g, ''))]);
   if (pairs.length > 0) return { kind: 'pairs', pairs };
-  // `seed_7`, `width8`, `noise-0.2`: a name of an axis joined to its value.
-  const j = JOINED.exec(key.trim());
-  if (j && matchTarget(j[1]) !== null && /^[a-z_]{2,}$/i.test(j[1])) return { kind: 'pairs', pairs: [[j[1].replace(/_$/, ''), Number(j[2].replace(/,/g, ''))]] };
-  return { kind: 'name' };
+  // `seed_7`, `width8`, `noise-0.2`, `n4000_w8`: names of axes joined to their values.
+  // (Axes only: `run_1` names a run. A lone one-letter name, `k8`, `p1`, is too easily something else.)
+  const tokens = key.trim().split(/[\s_,;/]+(?=[A-Za-z])/);
+  const joined: [string, number][] = [];
+  for (const token of tokens) {
+    const j = JOINED.exec(token);
+    const t = j ? matchTarget(j[1])?.target : undefined;
+    if (!j || t === undefined || !AXIS_NAMES.includes(t) || (tokens.length === 1 && j[1].replace(/_$/, '').length < 2)) return { kind: 'name' };
+    joined.push([j[1].replace(/_$/, ''), Number(j[2].replace(/,/g, ''))]);
+  }
+  return joined.length > 0 ? { kind: 'pairs', pairs: joined } : { kind: 'name' };
 }
 
 /**

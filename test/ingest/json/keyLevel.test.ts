@@ -39,3 +39,11 @@ describe('levelNameOfParent', () => {
     expect(levelNameOfParent(null)).toBeNull();
   });
 });
+
+describe('several axes joined in one key', () => {
+  it('n4000_w8 and width8_seed0 are pairs; r1 and lr_0.1 name runs', () => {
+    expect(keyMeaning('n4000_w8')).toEqual({ kind: 'pairs', pairs: [['n', 4000], ['w', 8]] });
+    expect(keyMeaning('width8_seed0')).toEqual({ kind: 'pairs', pairs: [['width', 8], ['seed', 0]] });
+    expect(keyMeaning('run_1')).toEqual({ kind: 'name' });
+  });
+});
