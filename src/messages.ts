@@ -418,8 +418,8 @@ export const layoutText = {
     `${at(source)}${n} keys under '${path}' name runs (${list(values.slice(0, 4), n - Math.min(4, values.length))})`,
   curves: (source: string, path: string, key: string, records: number, rows: number) =>
     `${at(source)}curve '${key}' at ${(path || '(top)').replace(/\*/g, '<key>')} expanded: ${records} record${records === 1 ? '' : 's'} → ${rows} rows`,
-  unread: (source: string, path: string, length: number, what: string) =>
-    `${at(source)}array '${path}' (${length} ${what === 'lists' ? 'lists' : 'values'}) not read: not records and not a column of a block of equal-length arrays`,
+  unread: (source: string, path: string, length: number, what: string, times: number) =>
+    `${at(source)}array '${path}' (${times > 1 ? `in ${times} records, up to ` : ''}${length} ${what === 'lists' ? 'lists' : 'values'}) not read: not records and not a column of a block of equal-length arrays`,
   summaries: (source: string, path: string, rows: number, reason: string) =>
     `${at(source)}${rows} record${rows === 1 ? '' : 's'} under '${path}' skipped: ${reason === 'key' ? 'a block of summaries' : 'metrics are all means or spreads over seeds'}, not runs`,
   paramsAsWidth: (source: string, column: string) =>

@@ -59,7 +59,8 @@ export interface RawTable {
 export interface JsonLayout {
   levels: { column: string; path: string; how: 'keys' | 'parent' | 'unnamed' | 'pairs' | 'run'; values: string[]; count: number; distinct?: number }[];
   curves: { path: string; key: string; records: number; rows: number }[];
-  unread: { path: string; length: number; what: 'values' | 'lists' | 'mixed' }[];
+  /** `length`: the longest of them; `times`: how many records repeat it (absent = once). */
+  unread: { path: string; length: number; what: 'values' | 'lists' | 'mixed'; times?: number }[];
   summaries: { path: string; rows: number; reason: 'key' | 'names' }[];
   /** Curves without an epoch key whose points were numbered 1..n as epochs. */
   numbered?: { path: string; curves: number }[];

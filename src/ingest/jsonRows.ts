@@ -202,8 +202,14 @@ export class JsonRows {
     this.runKeys.push(ctx.runKey);
   }
 
-  private noteUnread(path: string, length: number, what: 'values' | 'lists' | 'mixed'): void {
-    this.layout.unread.push({ path: path || '(top)', length, what });
+  /** One note per place in the document's pattern (`[].lr_schedule`), however many records repeat it. */
+  private noteUnread(pattern: string, length: number, what: 'values' | 'lists' | 'mixed'): void {
+    const path = pattern || '(top)';
+    const seen = this.layout.unread.find((u) => u.path === path);
+    if (seen) {
+      seen.times = (seen.times ?? 1) + 1;
+      seen.length = Math.max(seen.length, length);
+    } else this.layout.unread.push({ path, length, what });
   }
 
   /**
@@ -262,7 +268,7 @@ export class JsonRows {
         for (let i = 0; i < arr.length; i++) this.addError(this.lineOf(ctx), layoutText.valuesWithoutNames);
         return arr.length;
       }
-      this.noteUnread(ctx.path, arr.length, arrays === arr.length ? 'lists' : 'values');
+      this.noteUnread(ctx.pattern, arr.length, arrays === arr.length ? 'lists' : 'values');
       return 0;
     }
     // A list of flat records is a block of rows (inside a record: its curve, where per-point rules apply).
@@ -331,7 +337,7 @@ export class JsonRows {
       if ((block && block.names.includes(k)) || level.includes(k)) continue;
       const path = join(ctx.path, k);
       if (isScalarArray(v) || (Array.isArray(v) && v.length === 0)) {
-        if ((v as unknown[]).length > 0 && ctx.summary === null) this.noteUnread(path, (v as unknown[]).length, 'values');
+        if ((v as unknown[]).length > 0 && ctx.summary === null) this.noteUnread(join(ctx.pattern, k), (v as unknown[]).length, 'values');
         continue;
       }
       const c: Ctx = { ...ctx, fields, path, parentKey: k, summary: ctx.summary ?? (summaryKey(k) ? path : null), pattern: join(ctx.pattern, k), valueName: levelNameOfParent(k) === null ? k : ctx.valueName };

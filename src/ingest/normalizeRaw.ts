@@ -615,7 +615,7 @@ function structureNotes(raw: RawTable, source: string): string[] {
     out.push(layoutText.levelRuns(source, path, distinctCount(lv), values));
   }
   for (const c of l.curves) out.push(layoutText.curves(source, c.path, c.key, c.records, c.rows));
-  for (const u of l.unread) out.push(layoutText.unread(source, u.path, u.length, u.what));
+  for (const u of l.unread) out.push(layoutText.unread(source, u.path, u.length, u.what, u.times ?? 1));
   for (const s of l.summaries) out.push(layoutText.summaries(source, s.path, s.rows, s.reason));
   for (const c of l.numbered ?? []) out.push(layoutText.numbered(source, c.path, c.curves));
   if (l.unusedKeys) out.push(layoutText.unusedKeys(source, l.unusedKeys));
