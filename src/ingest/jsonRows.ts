@@ -460,12 +460,19 @@ export class JsonRows {
     }
     const records = tableOrient(obj);
     if (records) return this.visitArray(records, { ...ctx, path: join(ctx.path, 'data') }, false);
-    const rows = columnsTable(obj) ?? (this.opts.keys?.[ctx.depth] || levelNameOfParent(ctx.parentKey) ? null : indexTable(obj));
+    const columns = columnsTable(obj);
+    const rows = columns ?? (this.opts.keys?.[ctx.depth] || levelNameOfParent(ctx.parentKey) ? null : indexTable(obj));
     if (!rows) return -1;
-    for (const r of rows) {
+    rows.forEach((r, i) => {
       const own = flattenRecord(r);
+      // Keys 0..n-1 over records (pandas orient="index") are a row number, kept as `index` and
+      // noted: when they are seeds, --keys names them.
+      if (!columns) {
+        own.index = i;
+        this.noteLevel('index', ctx.pattern, 'unnamed', String(i));
+      }
       this.emit(ctx.fields, own, ctx, false);
-    }
+    });
     return rows.length;
   }
 }
