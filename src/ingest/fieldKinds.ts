@@ -17,7 +17,8 @@ export const NOT_CONDITION = new Set(['name', 'id', 'runname', 'experiment', 'ex
 
 /** Last words of keys that name where a run lives or who it is (`save_dir`, `data_path`, `run_name`). */
 const PLACE_WORDS = new Set(['dir', 'directory', 'path', 'file', 'filename', 'folder', 'id', 'root', 'url', 'uri',
-  'checkpoint', 'ckpt', 'log', 'logs', 'host', 'date', 'time', 'timestamp', 'uuid', 'hash']);
+  'checkpoint', 'ckpt', 'log', 'logs', 'host', 'hostname', 'date', 'time', 'timestamp', 'uuid', 'hash', 'sha', 'commit', 'user', 'started',
+  'finished', 'created', 'pid']);
 
 /** Whether a key identifies or places a run rather than configuring it: never a condition. */
 export function isNotCondition(name: string, value?: unknown): boolean {

@@ -37,7 +37,7 @@ describe('column names matched by words', () => {
 describe('identifiers and places never split conditions', () => {
   it('directories, paths, ids, checkpoints; path-like values', async () => {
     const { isNotCondition } = await import('../../src/ingest/fieldKinds.js');
-    for (const n of ['save_dir', 'data_path', 'output_dir', 'run_id', 'checkpoint', 'args.log_dir', 'timestamp']) expect(isNotCondition(n), n).toBe(true);
+    for (const n of ['save_dir', 'data_path', 'output_dir', 'run_id', 'checkpoint', 'args.log_dir', 'timestamp', 'git_sha', 'slurm_job_id']) expect(isNotCondition(n), n).toBe(true);
     expect(isNotCondition('out', './runs/w8_s0')).toBe(true);
     for (const n of ['optimizer', 'dataset_name', 'model_name', 'lr', 'schedule']) expect(isNotCondition(n, 'adam'), n).toBe(false);
   });
