@@ -6,6 +6,8 @@ import { UserError, usageError } from '../UserError.js';
 import { ingestText } from '../messages.js';
 import type { Target } from '../ingest/synonyms.js';
 import type { Scale } from '../ingest/normalizeRaw.js';
+import { DEFAULT_LIMITS } from '../ingest/ReadLimits.js';
+import type { ReadLimits } from '../ingest/ReadLimits.js';
 
 interface IngestArgs {
   paths: string[];
@@ -17,6 +19,9 @@ interface IngestArgs {
   scale?: string[];
   strict: boolean;
   wait: number;
+  maxLine?: number;
+  maxFields?: number;
+  maxText?: number;
 }
 
 /** Targets --map may name (the canonical columns plus accuracies, converted to error). */
@@ -64,7 +69,10 @@ export const command: CommandSpec<IngestArgs> = {
       .option('seed-from', { type: 'string', describe: 'regular expression taking the seed from the file path (first group)' })
       .option('scale', { type: 'string', array: true, describe: 'column=percent|fraction, overriding the per-column detection' })
       .option('strict', { type: 'boolean', default: false, describe: 'fail (exit 1, store unchanged) on any rejected row' })
-      .option('wait', { type: 'number', default: 30, describe: 'seconds to wait for another ingest holding the store lock' }),
+      .option('wait', { type: 'number', default: 30, describe: 'seconds to wait for another ingest holding the store lock' })
+      .option('max-line', { type: 'number', describe: `characters one line may hold; a longer line is rejected (default ${DEFAULT_LIMITS.maxLine})` })
+      .option('max-fields', { type: 'number', describe: `fields (JSON keys) one line may hold (default ${DEFAULT_LIMITS.maxFields})` })
+      .option('max-text', { type: 'number', describe: `characters one text field (run name, condition value, column name) may hold (default ${DEFAULT_LIMITS.maxText})` }),
   async run(args) {
     // yargs array options swallow the words after them (`--set n=4000 runs/`): give paths back.
     const stray: string[] = [];
@@ -99,6 +107,12 @@ export const command: CommandSpec<IngestArgs> = {
       }
     }
     if (!Number.isFinite(args.wait) || args.wait < 0) throw usageError(`--wait expects seconds >= 0, got '${args.wait}'`);
+    const limits: Partial<ReadLimits> = {};
+    for (const [flag, key, v] of [['--max-line', 'maxLine', args.maxLine], ['--max-fields', 'maxFields', args.maxFields], ['--max-text', 'maxText', args.maxText]] as const) {
+      if (v === undefined) continue;
+      if (!Number.isInteger(v) || v < 1) throw usageError(ingestText.badLimit(flag, String(v)));
+      limits[key] = v;
+    }
     const paths = [...(args.paths ?? []).map(String), ...stray];
     if (paths.length === 0) throw usageError(ingestText.noPaths);
 
@@ -112,6 +126,7 @@ export const command: CommandSpec<IngestArgs> = {
       scale: scale as Partial<Record<Target, Scale>>,
       strict: args.strict,
       wait: args.wait,
+      limits,
       progress: (total) => progressBar({ label: 'ingest', total, quiet: args.quiet, minTotal: 300 }),
     });
     const err = (line: string) => {

@@ -22,6 +22,8 @@ import { walkInputs } from './walkInputs.js';
 import type { InputSource } from './walkInputs.js';
 import type { Target } from './synonyms.js';
 import { ingestText } from '../messages.js';
+import { DEFAULT_LIMITS } from './ReadLimits.js';
+import type { ReadLimits } from './ReadLimits.js';
 
 export interface IngestOptions {
   paths: string[];
@@ -34,6 +36,8 @@ export interface IngestOptions {
   strict?: boolean;
   /** Seconds to wait for another ingest's lock. */
   wait?: number;
+  /** What one line may hold; defaults: DEFAULT_LIMITS (README, "Limits"). */
+  limits?: Partial<ReadLimits>;
   /** Reads stdin when a path is `-`. */
   readStdin?: () => Uint8Array;
   /** Worker threads for parsing (default: by core count, when there is enough to read). */
@@ -110,6 +114,7 @@ export async function ingestSources(opts: IngestOptions): Promise<IngestResult> 
     const bar = opts.progress ? await opts.progress(walk.sources.length) : null;
     const options: PortableOptions = {
       map, set, scale, seedFrom: seedFrom ? { source: seedFrom.source, flags: seedFrom.flags } : null,
+      limits: { ...DEFAULT_LIMITS, ...opts.limits },
     };
     // Stat first: a source with the stored size and mtime is unchanged (no read, no hash).
     const jobs: FileJob[] = [];
@@ -265,7 +270,7 @@ function readStdinSource(src: InputSource, manifest: Manifest, options: Portable
   let format = '';
   try {
     format = sniffFormat(bytes);
-    const norm = normalizeRaw(rawFromBytes(bytes, format as SourceFormat), {
+    const norm = normalizeRaw(rawFromBytes(bytes, format as SourceFormat, { limits: options.limits, source: '-' }), {
       source: '-', map: options.map, set: options.set, scale: options.scale,
       seedFrom: options.seedFrom ? new RegExp(options.seedFrom.source, options.seedFrom.flags) : undefined,
     });

@@ -4,7 +4,11 @@ import { createRequire } from 'node:module';
 import { emptyRaw, flattenRecord } from './RawTable.js';
 import type { RawTable, RawValue } from './RawTable.js';
 import { rawFromDelimited } from './rawFromDelimited.js';
-import { rawFromJson, rawFromJsonLines } from './rawFromJson.js';
+import { rawFromJson } from './rawFromJson.js';
+import { tokenizeJsonLines } from './tokenizeJsonLines.js';
+import { limitText } from './limitText.js';
+import { DEFAULT_LIMITS } from './ReadLimits.js';
+import type { ReadLimits } from './ReadLimits.js';
 import { parseJsonLenient } from './parseJsonLenient.js';
 import { rawFromArrow } from './rawFromArrow.js';
 import { decodeHead, decodeText } from './decodeText.js';
@@ -45,19 +49,32 @@ export function sniffFormat(bytes: Uint8Array): SourceFormat {
   return 'text';
 }
 
-/** Reads bytes of a known format into a RawTable (pure: no file access). Throws on an unreadable file. */
-export function rawFromBytes(bytes: Uint8Array, format: SourceFormat): RawTable {
+/** How to read one source: the limits (ReadLimits) and its path as given (for notes). */
+export interface ReadOptions {
+  limits?: ReadLimits;
+  source?: string;
+}
+
+/**
+ * Reads bytes of a known format into a RawTable (pure: no file access), within the limits (a
+ * row over one is a rejected row, a header over one refuses the file). Throws on an unreadable file.
+ */
+export function rawFromBytes(bytes: Uint8Array, format: SourceFormat, opts: ReadOptions = {}): RawTable {
   if (bytes.byteLength === 0) return emptyRaw(format);
+  const limits = opts.limits ?? DEFAULT_LIMITS;
+  let raw: RawTable;
   if (format === 'arrow') {
     try {
-      return rawFromArrow(bytes);
+      raw = rawFromArrow(bytes);
     } catch (err) {
       throw new Error(ingestText.badArrow((err as Error).message.split('\n')[0]));
     }
+  } else {
+    const decoded = decodeText(bytes);
+    raw = rawFromText(decoded.text, format, limits);
+    if (decoded.guessed) raw.encoding = decoded.encoding;
   }
-  const decoded = decodeText(bytes);
-  const raw = rawFromText(decoded.text, format);
-  if (decoded.guessed) raw.encoding = decoded.encoding;
+  limitText(raw, { maxText: limits.maxText, source: opts.source ?? '' });
   return raw;
 }
 
@@ -68,16 +85,16 @@ function csvDelimiter(text: string): ',' | ';' {
   return header.includes(';') && !header.includes(',') ? ';' : ',';
 }
 
-export function rawFromText(text: string, format: Exclude<SourceFormat, 'arrow'>): RawTable {
+export function rawFromText(text: string, format: Exclude<SourceFormat, 'arrow'>, limits: ReadLimits = DEFAULT_LIMITS): RawTable {
   switch (format) {
     case 'csv':
-      return rawFromDelimited(text, csvDelimiter(text));
+      return rawFromDelimited(text, csvDelimiter(text), limits);
     case 'tsv':
-      return rawFromDelimited(text, '\t');
+      return rawFromDelimited(text, '\t', limits);
     case 'text':
-      return rawFromDelimited(text, 'whitespace');
+      return rawFromDelimited(text, 'whitespace', limits);
     case 'jsonl':
-      return rawFromJsonLines(text);
+      return tokenizeJsonLines(text, limits);
     case 'json':
       return rawFromJson(text);
   }
