@@ -54,7 +54,6 @@ export const ingestText = {
   badSeedFrom: (text: string, why: string) => `--seed-from is not a valid regular expression '${text}': ${why}`,
   badMappingFile: (path: string, why: string) => `--mapping ${path}: ${why}`,
   nothingFound: (paths: string) => `no readable logs found in ${paths}`,
-  nothingRead: 'nothing could be read; see the reasons above',
   strictFailed: (n: number) => `--strict: ${n} row${n === 1 ? '' : 's'} rejected, store left unchanged`,
   summary: (r: { read: number; accepted: number; duplicates: number; rejected: number; pending: number; skipped: number }) =>
     `read ${r.read} rows = ${r.accepted} accepted + ${r.duplicates} duplicates + ${r.rejected} rejected + ${r.pending} pending` +
@@ -116,6 +115,9 @@ export const ingestText = {
   namedPipe: (path: string) => `a named pipe (FIFO): reading it could wait forever; pipe it in instead: datlas ingest - < ${path}`,
   compressedName: (ext: string) => `a ${ext} file (compressed or binary), not a log ingest reads; decompress or convert it first`,
   notLogName: 'not a log format ingest reads (by its extension)',
+  folderAgain: (real: string) => `a link to a folder read already (${clipText(real)})`,
+  otherFiles: (n: number, examples: string[]) =>
+    `${n} file${n === 1 ? '' : 's'} of other types passed over (not csv, tsv, txt, log, jsonl, json or arrow), e.g. ${examples.map(fmtPath).join(', ')}; --json lists them under skippedSources`,
   nothingReadWhy: (failed: number, first: string) =>
     `nothing could be read: ${failed} source${failed === 1 ? '' : 's'} failed${failed > 1 ? ', the first' : ''}: ${first}`,
   badLimit: (flag: string, text: string) => `${flag} expects a whole number >= 1, got '${text}'`,

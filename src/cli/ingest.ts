@@ -133,7 +133,11 @@ export const command: CommandSpec<IngestArgs> = {
       if (!args.quiet) process.stderr.write(`${line}\n`);
     };
     for (const note of r.notes) err(`note: ${note}`);
-    if (r.sources === 0) throw new UserError(r.missing.length ? ingestText.cannotOpen(r.missing[0], 'ENOENT') : ingestText.nothingFound(paths.join(' ')));
+    if (r.sources === 0) {
+      const first = r.skippedSources[0];
+      if (r.missing.length) throw new UserError(ingestText.cannotOpen(first.path, first.reason));
+      throw new UserError(ingestText.nothingFound(paths.join(' ')) + (first ? ` (${ingestText.skippedSource(first.path, first.reason)}${r.skippedSources.length > 1 ? `, and ${r.skippedSources.length - 1} more` : ''})` : ''));
+    }
 
     if (args.json) {
       const { rejects, notes, missing, ...counts } = r;
@@ -150,7 +154,11 @@ export const command: CommandSpec<IngestArgs> = {
       process.stdout.write(`${out.join('\n')}\n`);
     }
     if (r.strictFailed) throw new UserError(ingestText.strictFailed(r.rejected));
-    if (r.failed > 0 && r.failed === r.sources - r.unchanged && r.accepted === 0 && r.duplicates === 0) throw new UserError(ingestText.nothingRead);
+    if (r.failed > 0 && r.failed === r.sources - r.unchanged && r.accepted === 0 && r.duplicates === 0) {
+      // Self-contained: under --json or --quiet no reason was printed above it.
+      const first = r.rejects.find((x) => x.line === 0) ?? r.rejects[0];
+      throw new UserError(ingestText.nothingReadWhy(r.failed, first ? `${first.source === '-' ? 'stdin' : first.source}: ${first.reason}` : ''));
+    }
     return 0;
   },
 };

@@ -3,6 +3,7 @@ import type { Argv } from 'yargs';
 import { UserError, usageError } from '../UserError.js';
 import { general } from '../messages.js';
 import type { CommandSpec } from './CommandSpec.js';
+import { guardOutput } from './terminalSafe.js';
 
 /**
  * Command registry. Each entry loads its module only when that command runs (or its --help is
@@ -71,8 +72,17 @@ function withDash(argv: Record<string, unknown>): Record<string, unknown> {
   return argv;
 }
 
-/** Runs the CLI and returns the exit code. Never throws. */
+/** Runs the CLI and returns the exit code. Never throws. Text it prints has control characters escaped (terminalSafe). */
 export async function main(argsGiven: string[]): Promise<number> {
+  const unguard = guardOutput();
+  try {
+    return await runMain(argsGiven);
+  } finally {
+    unguard();
+  }
+}
+
+async function runMain(argsGiven: string[]): Promise<number> {
   const end = argsGiven.indexOf('--');
   const args = argsGiven.map((a, i) => (a === '-' && (end < 0 || i < end) ? DASH : a));
   const debug = args.includes('--debug');

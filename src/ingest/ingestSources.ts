@@ -73,6 +73,11 @@ export interface IngestResult {
   strictFailed: boolean;
   /** Paths that do not exist. */
   missing: string[];
+  /**
+   * Every input passed over, with the reason: named paths that cannot be opened, link loops,
+   * dangling links, named pipes and other special files, compressed files, other file types.
+   */
+  skippedSources: { path: string; reason: string }[];
   /** This ingest's rejections (all of them; rejected.csv holds the store's). */
   rejects: Reject[];
   notes: string[];
@@ -102,8 +107,12 @@ export async function ingestSources(opts: IngestOptions): Promise<IngestResult> 
     read: 0, accepted: 0, duplicates: 0, rejected: 0, pending: 0, skipped: 0, conflicts: 0, sources: walk.sources.length, unchanged: 0,
     failed: 0, displaced: 0, storeRows: 0, storeSources: 0, wrote: false, strictFailed: false,
     missing: walk.missing.map((m) => m.path), rejects: [], notes: [],
+    skippedSources: [...walk.missing.map((m) => ({ path: m.path, reason: m.reason === 'ENOENT' ? 'no such file or folder' : m.reason })), ...walk.skipped.map((s) => ({ path: s.path, reason: s.reason }))],
   };
   for (const m of walk.missing) result.notes.push(ingestText.cannotOpen(m.path, m.reason));
+  const other = walk.skipped.filter((s) => s.other);
+  for (const s of walk.skipped) if (!s.other) result.notes.push(ingestText.skippedSource(s.path, s.reason));
+  if (other.length > 0) result.notes.push(ingestText.otherFiles(other.length, other.slice(0, 3).map((s) => s.path)));
   if (walk.sources.length === 0) return result;
 
   const lock = await lockStore(store, wait);
