@@ -120,6 +120,7 @@ export const ingestText = {
     `${n} file${n === 1 ? '' : 's'} of other types passed over (not csv, tsv, txt, log, jsonl, json or arrow), e.g. ${examples.map(fmtPath).join(', ')}; --json lists them under skippedSources`,
   nothingReadWhy: (failed: number, first: string) =>
     `nothing could be read: ${failed} source${failed === 1 ? '' : 's'} failed${failed > 1 ? ', the first' : ''}: ${first}`,
+  stdinTerminal: 'reading a log from stdin, which is this terminal: type or paste it, then press Ctrl-D (or pipe a file in: datlas ingest - < FILE)',
   badLimit: (flag: string, text: string) => `${flag} expects a whole number >= 1, got '${text}'`,
 };
 

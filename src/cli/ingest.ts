@@ -116,6 +116,8 @@ export const command: CommandSpec<IngestArgs> = {
     const paths = [...(args.paths ?? []).map(String), ...stray];
     if (paths.length === 0) throw usageError(ingestText.noPaths);
 
+    // Never a silent wait: `-` with nothing piped in reads what is typed.
+    if (paths.includes('-') && process.stdin.isTTY && !args.quiet) process.stderr.write(`${ingestText.stdinTerminal}\n`);
     const { ingestSources } = await import('../ingest/ingestSources.js');
     const r = await ingestSources({
       paths,

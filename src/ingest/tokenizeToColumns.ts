@@ -56,6 +56,22 @@ export function tokenizeToColumns(text: string, delimiter: string, limits: ReadL
     const p = text.indexOf(code === LF ? '\n' : code === CR ? '\r' : '"', from);
     return p < 0 ? n : p;
   };
+  /**
+   * A row over a limit: the header refuses the file; a row is rejected (columns padded, nothing
+   * else kept) and the rest of it skipped. Returns where the next row starts.
+   */
+  const overLimit = (at: number, tooMany: boolean): number => {
+    if (width < 0) throw new Error(tooMany ? ingestText.headerTooManyFields(maxFields) : ingestText.headerTooLong(maxLine));
+    for (let k = Math.min(count, width); k < width; k++) columns[k].push(NaN);
+    rowErrors.set(row, { field: '', reason: tooMany ? ingestText.tooManyFields(maxFields) : ingestText.lineTooLong(maxLine) });
+    lines.push(rowLine);
+    row++;
+    const next = skipRow(at);
+    line++;
+    rowLine = line;
+    count = 0;
+    return next;
+  };
   /** The index after the end of the row holding `from` (quoted fields keep their line breaks); counts the lines passed. */
   const skipRow = (from: number): number => {
     let p = from;
@@ -186,20 +202,12 @@ export function tokenizeToColumns(text: string, delimiter: string, limits: ReadL
     }
     if (i >= lim || count > maxFields) {
       if (i >= n && count <= maxFields) break;
+      // The row's characters (up to its line end) number more than maxLine when the scan passed
+      // lim, or stopped at it with more of the row to come.
       const e = i < n ? text.charCodeAt(i) : LF;
-      if (count > maxFields || i > lim || (e !== d && e !== LF && e !== CR)) {
-        // Over a limit: the header refuses the file; a row is rejected and the rest of it skipped.
-        const tooMany = count > maxFields;
-        if (width < 0) throw new Error(tooMany ? ingestText.headerTooManyFields(maxFields) : ingestText.headerTooLong(maxLine));
-        for (let k = Math.min(count, width); k < width; k++) columns[k].push(NaN);
-        rowErrors.set(row, { field: '', reason: tooMany ? ingestText.tooManyFields(maxFields) : ingestText.lineTooLong(maxLine) });
-        lines.push(rowLine);
-        row++;
-        i = skipRow(i);
-        line++;
-        rowLine = line;
+      if (count > maxFields || i > lim || (e !== LF && e !== CR)) {
+        i = overLimit(i, count > maxFields);
         lim = rowLimit(i);
-        count = 0;
         continue;
       }
     }
@@ -208,8 +216,14 @@ export function tokenizeToColumns(text: string, delimiter: string, limits: ReadL
       i++;
       if (i >= n) break;
       c = text.charCodeAt(i);
-      if (c === LF || c === CR) putText('');
-      else continue;
+      if (c === LF || c === CR) {
+        putText('');
+        if (count > maxFields) {
+          i = overLimit(i, true);
+          lim = rowLimit(i);
+          continue;
+        }
+      } else continue;
     }
     i++;
     if (c === CR && text.charCodeAt(i) === LF) i++;
