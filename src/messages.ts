@@ -7,6 +7,8 @@
 const fmtPath = (p: string) => (p === '-' ? 'stdin' : p);
 /** Counts and limits with thousands separators (8,388,608). */
 const big = (n: number) => n.toLocaleString('en-US');
+/** A number of any size in few characters: 1e15, 5e-324, 0.5. */
+const sci = (x: number) => (x !== 0 && (Math.abs(x) >= 1e6 || Math.abs(x) < 1e-3) ? x.toExponential().replace('e+', 'e') : String(x));
 /** User text quoted inside a message, clipped (a 1 MB name must not become a 1 MB message). */
 const clipText = (t: string) => (t.length > 80 ? `${t.slice(0, 80)}…` : t);
 
@@ -121,6 +123,8 @@ export const ingestText = {
   nothingReadWhy: (failed: number, first: string) =>
     `nothing could be read: ${failed} source${failed === 1 ? '' : 's'} failed${failed > 1 ? ', the first' : ''}: ${first}`,
   stdinTerminal: 'reading a log from stdin, which is this terminal: type or paste it, then press Ctrl-D (or pipe a file in: datlas ingest - < FILE)',
+  implausibleAxis: (axis: string, v: number, range: readonly [number, number]) =>
+    `${axis} ${sci(v)} is outside the plausible range ${sci(range[0])} to ${sci(range[1])} (a unit mix-up or a corrupt log?)`,
   badLimit: (flag: string, text: string) => `${flag} expects a whole number >= 1, got '${text}'`,
 };
 

@@ -22,3 +22,11 @@ export const DEFAULT_LIMITS: Readonly<ReadLimits> = { maxLine: 8 * 1024 * 1024, 
 
 /** Levels of nesting a JSON value may have (objects and arrays inside one another). */
 export const MAX_DEPTH = 64;
+
+/**
+ * Plausible ranges of the sweep axes: far beyond any model (about 1e13 parameters at most today),
+ * data set or training run, yet small enough that the map's arithmetic (log2 of the axis, cell
+ * edges, the cost model's width^a · n · epochs) stays finite. A value outside is a unit mix-up or
+ * a corrupt log, rejected with the range (1e308 or 5e-324 as a width used to overflow the map).
+ */
+export const AXIS_RANGE = { width: [1e-9, 1e15], epochs: [0, 1e12], train_size: [1, 1e15] } as const satisfies Record<string, readonly [number, number]>;
