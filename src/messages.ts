@@ -117,6 +117,7 @@ export const ingestText = {
   namedPipe: (path: string) => `a named pipe (FIFO): reading it could wait forever; pipe it in instead: datlas ingest - < ${path}`,
   compressedName: (ext: string) => `a ${ext} file (compressed or binary), not a log ingest reads; decompress or convert it first`,
   notLogName: 'not a log format ingest reads (by its extension)',
+  storeFolder: 'a datlas store (manifest.json and rows.arrow), not logs',
   folderAgain: (real: string) => `a link to a folder read already (${clipText(real)})`,
   otherFiles: (n: number, examples: string[]) =>
     `${n} file${n === 1 ? '' : 's'} of other types passed over (not csv, tsv, txt, log, jsonl, json or arrow), e.g. ${examples.map(fmtPath).join(', ')}; --json lists them under skippedSources`,

@@ -110,7 +110,10 @@ export function walkInputs(paths: readonly string[], opts: { skip?: readonly str
     entries.sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
     // A store, not logs (commit.json alone: a first write cut short before its renames).
     const has = (n: string) => entries.some((e) => e.name === n);
-    if ((has('manifest.json') && has('rows.arrow')) || has('commit.json')) return;
+    if ((has('manifest.json') && has('rows.arrow')) || has('commit.json')) {
+      skipped.push({ path: dir, reason: ingestText.storeFolder });
+      return;
+    }
     // Paths are built by concatenation below one normalised prefix: join and resolve per file
     // were most of the cost of walking thousands of logs (re-ingest of unchanged files is this walk).
     const base = join(dir);
