@@ -7,9 +7,9 @@ import { rawFromDelimited } from './rawFromDelimited.js';
 import { rawFromJson } from './rawFromJson.js';
 import { tokenizeJsonLines } from './tokenizeJsonLines.js';
 import { limitText } from './limitText.js';
-import { DEFAULT_LIMITS } from './ReadLimits.js';
+import { DEFAULT_LIMITS, MAX_DEPTH } from './ReadLimits.js';
 import type { ReadLimits } from './ReadLimits.js';
-import { parseJsonLenient } from './parseJsonLenient.js';
+import { depthOverAt, JsonTooDeep, jsonWhy, parseJsonLenient } from './parseJsonLenient.js';
 import { rawFromArrow } from './rawFromArrow.js';
 import { decodeHead, decodeText } from './decodeText.js';
 import { ingestText } from '../messages.js';
@@ -130,15 +130,36 @@ const requireHere = createRequire(import.meta.url);
 let yamlParse: ((text: string) => unknown) | null = null;
 const parseYaml = (text: string): unknown => (yamlParse ??= (requireHere('yaml') as typeof import('yaml')).parse)(text);
 
+/** Whether a parsed value nests objects and arrays more than `max` levels (walked without recursion). */
+function deeperThan(value: unknown, max: number): boolean {
+  const stack: [unknown, number][] = [[value, 1]];
+  const seen = new Set<unknown>(); // YAML anchors can make a value refer to itself
+  while (stack.length > 0) {
+    const [v, d] = stack.pop()!;
+    if (d > max) return true;
+    if (seen.has(v)) continue;
+    seen.add(v);
+    for (const x of Object.values(v as object)) if (x !== null && typeof x === 'object') stack.push([x, d + 1]);
+  }
+  return false;
+}
+
 /** Reads a run directory's config file (JSON or YAML) into flat constants. */
 export function readConfigFile(path: string): Record<string, RawValue> {
   const text = readFileSync(path, 'utf8');
   let value: unknown;
   try {
-    value = /\.ya?ml$/i.test(path) ? parseYaml(text) : parseJsonLenient(text);
+    const yaml = /\.ya?ml$/i.test(path);
+    // YAML's flow collections (`[[[...`) nest like JSON's, and its parser recurses into them.
+    if (yaml && depthOverAt(text, MAX_DEPTH) >= 0) throw new JsonTooDeep(0, MAX_DEPTH);
+    value = yaml ? parseYaml(text) : parseJsonLenient(text);
   } catch (err) {
-    throw new Error(ingestText.badConfig((err as Error).message.split('\n')[0]));
+    // The YAML parser recurses into flow collections (`[[[...`): a stack overflow there is depth.
+    if (err instanceof RangeError || err instanceof JsonTooDeep) throw new Error(ingestText.badConfig(ingestText.tooDeep(MAX_DEPTH)));
+    throw new Error(ingestText.badConfig(jsonWhy(err)));
   }
   if (value === null || typeof value !== 'object' || Array.isArray(value)) throw new Error(ingestText.badConfig('not a mapping of keys to values'));
+  // YAML is parsed without a depth check of its own; flattening recurses.
+  if (deeperThan(value, MAX_DEPTH)) throw new Error(ingestText.badConfig(ingestText.tooDeep(MAX_DEPTH)));
   return flattenRecord(value as Record<string, unknown>);
 }

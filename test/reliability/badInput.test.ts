@@ -197,6 +197,26 @@ describe('folders', () => {
     expect(r.notes.some((n) => /cannot open .*self.csv: a symbolic link loop/.test(n))).toBe(true);
   });
 
+  it('run folders whose config nests 100 or 20,000 levels deep (block and flow YAML, JSON): refused as too deep, never a stack overflow', async () => {
+    const root = join(dir, 'deepcfg');
+    const configs: [string, string][] = [
+      ['config.yaml', `a:\n${Array.from({ length: 100 }, (_, i) => `${' '.repeat(2 * (i + 1))}b:`).join('\n')} 1\n`],
+      ['config.yaml', `a: ${'['.repeat(20_000)}${']'.repeat(20_000)}\n`],
+      ['config.json', `{"a":${'['.repeat(20_000)}${']'.repeat(20_000)}}`],
+    ];
+    configs.forEach(([name, body], k) => {
+      mkdirSync(join(root, `r${k}`), { recursive: true });
+      writeFileSync(join(root, `r${k}`, name), body);
+      writeFileSync(join(root, `r${k}`, 'metrics.csv'), 'epoch,width,n,test_error\n1,8,100,0.5\n');
+    });
+    mkdirSync(join(root, 'ok'), { recursive: true });
+    writeFileSync(join(root, 'ok', 'config.json'), '{"width": 16, "n": 100}');
+    writeFileSync(join(root, 'ok', 'metrics.csv'), 'epoch,test_error\n1,0.5\n');
+    const r = await ingestSources({ paths: [root], store: join(root, 'store') });
+    expect({ accepted: r.accepted, failed: r.failed }).toEqual({ accepted: 1, failed: 3 });
+    for (const x of r.rejects) expect(x.reason).toBe('run directory config is not readable: nested more than 64 levels deep (objects or arrays inside one another), the limit');
+  });
+
   it('a run folder with a broken config: one rejection naming the reason, other folders read', async () => {
     const root = join(dir, 'rundirs');
     mkdirSync(join(root, 'r1'), { recursive: true });
