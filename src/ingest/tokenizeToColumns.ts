@@ -138,12 +138,14 @@ export function tokenizeToColumns(text: string, delimiter: string, limits: ReadL
         const q = text.indexOf('"', j);
         if (q < 0) break;
         if (text.charCodeAt(q + 1) === QUOTE) {
-          value += text.slice(seg, q + 1);
+          // Past the line limit the row is rejected: its value is not built (a line of 100
+          // million doubled quotes must not become 100 million pieces of string).
+          if (q < lim) value += text.slice(seg, q + 1);
           j = q + 2;
           seg = j;
           continue;
         }
-        value += text.slice(seg, q);
+        if (q < lim) value += text.slice(seg, q);
         for (let p = text.indexOf('\n', i); p >= 0 && p < q; p = text.indexOf('\n', p + 1)) line++;
         i = q + 1;
         closed = true;
