@@ -60,10 +60,20 @@ export function tokenizeToColumns(text: string, delimiter: string, limits: ReadL
    * A row over a limit: the header refuses the file; a row is rejected (columns padded, nothing
    * else kept) and the rest of it skipped. Returns where the next row starts.
    */
+  // One error object per kind, shared by every row it fits (they are only read): a file of
+  // millions of bad rows costs a map entry per row, not an object and a message each.
+  let tooManyError: { field: string; reason: string } | undefined;
+  let tooLongError: { field: string; reason: string } | undefined;
+  const countErrors = new Map<number, { field: string; reason: string }>();
+  const countError = (got: number) => {
+    let e = countErrors.get(got);
+    if (!e) countErrors.set(got, (e = { field: got < width ? names[got] : '', reason: ingestText.fieldCount(width, got) }));
+    return e;
+  };
   const overLimit = (at: number, tooMany: boolean): number => {
     if (width < 0) throw new Error(tooMany ? ingestText.headerTooManyFields(maxFields) : ingestText.headerTooLong(maxLine));
     for (let k = Math.min(count, width); k < width; k++) columns[k].push(NaN);
-    rowErrors.set(row, { field: '', reason: tooMany ? ingestText.tooManyFields(maxFields) : ingestText.lineTooLong(maxLine) });
+    rowErrors.set(row, tooMany ? (tooManyError ??= { field: '', reason: ingestText.tooManyFields(maxFields) }) : (tooLongError ??= { field: '', reason: ingestText.lineTooLong(maxLine) }));
     lines.push(rowLine);
     row++;
     const next = skipRow(at);
@@ -237,7 +247,7 @@ export function tokenizeToColumns(text: string, delimiter: string, limits: ReadL
       for (let k = 0; k < width; k++) columns.push(new NumTextColumn(capacity));
     } else {
       if (count !== width) {
-        rowErrors.set(row, { field: count < width ? names[count] : '', reason: ingestText.fieldCount(width, count) });
+        rowErrors.set(row, countError(count));
         for (let j = count; j < width; j++) columns[j].push(NaN);
       }
       lines.push(rowLine);
