@@ -1,13 +1,17 @@
 import { emptyRaw } from './RawTable.js';
 import type { RawTable } from './RawTable.js';
 import { ingestText } from '../messages.js';
-import { jsonWhy, parseJsonLenient } from './parseJsonLenient.js';
+import { JsonTooDeep, jsonWhy, parseJsonLenient } from './parseJsonLenient.js';
 import { tokenizeJsonLines } from './tokenizeJsonLines.js';
+import { DEFAULT_LIMITS } from './ReadLimits.js';
+import type { ReadLimits } from './ReadLimits.js';
 import { JsonRows, jsonRows } from './jsonRows.js';
 
 export interface JsonReadOptions {
   /** Names of the value-key levels of a nested document, outermost first (`--keys`). */
   keys?: string[];
+  /** What one line may hold (JSON Lines read by the tokenizer). */
+  limits?: ReadLimits;
 }
 
 /** 1-based line of a character offset. */
@@ -24,8 +28,9 @@ function lineAt(text: string, offset: number): number {
  * tokenizer's fast path.
  */
 export function rawFromJsonLines(text: string, opts: JsonReadOptions = {}): RawTable {
-  if (!text.includes('[')) return tokenizeJsonLines(text);
+  if (!text.includes('[')) return tokenizeJsonLines(text, opts.limits ?? DEFAULT_LIMITS);
   const walk = new JsonRows({ keys: opts.keys, format: 'jsonl' });
+  const { maxLine, maxFields } = opts.limits ?? DEFAULT_LIMITS;
   let start = text.charCodeAt(0) === 0xfeff ? 1 : 0;
   let line = 1;
   let pendingLine = 0;
@@ -35,13 +40,24 @@ export function rawFromJsonLines(text: string, opts: JsonReadOptions = {}): RawT
       if (text.slice(start).trim() !== '') pendingLine = line;
       break;
     }
+    if (end - start > maxLine) {
+      // Over the line limit: rejected unread, as the tokenizer does.
+      walk.addError(line, ingestText.lineTooLong(maxLine));
+      line++;
+      start = end + 1;
+      continue;
+    }
     const body = text.slice(start, end).trim();
     if (body !== '') {
       let rec: unknown;
       try {
         rec = parseJsonLenient(body);
       } catch (err) {
-        walk.addError(line, ingestText.badJsonLineWhy(jsonWhy(err)));
+        walk.addError(line, err instanceof JsonTooDeep ? ingestText.tooDeep(err.limit) : ingestText.badJsonLineWhy(jsonWhy(err)));
+        rec = undefined;
+      }
+      if (rec !== undefined && rec !== null && typeof rec === 'object' && !Array.isArray(rec) && Object.keys(rec).length > maxFields) {
+        walk.addError(line, ingestText.tooManyFields(maxFields));
         rec = undefined;
       }
       if (rec !== undefined) {

@@ -3,6 +3,7 @@ import { createRequire } from 'node:module';
 import type { FileStamp } from '../store/Manifest.js';
 import { formatOfBytes, rawFromBytes, readConfigFile } from './readSource.js';
 import type { SourceFormat } from './readSource.js';
+import type { ReadLimits } from './ReadLimits.js';
 import { normalizeRaw } from './normalizeRaw.js';
 import { hasConfigPrefix } from './fieldKinds.js';
 import type { Normalized, Scale } from './normalizeRaw.js';
@@ -23,6 +24,8 @@ export interface PortableOptions {
   keys?: string[];
   /** Columns that join the condition (`--condition`). */
   condition?: string[];
+  /** What one line may hold (ReadLimits; plain numbers, so it crosses threads as is). */
+  limits?: ReadLimits;
 }
 
 /** One file to read: its path as given, a run directory's config, and what the store has for it. */
@@ -103,7 +106,7 @@ export function readSourceFile(job: FileJob): FileOutcome {
   try {
     format = formatOfBytes(job.given, bytes);
     const o = job.options;
-    const raw = rawFromBytes(bytes, format as SourceFormat, { keys: o.keys });
+    const raw = rawFromBytes(bytes, format as SourceFormat, { limits: o.limits, source: job.given, keys: o.keys });
     if (job.config) {
       raw.constants = { ...readConfigFile(job.config), ...raw.constants };
       // Beside a config file the metrics file holds outcomes: its scalars never split conditions
