@@ -1,0 +1,228 @@
+import { localPeaks } from './localPeaks.js';
+import { parabolaVertex } from './parabolaVertex.js';
+import { medianSorted, quantileSorted } from './quantile.js';
+import type { Rng } from './seededRng.js';
+import { smoothCurve } from './smoothCurve.js';
+import type { CurveSmoother } from './smoothCurve.js';
+
+/** Consistency factor of the median absolute deviation for a normal distribution (1/Φ⁻¹(3/4)). */
+const MAD_NORMAL = 1.482602218505602;
+
+/** A peak of the smoothed curve: a rise and a fall that each span at least the minimum extent. */
+export interface CurvePeak {
+  /** Bin of the smoothed maximum, and the lowest bins before and after it (topographic bases). */
+  bin: number;
+  leftBase: number;
+  rightBase: number;
+  /** Location on the log axis (octaves), refined by a parabola through the smooth. */
+  u: number;
+  /** Smoothed value at the peak, and its height over the higher of the two bases. */
+  fitted: number;
+  prominence: number;
+  /** Prominence in standard errors of the smoothed peak-minus-base difference. */
+  z: number;
+  /** Octaves from the left base up to the peak, and from the peak down to the right base. */
+  rise: number;
+  fall: number;
+}
+
+export interface CurveModel {
+  smoother: CurveSmoother;
+  /** Smoothed values at the smoother's bins. */
+  fit: Float64Array;
+  /** Noise of one point: 1.4826 × MAD of the residuals about the smooth. */
+  sd: number;
+  /** Residuals about the smooth, per input point, standardised to the noise scale (residualScale). */
+  residuals: Float64Array;
+  /** Residual sd per unit noise, per bin. */
+  scale: Float64Array;
+  /** Block length of the residual bootstrap (points). */
+  blockLength: number;
+  /** Admissible peaks, most prominent first. */
+  peaks: CurvePeak[];
+}
+
+export interface CurveModelOptions {
+  /** Smallest rise and smallest fall of a peak, in octaves. */
+  minExtent: number;
+  /** Fixed smoothing bandwidth in octaves (cross-validated when absent). */
+  bandwidth?: number;
+}
+
+function robustSd(r: Float64Array): number {
+  const s = Float64Array.from(r).sort();
+  const med = medianSorted(s);
+  for (let i = 0; i < s.length; i++) s[i] = Math.abs(s[i] - med);
+  s.sort();
+  return MAD_NORMAL * medianSorted(s);
+}
+
+/**
+ * Standard deviation of a residual (point minus the smooth at its bin) per unit noise, per bin:
+ * Var(y_i − fit_b) = σ²·(1 − 2·w_bb/n_b + Σ_c w_bc²/n_c) for white noise. A smooth that follows
+ * the points closely leaves residuals far smaller than the noise; dividing by this undoes that.
+ */
+function residualScale(s: CurveSmoother): Float64Array {
+  const B = s.u.length;
+  const out = new Float64Array(B);
+  for (let b = 0; b < B; b++) {
+    let q = 0;
+    for (let c = 0; c < B; c++) q += s.w[b * B + c] ** 2 / s.count[c];
+    out[b] = Math.sqrt(Math.max(1e-6, 1 - (2 * s.w[b * B + b]) / s.count[b] + q));
+  }
+  return out;
+}
+
+/** Standardised residuals of per-point values about a bin-level fit. */
+function residualsOf(y: ArrayLike<number>, fit: Float64Array, s: CurveSmoother, scale: Float64Array, out = new Float64Array(y.length)): Float64Array {
+  for (let i = 0; i < y.length; i++) out[i] = (y[i] - fit[s.binOf[i]]) / scale[s.binOf[i]];
+  return out;
+}
+
+/** Standard error of fit[a] − fit[b] under independent noise of sd 1 per point. */
+function unitPairSe(s: CurveSmoother, a: number, b: number): number {
+  const B = s.u.length;
+  let v = 0;
+  for (let c = 0; c < B; c++) {
+    const d = s.w[a * B + c] - s.w[b * B + c];
+    if (d !== 0) v += (d * d) / s.count[c];
+  }
+  return Math.sqrt(v);
+}
+
+/** Location of the maximum of `fit` in bins [lo, hi], refined by a parabola through its neighbours. */
+export function locateMax(u: Float64Array, fit: ArrayLike<number>, lo: number, hi: number): number {
+  let k = lo;
+  for (let i = lo + 1; i <= hi; i++) if (fit[i] > fit[k]) k = i;
+  if (k <= 0 || k >= u.length - 1) return u[k];
+  return parabolaVertex(u[k - 1], fit[k - 1], u[k], fit[k], u[k + 1], fit[k + 1]);
+}
+
+/** Admissible peaks of a smoothed curve with noise `sd` (most prominent first). */
+function admissiblePeaks(s: CurveSmoother, fit: Float64Array, sd: number, minExtent: number): CurvePeak[] {
+  const out: CurvePeak[] = [];
+  for (const lp of localPeaks(fit)) {
+    if (lp.rightBase < 0) continue;
+    const rise = s.u[lp.index] - s.u[lp.leftBase];
+    const fall = s.u[lp.rightBase] - s.u[lp.index];
+    // A one-epoch spike, or a wiggle, is narrower than this on at least one side.
+    if (rise < minExtent || fall < minExtent) continue;
+    const se = sd * unitPairSe(s, lp.index, lp.keyBase);
+    const z = se > 0 ? lp.prominence / se : lp.prominence > 0 ? Infinity : 0;
+    out.push({
+      bin: lp.index,
+      leftBase: lp.leftBase,
+      rightBase: lp.rightBase,
+      u: locateMax(s.u, fit, lp.index, lp.index),
+      fitted: fit[lp.index],
+      prominence: lp.prominence,
+      z,
+      rise,
+      fall,
+    });
+  }
+  return out.sort((a, b) => b.prominence - a.prominence);
+}
+
+/**
+ * The peak model of one curve with a single value per point (one seed, or a mean over seeds with
+ * no spread in the data): smooth on the log axis (smoothCurve), estimate the noise robustly from
+ * the residuals about the smooth, and keep the local maxima of the smooth whose rise and fall
+ * each span at least `minExtent` octaves. `u` (log2 of x) must be increasing.
+ */
+export function curveModel(u: ArrayLike<number>, y: ArrayLike<number>, opts: CurveModelOptions): CurveModel {
+  const smoother = smoothCurve(u, y, { bandwidth: opts.bandwidth, maxBandwidth: Math.max(1, opts.minExtent) });
+  const fit = smoother.smooth(y);
+  const scale = residualScale(smoother);
+  const residuals = residualsOf(y, fit, smoother, scale);
+  const sd = robustSd(residuals);
+  // Block length of the order n^(1/3) (Hall, Horowitz & Jing 1995): keeps the serial correlation
+  // of evaluation noise between neighbouring epochs inside a block.
+  const blockLength = Math.max(1, Math.round(Math.cbrt(y.length)));
+  return { smoother, fit, sd, residuals, scale, blockLength, peaks: admissiblePeaks(smoother, fit, sd, opts.minExtent) };
+}
+
+/**
+ * One circular block bootstrap draw of the centred residuals (Politis & Romano 1992): blocks of
+ * `blockLength` consecutive points starting at random positions, wrapped around the end.
+ */
+function resampleResiduals(m: CurveModel, rng: Rng, out: Float64Array, centred: Float64Array): void {
+  const n = centred.length;
+  const L = m.blockLength;
+  for (let i = 0; i < n; ) {
+    const start = rng.int(n);
+    for (let k = 0; k < L && i < n; k++, i++) out[i] = centred[(start + k) % n];
+  }
+}
+
+function centredResiduals(m: CurveModel): Float64Array {
+  let mean = 0;
+  for (const r of m.residuals) mean += r;
+  mean /= m.residuals.length;
+  return Float64Array.from(m.residuals, (r) => r - mean);
+}
+
+/**
+ * Search-wide p-value of each z in `observed`: how often a curve of pure noise (block-resampled
+ * residuals of this curve, so with its heavy tails and serial correlation), put through the same
+ * smoother, noise estimate and extent rule, has an admissible peak at least that many SE tall.
+ */
+export function curveSearchP(m: CurveModel, opts: { rounds: number; rng: Rng; minExtent: number }): (z: number) => number {
+  const { rounds, rng, minExtent } = opts;
+  const centred = centredResiduals(m);
+  const e = new Float64Array(centred.length);
+  const fit = new Float64Array(m.fit.length);
+  const r = new Float64Array(centred.length);
+  const nullMax = new Float64Array(rounds);
+  for (let b = 0; b < rounds; b++) {
+    resampleResiduals(m, rng, e, centred);
+    m.smoother.smooth(e, fit);
+    const sd = robustSd(residualsOf(e, fit, m.smoother, m.scale, r));
+    let best = 0;
+    for (const pk of admissiblePeaks(m.smoother, fit, sd, minExtent)) best = Math.max(best, pk.z);
+    nullMax[b] = best;
+  }
+  nullMax.sort();
+  return (z) => {
+    let lo = 0;
+    let hi = rounds;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (nullMax[mid] >= z) hi = mid;
+      else lo = mid + 1;
+    }
+    return (rounds - lo + 1) / (rounds + 1);
+  };
+}
+
+/**
+ * Location interval of a peak by residual block bootstrap along the curve: the smooth plus
+ * resampled (standardised) residuals, smoothed again, and the maximum located between the peak's two bases.
+ * Returns sorted bootstrap locations (log axis).
+ */
+export function curveLocationDraws(m: CurveModel, pk: CurvePeak, opts: { boot: number; rng: Rng }): Float64Array {
+  const centred = centredResiduals(m);
+  const e = new Float64Array(centred.length);
+  const B = m.fit.length;
+  const means = new Float64Array(B);
+  const fit = new Float64Array(B);
+  const draws = new Float64Array(opts.boot);
+  const { count, binOf } = m.smoother;
+  for (let b = 0; b < opts.boot; b++) {
+    resampleResiduals(m, opts.rng, e, centred);
+    means.set(m.fit);
+    for (let i = 0; i < e.length; i++) means[binOf[i]] += e[i] / count[binOf[i]];
+    m.smoother.smoothBins(means, fit);
+    draws[b] = locateMax(m.smoother.u, fit, pk.leftBase, pk.rightBase);
+  }
+  return draws.sort();
+}
+
+/** Percentile interval of sorted draws at `level`, holding `est`. */
+export function percentileInterval(draws: Float64Array, est: number, level: number): { low: number; high: number } {
+  if (draws.length === 0) return { low: est, high: est };
+  return {
+    low: Math.min(est, quantileSorted(draws, (1 - level) / 2)),
+    high: Math.max(est, quantileSorted(draws, 1 - (1 - level) / 2)),
+  };
+}
