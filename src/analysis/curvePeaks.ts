@@ -21,7 +21,7 @@ export interface CurvePeak {
   prominence: number;
   /** Prominence in standard errors of the smoothed peak-minus-base difference. */
   z: number;
-  /** Octaves from the left base up to the peak, and from the peak down to the right base. */
+  /** Octaves from the peak to half its prominence, on the left (rise) and on the right (fall). */
   rise: number;
   fall: number;
 }
@@ -40,7 +40,14 @@ export interface CurveModel {
   blockLength: number;
   /** Admissible peaks, most prominent first. */
   peaks: CurvePeak[];
+  /** The curve's log-axis coordinates, the bandwidth cap, and whether the bandwidth was cross-validated. */
+  points: Float64Array;
+  maxBandwidth: number;
+  bandwidthChosen: boolean;
 }
+
+/** Fewest points for which the null and the interval resample the curve's own residuals. */
+export const RESAMPLE_MIN_POINTS = 100;
 
 export interface CurveModelOptions {
   /** Smallest rise and smallest fall of a peak, in octaves. */
@@ -98,14 +105,31 @@ export function locateMax(u: Float64Array, fit: ArrayLike<number>, lo: number, h
   return parabolaVertex(u[k - 1], fit[k - 1], u[k], fit[k], u[k + 1], fit[k + 1]);
 }
 
+/**
+ * Octaves from the peak to where the smooth first falls to `level` going left (dir −1) or right
+ * (+1), interpolated linearly between bins; the distance to the end when it never does.
+ */
+function spanTo(u: Float64Array, fit: ArrayLike<number>, k: number, level: number, dir: -1 | 1): number {
+  for (let i = k + dir; i >= 0 && i < u.length; i += dir) {
+    if (fit[i] <= level) {
+      const prev = i - dir;
+      const f = (fit[prev] - level) / (fit[prev] - fit[i]);
+      return Math.abs(u[prev] + f * (u[i] - u[prev]) - u[k]);
+    }
+  }
+  return Math.abs(u[dir < 0 ? 0 : u.length - 1] - u[k]);
+}
+
 /** Admissible peaks of a smoothed curve with noise `sd` (most prominent first). */
 function admissiblePeaks(s: CurveSmoother, fit: Float64Array, sd: number, minExtent: number): CurvePeak[] {
   const out: CurvePeak[] = [];
   for (const lp of localPeaks(fit)) {
     if (lp.rightBase < 0) continue;
-    const rise = s.u[lp.index] - s.u[lp.leftBase];
-    const fall = s.u[lp.rightBase] - s.u[lp.index];
-    // A one-epoch spike, or a wiggle, is narrower than this on at least one side.
+    // Width at half prominence on each side (scipy.signal.peak_widths with rel_height 0.5): a
+    // one-epoch spike, smoothed, is about 1.18 bandwidths wide there, a wiggle narrower still.
+    const half = fit[lp.index] - lp.prominence / 2;
+    const rise = spanTo(s.u, fit, lp.index, half, -1);
+    const fall = spanTo(s.u, fit, lp.index, half, 1);
     if (rise < minExtent || fall < minExtent) continue;
     const se = sd * unitPairSe(s, lp.index, lp.keyBase);
     const z = se > 0 ? lp.prominence / se : lp.prominence > 0 ? Infinity : 0;
@@ -131,7 +155,13 @@ function admissiblePeaks(s: CurveSmoother, fit: Float64Array, sd: number, minExt
  * each span at least `minExtent` octaves. `u` (log2 of x) must be increasing.
  */
 export function curveModel(u: ArrayLike<number>, y: ArrayLike<number>, opts: CurveModelOptions): CurveModel {
-  const smoother = smoothCurve(u, y, { bandwidth: opts.bandwidth, maxBandwidth: Math.max(1, opts.minExtent) });
+  // The bandwidth stays at or below half the minimum extent, so a smoothed one-epoch spike (about
+  // 1.18 bandwidths wide at half height) can never pass the extent rule; a coarse row (points
+  // farther apart than that) may smooth over one gap.
+  const gaps = Array.from({ length: Math.max(0, u.length - 1) }, (_, i) => u[i + 1] - u[i]).sort((a, b) => a - b);
+  const medianGap = gaps.length ? medianSorted(gaps) : 0;
+  const maxBandwidth = Math.max(opts.minExtent / 2, medianGap);
+  const smoother = smoothCurve(u, y, { bandwidth: opts.bandwidth, maxBandwidth });
   const fit = smoother.smooth(y);
   const scale = residualScale(smoother);
   const residuals = residualsOf(y, fit, smoother, scale);
@@ -139,7 +169,18 @@ export function curveModel(u: ArrayLike<number>, y: ArrayLike<number>, opts: Cur
   // Block length of the order n^(1/3) (Hall, Horowitz & Jing 1995): keeps the serial correlation
   // of evaluation noise between neighbouring epochs inside a block.
   const blockLength = Math.max(1, Math.round(Math.cbrt(y.length)));
-  return { smoother, fit, sd, residuals, scale, blockLength, peaks: admissiblePeaks(smoother, fit, sd, opts.minExtent) };
+  return {
+    smoother,
+    fit,
+    sd,
+    residuals,
+    scale,
+    blockLength,
+    peaks: admissiblePeaks(smoother, fit, sd, opts.minExtent),
+    points: Float64Array.from(u),
+    maxBandwidth,
+    bandwidthChosen: opts.bandwidth === undefined,
+  };
 }
 
 /**
@@ -170,16 +211,28 @@ function centredResiduals(m: CurveModel): Float64Array {
 export function curveSearchP(m: CurveModel, opts: { rounds: number; rng: Rng; minExtent: number }): (z: number) => number {
   const { rounds, rng, minExtent } = opts;
   const centred = centredResiduals(m);
-  const e = new Float64Array(centred.length);
+  const n = centred.length;
+  const e = new Float64Array(n);
   const fit = new Float64Array(m.fit.length);
-  const r = new Float64Array(centred.length);
+  const r = new Float64Array(n);
   const nullMax = new Float64Array(rounds);
+  // A short curve has too few residuals to stand for the noise distribution (resampling 13 of
+  // them gave 10% false peaks at a 5% level): use Gaussian noise there, and choose the bandwidth
+  // again on every simulated curve, as on the observed one. Statistics are in SE, so scale-free.
+  const short = n < RESAMPLE_MIN_POINTS;
   for (let b = 0; b < rounds; b++) {
-    resampleResiduals(m, rng, e, centred);
-    m.smoother.smooth(e, fit);
-    const sd = robustSd(residualsOf(e, fit, m.smoother, m.scale, r));
+    if (short) for (let i = 0; i < n; i++) e[i] = rng.normal();
+    else resampleResiduals(m, rng, e, centred);
+    let s = m.smoother;
+    let scale = m.scale;
+    if (short && m.bandwidthChosen) {
+      s = smoothCurve(m.points, e, { maxBandwidth: m.maxBandwidth });
+      scale = residualScale(s);
+    }
+    s.smooth(e, fit);
+    const sd = robustSd(residualsOf(e, fit, s, scale, r));
     let best = 0;
-    for (const pk of admissiblePeaks(m.smoother, fit, sd, minExtent)) best = Math.max(best, pk.z);
+    for (const pk of admissiblePeaks(s, fit, sd, minExtent)) best = Math.max(best, pk.z);
     nullMax[b] = best;
   }
   nullMax.sort();
@@ -208,8 +261,10 @@ export function curveLocationDraws(m: CurveModel, pk: CurvePeak, opts: { boot: n
   const fit = new Float64Array(B);
   const draws = new Float64Array(opts.boot);
   const { count, binOf } = m.smoother;
+  const short = e.length < RESAMPLE_MIN_POINTS;
   for (let b = 0; b < opts.boot; b++) {
-    resampleResiduals(m, opts.rng, e, centred);
+    if (short) for (let i = 0; i < e.length; i++) e[i] = m.sd * opts.rng.normal();
+    else resampleResiduals(m, opts.rng, e, centred);
     means.set(m.fit);
     for (let i = 0; i < e.length; i++) means[binOf[i]] += e[i] / count[binOf[i]];
     m.smoother.smoothBins(means, fit);

@@ -33,7 +33,7 @@ export interface RidgeOptions {
   nullRounds?: number;
   /**
    * Single-value curves (one seed, or means with no spread): smallest rise and smallest fall of
-   * a peak along the smoothed curve, in octaves of x (default 0.5: a factor √2 each way).
+   * a peak along the smoothed curve, in octaves of x, measured at half the prominence (default 0.25).
    */
   minExtent?: number;
   /** Fixed smoothing bandwidth (octaves) for single-value curves; cross-validated when absent. */
@@ -46,7 +46,7 @@ export interface RidgeOptions {
 }
 
 /** Default smallest rise and fall of a curve peak, in octaves. */
-export const DEFAULT_MIN_EXTENT = 0.5;
+export const DEFAULT_MIN_EXTENT = 0.25;
 /** Fewest points for the smoothed-curve model (fewer: the cells' own peak rule with curve noise). */
 const CURVE_MIN_POINTS = 8;
 
