@@ -20,6 +20,11 @@ export interface HurtsSegment {
    * this tall (in pair standard errors) anywhere. A segment needs both p and pSearch below alpha.
    */
   pSearch?: number;
+  /**
+   * The larger of p and pSearch, adjusted for the slices scanned (Benjamini–Hochberg); the
+   * segment is listed when this is below alpha.
+   */
+  pAdjusted?: number;
   /** Mean metric at the onset and at the peak, and the seeds behind each. */
   onsetError?: number;
   peakError?: number;
@@ -40,4 +45,7 @@ export interface HurtsResult {
   slices?: number;
   /** Slices matching `at` that hold a single train size (nothing to scan). */
   singleSize?: number;
+  /** Correction across slices, and how many slices hold a rise after it. */
+  correction?: 'benjamini-hochberg' | 'none';
+  slicesWithRise?: number;
 }

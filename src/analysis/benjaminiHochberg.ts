@@ -18,13 +18,12 @@ export function benjaminiHochberg(p: readonly number[], m = p.length): number[] 
 }
 
 /**
- * The BH-adjusted p of a further p-value `q` judged against the family `p` (for a secondary
- * peak of a row whose row-level p is in the family): min over family members p_(j) ≥ q of
- * p_(j)·m/j. q is below the BH cutoff exactly when this is at most the level.
+ * The BH-adjusted p of `q` standing in for member `at` of the family `p` (a secondary peak of a
+ * row, or a second rise of a slice, judged in its row's place): adjust the family with p[at]
+ * replaced by q and read position `at`.
  */
-export function adjustAgainst(q: number, p: readonly number[], m = p.length): number {
-  const s = p.filter(Number.isFinite).sort((a, b) => a - b);
-  let best = 1;
-  for (let j = 0; j < s.length; j++) if (s[j] >= q) best = Math.min(best, (s[j] * m) / (j + 1));
-  return Math.min(1, Math.max(q, best));
+export function adjustedAs(q: number, p: readonly number[], at: number, m = p.length): number {
+  const f = [...p];
+  f[at] = q;
+  return benjaminiHochberg(f, m)[at];
 }

@@ -1,4 +1,5 @@
 import { localPeaks } from './localPeaks.js';
+import { nullMaxP } from './nullMaxP.js';
 import { parabolaVertex } from './parabolaVertex.js';
 import { medianSorted, quantileSorted } from './quantile.js';
 import type { Rng } from './seededRng.js';
@@ -236,16 +237,7 @@ export function curveSearchP(m: CurveModel, opts: { rounds: number; rng: Rng; mi
     nullMax[b] = best;
   }
   nullMax.sort();
-  return (z) => {
-    let lo = 0;
-    let hi = rounds;
-    while (lo < hi) {
-      const mid = (lo + hi) >> 1;
-      if (nullMax[mid] >= z) hi = mid;
-      else lo = mid + 1;
-    }
-    return (rounds - lo + 1) / (rounds + 1);
-  };
+  return nullMaxP(nullMax);
 }
 
 /**

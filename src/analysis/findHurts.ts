@@ -1,6 +1,7 @@
 import type { Cell } from '../cells/Cell.js';
 import { analysisText } from '../messages.js';
 import { usageError } from '../UserError.js';
+import { adjustedAs } from './benjaminiHochberg.js';
 import type { HurtsResult, HurtsSegment } from './Hurts.js';
 import { localPeaks } from './localPeaks.js';
 import { searchWideP } from './searchWideP.js';
@@ -23,6 +24,11 @@ export interface HurtsOptions {
    * must also be taller, in SE, than the tallest rise noise alone produces anywhere along the slice.
    */
   nullRounds?: number;
+  /**
+   * Correction across the slices scanned (default Benjamini–Hochberg 1995: false discovery rate
+   * at `alpha`); 'none' judges each slice alone.
+   */
+  correction?: 'benjamini-hochberg' | 'none';
 }
 
 /** The axes a hurts slice is fixed on; train_size runs along it. */
@@ -56,6 +62,7 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
   const boot = Math.max(1, Math.floor(opts.boot ?? 1000));
   const seed = opts.seed ?? 1;
   const nullRounds = Math.max(0, Math.floor(opts.nullRounds ?? 1000));
+  const correction = opts.correction ?? 'benjamini-hochberg';
   for (const k of Object.keys(at)) {
     if (!(HURTS_SLICE_KEYS as readonly string[]).includes(k)) throw usageError(analysisText.badHurtsAt(k));
   }
@@ -72,7 +79,7 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
   }
   const keys = [...slices.keys()].sort();
 
-  const segments: HurtsSegment[] = [];
+  const candidates: (HurtsSegment & { q: number })[][] = [];
   let scanned = 0;
   keys.forEach((key, sliceIndex) => {
     const series = slices.get(key)!.sort((a, b) => a.train_size - b.train_size);
@@ -169,8 +176,24 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
     found.sort((a, b) => b.rise - a.rise);
     const kept: typeof found = [];
     for (const s of found) if (!kept.some((k) => s.i0 >= k.i0 && s.i1 <= k.i1)) kept.push(s);
-    for (const { i0: _i0, i1: _i1, ...s } of kept) segments.push(s);
+    // A rise counts only when both tests pass: its p for the correction is the larger of the two.
+    candidates.push(kept.map(({ i0: _i0, i1: _i1, ...s }) => ({ ...s, q: Math.max(s.p, s.pSearch ?? s.p) })));
   });
+  // Benjamini–Hochberg across the slices scanned, on each slice's smallest p; slices without a
+  // candidate rise count as p = 1. Every rise is then judged by its BH-adjusted p.
+  const sliceP = candidates.map((c) => Math.min(1, ...c.map((s) => s.q)));
+  const segments: HurtsSegment[] = [];
+  let withRise = 0;
+  for (const [at, slice] of candidates.entries()) {
+    let any = false;
+    for (const { q, ...s } of slice) {
+      const pAdjusted = correction === 'none' ? q : adjustedAs(q, sliceP, at);
+      if (!(pAdjusted < alpha)) continue;
+      segments.push({ ...s, pAdjusted });
+      any = true;
+    }
+    if (any) withRise++;
+  }
   segments.sort((a, b) => b.rise - a.rise || a.p - b.p);
-  return { metric, fixed: { ...at }, segments, alpha, slices: scanned, singleSize: keys.length - scanned };
+  return { metric, fixed: { ...at }, segments, alpha, slices: scanned, singleSize: keys.length - scanned, correction, slicesWithRise: withRise };
 }

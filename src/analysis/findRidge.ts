@@ -5,7 +5,7 @@ import { thresholdCrossing } from './findThreshold.js';
 import { localPeaks } from './localPeaks.js';
 import type { LocalPeak } from './localPeaks.js';
 import { parabolaVertex } from './parabolaVertex.js';
-import { adjustAgainst } from './benjaminiHochberg.js';
+import { adjustedAs } from './benjaminiHochberg.js';
 import { curveLocationDraws, curveModel, curveSearchP, percentileInterval } from './curvePeaks.js';
 import { searchWideP } from './searchWideP.js';
 import type { Peak, RidgeResult, RidgeRow } from './Ridge.js';
@@ -252,13 +252,15 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
 
   // Multiple testing across the rows scanned: Benjamini–Hochberg on each row's smallest p (the
   // search-wide p of its tallest bump); rows that were scanned but had nothing to test count as p = 1.
-  const scannedRows = work.filter((w) => w.scanned).length;
-  const rowP = work.map((w) => Math.min(...w.candidates.filter((c) => c.z >= minProminence).map((c) => c.p).filter(Number.isFinite)));
-  const family = rowP.filter(Number.isFinite);
-  const adjust = (p: number) => (correction === 'none' || Number.isNaN(p) ? p : adjustAgainst(p, family, scannedRows));
+  const scanned = work.filter((w) => w.scanned);
+  const scannedRows = scanned.length;
+  const family = scanned.map((w) => Math.min(1, ...w.candidates.filter((c) => c.z >= minProminence && Number.isFinite(c.p)).map((c) => c.p)));
+  const adjust = (p: number, at: number) => (correction === 'none' || Number.isNaN(p) || at < 0 ? p : adjustedAs(p, family, at));
 
-  const rows: RidgeRow[] = work.map(({ row, candidates }) => {
-    const scored = candidates.map((c) => ({ c, pAdj: adjust(c.p) }));
+  const rows: RidgeRow[] = work.map((w) => {
+    const { row, candidates } = w;
+    const at = scanned.indexOf(w);
+    const scored = candidates.map((c) => ({ c, pAdj: adjust(c.p, at) }));
     const passes = (s: { c: Candidate; pAdj: number }) => s.c.z >= minProminence && !(s.pAdj >= alpha);
     const significant = scored.filter(passes).sort((a, b) => b.c.prominence - a.c.prominence);
     if (significant.length === 0) {
