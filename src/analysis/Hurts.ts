@@ -6,6 +6,9 @@ export interface HurtsSegment {
   fixed: Record<string, number | string>;
   /** Last train size before the rise. */
   onset: number;
+  /** Bootstrap interval of the onset (train sizes of cells), at the result's level. */
+  onsetLow?: number;
+  onsetHigh?: number;
   /** Train size at the top of the rise. */
   peak: number;
   /** Train size where the error falls back to the onset level (interpolated in log size); null when not reached. */

@@ -1,3 +1,4 @@
+import { despike } from './despike.js';
 import { localPeaks } from './localPeaks.js';
 import { nullMaxP } from './nullMaxP.js';
 import { parabolaVertex } from './parabolaVertex.js';
@@ -41,6 +42,8 @@ export interface CurveModel {
   blockLength: number;
   /** Admissible peaks, most prominent first. */
   peaks: CurvePeak[];
+  /** Points the Hampel filter replaced as single-epoch spikes. */
+  spikes: number;
   /** The curve's log-axis coordinates, the bandwidth cap, and whether the bandwidth was cross-validated. */
   points: Float64Array;
   maxBandwidth: number;
@@ -49,6 +52,8 @@ export interface CurveModel {
 
 /** Fewest points for which the null and the interval resample the curve's own residuals. */
 export const RESAMPLE_MIN_POINTS = 100;
+/** Most bins for which the null chooses the bandwidth again on every simulated curve (cost grows as bins²). */
+const RESELECT_MAX_BINS = 128;
 
 export interface CurveModelOptions {
   /** Smallest rise and smallest fall of a peak, in octaves. */
@@ -162,10 +167,13 @@ export function curveModel(u: ArrayLike<number>, y: ArrayLike<number>, opts: Cur
   const gaps = Array.from({ length: Math.max(0, u.length - 1) }, (_, i) => u[i + 1] - u[i]).sort((a, b) => a - b);
   const medianGap = gaps.length ? medianSorted(gaps) : 0;
   const maxBandwidth = Math.max(opts.minExtent / 2, medianGap);
-  const smoother = smoothCurve(u, y, { bandwidth: opts.bandwidth, maxBandwidth });
-  const fit = smoother.smooth(y);
+  // Single-epoch spikes go first (Hampel filter), so they neither raise the smooth nor the noise.
+  const clean = new Float64Array(y.length);
+  const spikes = despike(y, clean);
+  const smoother = smoothCurve(u, clean, { bandwidth: opts.bandwidth, maxBandwidth });
+  const fit = smoother.smooth(clean);
   const scale = residualScale(smoother);
-  const residuals = residualsOf(y, fit, smoother, scale);
+  const residuals = residualsOf(clean, fit, smoother, scale);
   const sd = robustSd(residuals);
   // Block length of the order n^(1/3) (Hall, Horowitz & Jing 1995): keeps the serial correlation
   // of evaluation noise between neighbouring epochs inside a block.
@@ -179,6 +187,7 @@ export function curveModel(u: ArrayLike<number>, y: ArrayLike<number>, opts: Cur
     blockLength,
     peaks: admissiblePeaks(smoother, fit, sd, opts.minExtent),
     points: Float64Array.from(u),
+    spikes,
     maxBandwidth,
     bandwidthChosen: opts.bandwidth === undefined,
   };
@@ -217,16 +226,21 @@ export function curveSearchP(m: CurveModel, opts: { rounds: number; rng: Rng; mi
   const fit = new Float64Array(m.fit.length);
   const r = new Float64Array(n);
   const nullMax = new Float64Array(rounds);
+  const e2 = new Float64Array(n);
   // A short curve has too few residuals to stand for the noise distribution (resampling 13 of
-  // them gave 10% false peaks at a 5% level): use Gaussian noise there, and choose the bandwidth
-  // again on every simulated curve, as on the observed one. Statistics are in SE, so scale-free.
+  // them gave 10% false peaks at a 5% level): use Gaussian noise there. Where it is affordable the
+  // bandwidth is chosen again on every simulated curve, as on the observed one (a bandwidth fitted
+  // to a noise bump makes it look taller). Statistics are in SE, so scale-free.
   const short = n < RESAMPLE_MIN_POINTS;
+  const reselect = m.bandwidthChosen && m.fit.length <= RESELECT_MAX_BINS;
   for (let b = 0; b < rounds; b++) {
     if (short) for (let i = 0; i < n; i++) e[i] = rng.normal();
     else resampleResiduals(m, rng, e, centred);
+    despike(e, e2);
+    e.set(e2);
     let s = m.smoother;
     let scale = m.scale;
-    if (short && m.bandwidthChosen) {
+    if (reselect) {
       s = smoothCurve(m.points, e, { maxBandwidth: m.maxBandwidth });
       scale = residualScale(s);
     }

@@ -6,8 +6,9 @@ import type { HurtsResult, HurtsSegment } from './Hurts.js';
 import { localPeaks } from './localPeaks.js';
 import { searchWideP } from './searchWideP.js';
 import { deriveSeed, seededRng } from './seededRng.js';
+import type { Rng } from './seededRng.js';
 import { seriesNoise } from './seriesNoise.js';
-import type { SeriesView } from './seriesNoise.js';
+import type { SeriesNoise, SeriesView } from './seriesNoise.js';
 import { welchTest } from './welchTest.js';
 
 export interface HurtsOptions {
@@ -29,6 +30,36 @@ export interface HurtsOptions {
    * at `alpha`); 'none' judges each slice alone.
    */
   correction?: 'benjamini-hochberg' | 'none';
+  /** Coverage of the onset interval (default 0.95). */
+  level?: number;
+}
+
+/**
+ * Onset interval by bootstrap: in each replicate of the series, the onset is the lowest point
+ * between the peak and the nearest point to its left that the observed series has higher than
+ * the peak; the interval runs between the (1 − level)/2 and (1 + level)/2 order statistics of
+ * those cells (nearest rank, outward, so a discrete interval never claims less than `level`),
+ * widened to hold the observed onset.
+ */
+function onsetInterval(noise: SeriesNoise, m: readonly number[], i1: number, boot: number, level: number, rng: Rng): { low: number; high: number } {
+  let start = i1 - 1;
+  while (start >= 0 && m[start] <= m[i1]) start--;
+  start++;
+  let i0 = start;
+  for (let k = start; k < i1; k++) if (m[k] < m[i0]) i0 = k;
+  if (boot <= 0 || start >= i1) return { low: i0, high: i0 };
+  const rep = new Float64Array(m.length);
+  const at = new Int32Array(boot);
+  for (let b = 0; b < boot; b++) {
+    noise.replicate(rng, rep);
+    let k0 = start;
+    for (let k = start; k < i1; k++) if (rep[k] < rep[k0]) k0 = k;
+    at[b] = k0;
+  }
+  at.sort();
+  const lo = at[Math.max(0, Math.floor(((1 - level) / 2) * boot))];
+  const hi = at[Math.min(boot - 1, Math.ceil(((1 + level) / 2) * boot) - 1)];
+  return { low: Math.min(lo, i0), high: Math.max(hi, i0) };
 }
 
 /** The axes a hurts slice is fixed on; train_size runs along it. */
@@ -63,6 +94,7 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
   const seed = opts.seed ?? 1;
   const nullRounds = Math.max(0, Math.floor(opts.nullRounds ?? 1000));
   const correction = opts.correction ?? 'benjamini-hochberg';
+  const level = opts.level ?? 0.95;
   for (const k of Object.keys(at)) {
     if (!(HURTS_SLICE_KEYS as readonly string[]).includes(k)) throw usageError(analysisText.badHurtsAt(k));
   }
@@ -145,6 +177,7 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
         pSearch = pSearchOf(zOf(noise, i0, i1));
         if (!(pSearch < alpha)) continue;
       }
+      const onsetCi = onsetInterval(noise, m, i1, boot, level, rng);
       let recovery: number | null = null;
       for (let k = i1 + 1; k < m.length; k++) {
         if (m[k] <= m[i0]) {
@@ -168,6 +201,8 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
         peakSeeds: pk.stats.n,
         noiseFrom: noise.from,
         lastSize: series[series.length - 1].train_size,
+        onsetLow: series[onsetCi.low].train_size,
+        onsetHigh: series[onsetCi.high].train_size,
         i0,
         i1,
       });
