@@ -74,7 +74,7 @@ function falsePeaks(name: string, curve: (u: number) => number, xs: number[], se
 const SIZES = Array.from({ length: 10 }, (_, i) => 100 * 2 ** i);
 const hurtsCurve = (n: number) => {
   const u = Math.log2(n / 800);
-  return u <= 0 ? 0.3 - 0.03 * u : u <= 2 ? 0.3 + 0.04 * Math.sin((Math.PI / 4) * u) ** 2 * 1 + 0.0 : 0.34 - 0.03 * (u - 2);
+  return u <= 0 ? 0.3 - 0.03 * u : u <= 2 ? 0.3 + 0.04 * Math.sin((Math.PI / 4) * u) ** 2 : 0.34 - 0.03 * (u - 2);
 };
 function hurtsCoverage(name: string, seeds: number, sd: number) {
   let found = 0;
