@@ -94,6 +94,12 @@ function locateIn(u: readonly number[], m: ArrayLike<number>, lo: number, hi: nu
  * small models often sits at the left edge. Its location is refined by a parabola in transformed
  * x, and its interval is a percentile bootstrap over seeds. Rows without a significant peak get
  * `peak: null`. The threshold is where mean train error first reaches `epsilon`.
+ *
+ * A row with one value per point (one seed, or means with no seed spread) and at least 8 points
+ * takes the smoothed-curve model instead (curveModel: peaks of the curve smoothed on the log
+ * axis whose rise and fall each span `minExtent` octaves at half prominence, significance
+ * against the same procedure on resampled noise, interval by residual block bootstrap).
+ * Significance is corrected across the rows scanned (Benjamini–Hochberg, `correction`).
  */
 export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
   const minProminence = opts.minProminence ?? 2;

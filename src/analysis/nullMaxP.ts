@@ -30,6 +30,7 @@ export function nullMaxP(nullMax: Float64Array): (observed: number) => number {
   const location = mean - EULER_GAMMA * scale;
   const useTail = finite && rounds >= 50 && scale > 0;
   return (observed) => {
+    if (Number.isNaN(observed)) return 1;
     let lo = 0;
     let hi = rounds;
     while (lo < hi) {
