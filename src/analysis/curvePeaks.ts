@@ -169,7 +169,8 @@ export function curveModel(u: ArrayLike<number>, y: ArrayLike<number>, opts: Cur
   const maxBandwidth = Math.max(opts.minExtent / 2, medianGap);
   // Single-epoch spikes go first (Hampel filter), so they neither raise the smooth nor the noise.
   const clean = new Float64Array(y.length);
-  const spikes = despike(y, clean);
+  // A peak spans at least 2·minExtent at half height: a window no wider cannot cover one.
+  const spikes = despike(y, clean, u, 2 * opts.minExtent);
   const smoother = smoothCurve(u, clean, { bandwidth: opts.bandwidth, maxBandwidth });
   const fit = smoother.smooth(clean);
   const scale = residualScale(smoother);
@@ -236,7 +237,7 @@ export function curveSearchP(m: CurveModel, opts: { rounds: number; rng: Rng; mi
   for (let b = 0; b < rounds; b++) {
     if (short) for (let i = 0; i < n; i++) e[i] = rng.normal();
     else resampleResiduals(m, rng, e, centred);
-    despike(e, e2);
+    despike(e, e2, m.points, 2 * minExtent);
     e.set(e2);
     let s = m.smoother;
     let scale = m.scale;

@@ -12,9 +12,11 @@ const CUT = 3;
  * each point is compared with the median of its 7-point window; where it departs by more than
  * 3 robust standard deviations (1.4826 × MAD of all such departures) it is replaced by that
  * median. Removes single-epoch evaluation spikes before smoothing; a broad rise spans many
- * windows and is left alone. Writes into `out` and returns how many points were replaced.
+ * windows and is left alone. Only points whose window spans at most `maxSpan` on the log axis `u`
+ * are judged: on a coarse curve a window covers a real peak, which must not be cut off.
+ * Writes into `out` and returns how many points were replaced.
  */
-export function despike(y: ArrayLike<number>, out: Float64Array): number {
+export function despike(y: ArrayLike<number>, out: Float64Array, u: ArrayLike<number>, maxSpan: number): number {
   const n = y.length;
   const med = new Float64Array(n);
   const win = new Float64Array(2 * HALF + 1);
@@ -32,7 +34,8 @@ export function despike(y: ArrayLike<number>, out: Float64Array): number {
   const cut = CUT * MAD_NORMAL * medianSorted(sorted);
   let replaced = 0;
   for (let i = 0; i < n; i++) {
-    if (n >= 2 * HALF + 1 && cut > 0 && dev[i] > cut) {
+    const span = u[Math.min(n - 1, i + HALF)] - u[Math.max(0, i - HALF)];
+    if (n >= 2 * HALF + 1 && cut > 0 && dev[i] > cut && span <= maxSpan + 1e-9) {
       out[i] = med[i];
       replaced++;
     } else out[i] = y[i];
