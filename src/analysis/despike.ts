@@ -23,10 +23,18 @@ export function despike(y: ArrayLike<number>, out: Float64Array, u: ArrayLike<nu
   for (let i = 0; i < n; i++) {
     const lo = Math.max(0, i - HALF);
     const hi = Math.min(n - 1, i + HALF);
-    const w = win.subarray(0, hi - lo + 1);
-    for (let k = lo; k <= hi; k++) w[k - lo] = y[k];
-    w.sort();
-    med[i] = medianSorted(w);
+    const len = hi - lo + 1;
+    // Insertion sort of at most 7 values: runs once per point of every simulated null curve.
+    for (let k = 0; k < len; k++) {
+      const v = y[lo + k];
+      let j = k - 1;
+      while (j >= 0 && win[j] > v) {
+        win[j + 1] = win[j];
+        j--;
+      }
+      win[j + 1] = v;
+    }
+    med[i] = len % 2 ? win[len >> 1] : (win[len / 2 - 1] + win[len / 2]) / 2;
   }
   const dev = new Float64Array(n);
   for (let i = 0; i < n; i++) dev[i] = Math.abs(y[i] - med[i]);
