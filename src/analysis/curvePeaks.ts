@@ -42,6 +42,8 @@ export interface CurveModel {
   blockLength: number;
   /** Admissible peaks, most prominent first. */
   peaks: CurvePeak[];
+  /** Resample the residuals (true) or draw Gaussian noise (false) in the null and the interval bootstrap. */
+  resample: boolean;
   /** Points the Hampel filter replaced as single-epoch spikes. */
   spikes: number;
   /** The curve's log-axis coordinates, the bandwidth cap, and whether the bandwidth was cross-validated. */
@@ -52,6 +54,13 @@ export interface CurveModel {
 
 /** Fewest points for which the null and the interval resample the curve's own residuals. */
 export const RESAMPLE_MIN_POINTS = 100;
+/**
+ * Largest mean leverage (trace of the smoother over the points) at which residuals stand for the
+ * noise: where the smooth follows each point closely, residuals are high-pass filtered noise, and
+ * resampling them makes a null far smoother than real noise (56% false peaks on 200 log-spaced
+ * points in bench/coverage.ts). Above it, Gaussian noise is used instead.
+ */
+const RESAMPLE_MAX_LEVERAGE = 0.1;
 /** Most bins for which the null chooses the bandwidth again on every simulated curve (cost grows as bins²). */
 const RESELECT_MAX_BINS = 128;
 
@@ -179,6 +188,10 @@ export function curveModel(u: ArrayLike<number>, y: ArrayLike<number>, opts: Cur
   // Block length of the order n^(1/3) (Hall, Horowitz & Jing 1995): keeps the serial correlation
   // of evaluation noise between neighbouring epochs inside a block.
   const blockLength = Math.max(1, Math.round(Math.cbrt(y.length)));
+  let trace = 0;
+  const B = smoother.u.length;
+  for (let b = 0; b < B; b++) trace += smoother.w[b * B + b];
+  const resample = y.length >= RESAMPLE_MIN_POINTS && trace / y.length <= RESAMPLE_MAX_LEVERAGE;
   return {
     smoother,
     fit,
@@ -189,6 +202,7 @@ export function curveModel(u: ArrayLike<number>, y: ArrayLike<number>, opts: Cur
     peaks: admissiblePeaks(smoother, fit, sd, opts.minExtent),
     points: Float64Array.from(u),
     spikes,
+    resample,
     maxBandwidth,
     bandwidthChosen: opts.bandwidth === undefined,
   };
@@ -232,7 +246,7 @@ export function curveSearchP(m: CurveModel, opts: { rounds: number; rng: Rng; mi
   // them gave 10% false peaks at a 5% level): use Gaussian noise there. Where it is affordable the
   // bandwidth is chosen again on every simulated curve, as on the observed one (a bandwidth fitted
   // to a noise bump makes it look taller). Statistics are in SE, so scale-free.
-  const short = n < RESAMPLE_MIN_POINTS;
+  const short = !m.resample;
   const reselect = m.bandwidthChosen && m.fit.length <= RESELECT_MAX_BINS;
   for (let b = 0; b < rounds; b++) {
     if (short) for (let i = 0; i < n; i++) e[i] = rng.normal();
@@ -268,7 +282,7 @@ export function curveLocationDraws(m: CurveModel, pk: CurvePeak, opts: { boot: n
   const fit = new Float64Array(B);
   const draws = new Float64Array(opts.boot);
   const { count, binOf } = m.smoother;
-  const short = e.length < RESAMPLE_MIN_POINTS;
+  const short = !m.resample;
   for (let b = 0; b < opts.boot; b++) {
     if (short) for (let i = 0; i < e.length; i++) e[i] = m.sd * opts.rng.normal();
     else resampleResiduals(m, opts.rng, e, centred);
