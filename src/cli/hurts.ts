@@ -19,7 +19,8 @@ interface HurtsArgs {
 }
 
 function hurtsText(r: HurtsResult, limit: number): string {
-  if (r.segments.length === 0) return t.hurtsNone(r.metric, r.slices ?? 0, r.alpha ?? 0.05);
+  if (r.segments.length === 0)
+    return t.hurtsNone(r.metric, r.slices ?? 0, r.alpha ?? 0.05) + (r.correction === 'benjamini-hochberg' && (r.slices ?? 0) > 1 ? `\n${t.hurtsSummary(0, r.slices ?? 0, r.alpha ?? 0.05)}` : '');
   const lines: string[] = [];
   for (const s of r.segments.slice(0, limit)) {
     lines.push(t.hurtsSlice(s.fixed));
