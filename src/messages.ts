@@ -217,11 +217,11 @@ export const analysisText = {
     p === undefined ? '' : `    search-wide ${fmtP(p)}` + (pAdjusted === undefined ? '' : `, adjusted for the rows scanned ${fmtP(pAdjusted).replace('p ', 'p_adj ')}`),
   ridgeSmoothed: (bandwidth: number, rise: number, fall: number) =>
     `    one value per point: peak of the curve smoothed on the log axis (bandwidth ${fmtNum(bandwidth)} octave, cross-validated), ` +
-    `rising over ${fmtNum(rise)} and falling over ${fmtNum(fall)} octaves at half height; interval from a block bootstrap of the residuals`,
+    `rising over ${fmtNum(rise)} and falling over ${fmtNum(fall)} octaves at half height; interval from a bootstrap along the curve`,
   ridgeCorrectedAway: (x: string, cx: number, z: number, p: number, pAdjusted: number, alpha: number) =>
     ` (a bump at ${x} ${fmtNum(cx)}, ${fmtNum(z)} SE, search-wide ${fmtP(p)}, is not significant after correction for the rows scanned: ${fmtP(pAdjusted).replace('p ', 'p_adj ')} >= ${alpha})`,
   ridgeCurveModel: (rows: number, minExtent: number) =>
-    `${rows} row${rows === 1 ? '' : 's'} hold one value per point (one seed, or means without seed spread): their peaks are found on the smoothed curve, ` +
+    `${rows} row${rows === 1 ? ' holds' : 's hold'} one value per point (one seed, or means without seed spread): their peaks are found on the smoothed curve, ` +
     `and a peak must rise and fall over at least ${fmtNum(minExtent)} octave each (--min-extent), so a one-epoch spike is never a peak`,
   hurtsSegment: (o: { onset: number; peak: number; recovery: number | null; rise: number; p: number; metric: string; last: number; pSearch?: number }) =>
     `from n = ${fmtNum(o.onset)} to n = ${fmtNum(o.peak)} extra data raises ${metricName(o.metric)} by ${fmtNum(o.rise)} ` +
