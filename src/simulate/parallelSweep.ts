@@ -1,6 +1,7 @@
 import type { Worker } from 'node:worker_threads';
 import { startWorker, stopWorkers } from '../workers/startWorker.js';
 import type { RowTable } from '../store/RowTable.js';
+import { addEvalNoise } from './addEvalNoise.js';
 import { concatTables } from './concatTables.js';
 import { featuresTask, featuresTasks, resolveFeaturesOptions } from './featuresSweep.js';
 import type { FeaturesSweepOptions, FeaturesTask, ResolvedFeaturesOptions } from './featuresSweep.js';
@@ -12,7 +13,8 @@ import type { FeaturesSweepOptions, FeaturesTask, ResolvedFeaturesOptions } from
  */
 export async function featuresSweepParallel(opts: FeaturesSweepOptions & { workers: number }): Promise<RowTable> {
   const r = resolveFeaturesOptions(opts);
-  return concatTables(await featuresJobsParallel({ jobs: featuresTasks(r).map((task) => ({ options: r, task })), workers: opts.workers, onRun: opts.onRun }));
+  const t = concatTables(await featuresJobsParallel({ jobs: featuresTasks(r).map((task) => ({ options: r, task })), workers: opts.workers, onRun: opts.onRun }));
+  return opts.evalNoise ? addEvalNoise(t, opts.evalNoise) : t;
 }
 
 /** One unit of simulation work: a (seed, train size) task under its own options. */
