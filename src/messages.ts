@@ -325,6 +325,17 @@ export const planText = {
   extraWidthsHint: (n: number) => `${n} of the extra runs sit at widths outside the spec (e.g. from refinement): add those widths to the spec to track them`,
   extraSeedsHint: (n: number, store: string, spec: string) =>
     `${n} of the extra runs differ from the spec only in their seed id (store seeds ${store}; spec seeds ${spec}): list the ids in the spec, e.g. seeds: [${store}]`,
+  templateDropsSettings: (missing: { name: string; values: string[] }[], duplicates: number, runs: number) => {
+    const what = missing
+      .map((m) => `{${m.name}} (${m.values.slice(0, 4).join(', ')}${m.values.length > 4 ? `, … ${m.values.length} values` : ''})`)
+      .join(', ');
+    return (
+      `--command leaves out ${what}, which ${missing.length === 1 ? 'varies' : 'vary'} among the ${runs} planned runs` +
+      `${duplicates ? `: ${duplicates} command${duplicates === 1 ? ' repeats' : 's repeat'} an earlier one (the same job launched twice)` : ': the jobs could not tell those runs apart'}. ` +
+      `Add ${missing.map((m) => `{${m.name}}`).join(' ')} to the template, or pass --allow-collapse to launch each distinct command once`
+    );
+  },
+  collapsedRuns: (n: number) => `--allow-collapse: ${n} run${n === 1 ? '' : 's'} left out of the export (same command as an earlier run)`,
   refinePeaks: (n: number, sig: number) => `analyses at the target epoch: ${n} ridge point${n === 1 ? '' : 's'} along width (${sig} significant)`,
 };
 

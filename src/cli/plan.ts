@@ -27,6 +27,7 @@ interface PlanArgs {
   maxParallel: number;
   sbatch?: string[];
   limit: number;
+  allowCollapse: boolean;
 }
 
 const UNIT_SECONDS: Record<string, number> = { s: 1, m: 60, h: 3600, d: 86400 };
@@ -111,7 +112,8 @@ export const command: CommandSpec<PlanArgs> = {
       .option('resolution', { type: 'number', default: 0.5, describe: 'refine a ridge point until the measured widths around its interval are at most this many octaves apart' })
       .option('max-parallel', { type: 'number', default: 32, describe: 'slurm: tasks running at once (#SBATCH --array=0-N%P)' })
       .option('sbatch', { type: 'string', array: true, describe: 'slurm: extra #SBATCH options without the leading dashes, e.g. --sbatch time=04:00:00 --sbatch gres=gpu:1' })
-      .option('limit', { type: 'number', default: 40, describe: 'runs to print (0 = all)' }),
+      .option('limit', { type: 'number', default: 40, describe: 'runs to print (0 = all)' })
+      .option('allow-collapse', { type: 'boolean', default: false, describe: 'shell/slurm: let --command leave out a setting that varies among the runs; each distinct command is launched once' }),
   async run(args) {
     if (args.init !== undefined) {
       const { SPEC_EXAMPLE } = await import('../plan/specExample.js');
@@ -168,19 +170,27 @@ export const command: CommandSpec<PlanArgs> = {
 
     if (args.emit) {
       const { planCsv } = await import('../plan/planCsv.js');
+      let exported = plan;
+      if (template && (args.emit === 'shell' || args.emit === 'slurm')) {
+        // Checked before anything is written: a template that drops a varying setting launches duplicates.
+        const { exportRuns } = await import('../plan/exportRuns.js');
+        const e = exportRuns({ plan, template, allowCollapse: args.allowCollapse });
+        exported = e.plan;
+        if (e.collapsed && !args.quiet) process.stderr.write(`note: ${planText.collapsedRuns(e.collapsed)}\n`);
+      }
       const { planJson } = await import('../plan/planJson.js');
       let text: string;
       let out = args.out;
       if (args.emit === 'csv') text = planCsv(plan);
       else if (args.emit === 'json') text = `${JSON.stringify(planJson(plan), null, 2)}\n`;
-      else if (args.emit === 'shell') text = (await import('../plan/planShell.js')).planShell({ plan, template: template! });
+      else if (args.emit === 'shell') text = (await import('../plan/planShell.js')).planShell({ plan: exported, template: template!, allowCollapse: args.allowCollapse });
       else {
         out ??= 'plan.sbatch';
         const csvPath = out.replace(/\.[^./]+$/, '') + '.csv';
         const { planSlurm } = await import('../plan/planSlurm.js');
-        text = planSlurm({ plan, template: template!, csvPath: resolve(csvPath), maxParallel: args.maxParallel, sbatch: (args.sbatch ?? []).map((o) => (String(o).startsWith('-') ? String(o) : `--${o}`)), jobName: spec.name });
-        writeOut(csvPath, planCsv(plan));
-        if (plan.runs.length > 1001 && !args.quiet) process.stderr.write(`note: ${planText.slurmBigArray(plan.runs.length)}\n`);
+        text = planSlurm({ plan: exported, allowCollapse: args.allowCollapse, template: template!, csvPath: resolve(csvPath), maxParallel: args.maxParallel, sbatch: (args.sbatch ?? []).map((o) => (String(o).startsWith('-') ? String(o) : `--${o}`)), jobName: spec.name });
+        writeOut(csvPath, planCsv(exported));
+        if (exported.runs.length > 1001 && !args.quiet) process.stderr.write(`note: ${planText.slurmBigArray(exported.runs.length)}\n`);
         if (!args.quiet) process.stderr.write(`${general.wroteFile(csvPath)}\n`);
       }
       if (out) {
