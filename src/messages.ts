@@ -4,6 +4,8 @@
  * Messages are functions of the facts they report, and name file, line and field where they apply.
  */
 
+import { formatNumber } from './report/formatNumber.js';
+
 const fmtPath = (p: string) => (p === '-' ? 'stdin' : p);
 
 // ── general / CLI ────────────────────────────────────────────────────────────
@@ -160,13 +162,8 @@ export const mapMessages = {
 
 
 // ── analysis (ridge, threshold, hurts) ───────────────────────────────────────
-/** Numbers as a reader wants them: sizes with thousands separators, errors with 3 significant digits. */
-const fmtNum = (v: number): string => {
-  if (!Number.isFinite(v)) return String(v);
-  if (Number.isInteger(v) && Math.abs(v) >= 1000) return v.toLocaleString('en-US');
-  const r = Number(v.toPrecision(3));
-  return Math.abs(r) >= 1000 ? Math.round(r).toLocaleString('en-US') : String(r);
-};
+/** Numbers as everywhere else in the tool (src/report/formatNumber.ts). */
+const fmtNum = (v: number): string => formatNumber(v);
 /** An interpolated size: two significant digits, because that is all the grid supports. */
 const fmtApprox = (v: number): string => fmtNum(Number(v.toPrecision(2)));
 const fmtP = (p: number): string => (p < 0.001 ? 'p < 0.001' : `p = ${Number(p.toPrecision(2))}`);
@@ -271,8 +268,8 @@ export const planText = {
   slurmEmpty: () => 'the plan is empty: nothing to put in a Slurm array',
   slurmLineBreak: (value: string) => `value ${JSON.stringify(value)} contains a line break; the Slurm array reads one CSV line per run`,
   whyGap: (status: string, epochAt: number | null, targetEpochs: number, resumed: boolean) => {
-    const epoch = epochAt === null ? '?' : epochAt.toLocaleString('en-US');
-    const target = targetEpochs.toLocaleString('en-US');
+    const epoch = epochAt === null ? '?' : formatNumber(epochAt);
+    const target = formatNumber(targetEpochs);
     return status === 'missing'
       ? 'not in the store'
       : status === 'diverged'
@@ -288,7 +285,7 @@ export const planText = {
   whyPeakSeeds: (where: string, x: string, se: number, min: number) =>
     `peak at width ${x} (${where}) is borderline: prominence ${se.toFixed(1)} SE, minimum ${min}`,
   whyHurtsSeeds: (where: string, onset: string, peak: string, p: number, alpha: number) =>
-    `more data hurts from n ${onset} to ${peak} (${where}) is borderline: p = ${p.toPrecision(2)}, alpha ${alpha}`,
+    `more data hurts from n ${onset} to ${peak} (${where}) is borderline: p = ${formatNumber(p, 2)}, alpha ${alpha}`,
   noteNoRidge: () => 'no ridge point along width resolved at the target epoch in any slice',
   noteDivergedRerun: (n: number) => `${n} diverged run${n === 1 ? '' : 's'} re-launched with the same seed (a deterministic run may diverge again: check the learning rate; --skip-diverged leaves them out)`,
   noteDivergedSkipped: (n: number) => `${n} diverged run${n === 1 ? '' : 's'} left out (--skip-diverged)`,

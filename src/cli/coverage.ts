@@ -5,6 +5,7 @@ import type { CommandSpec } from './CommandSpec.js';
 import { UserError, usageError } from '../UserError.js';
 import { general, planText } from '../messages.js';
 import type { RowTable } from '../store/RowTable.js';
+import { formatNumber } from '../report/formatNumber.js';
 import type { SweepSpec } from '../plan/SweepSpec.js';
 import type { CoverageResult } from '../plan/coverage.js';
 
@@ -45,7 +46,7 @@ export async function loadStore(opts: { store?: string; emptyIfAbsent: boolean; 
   return (await readStore(dir)).table;
 }
 
-const num = (v: number) => v.toLocaleString('en-US', { maximumFractionDigits: 6 });
+const num = (v: number) => formatNumber(v, 4);
 
 /** Writes a file, creating its folder. */
 export function writeOut(path: string, data: string | Buffer): void {

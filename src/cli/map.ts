@@ -1,6 +1,7 @@
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Argv } from 'yargs';
+import { formatNumber } from '../report/formatNumber.js';
 import type { CommandSpec } from './CommandSpec.js';
 import { parseAt } from './parseAt.js';
 import { mapMessages as msg, render as renderMsg } from '../messages.js';
@@ -60,7 +61,7 @@ function parseScales(values: string[] | undefined): Record<string, AxisScale> {
   return out;
 }
 
-const fmt = (v: number) => (Number.isFinite(v) ? (Math.abs(v) >= 1000 || Number.isInteger(v) ? String(v) : v.toPrecision(3)) : 'n/a');
+const fmt = (v: number) => formatNumber(v);
 
 /** Human summary of a map: axes, fixed values (and which were picked), method and LOO error, cell counts. */
 function summary(map: SweepMap, ridgeRows: { total: number; withPeak: number } | null, files: string[]): string[] {

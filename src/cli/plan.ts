@@ -6,6 +6,7 @@ import { UserError, usageError } from '../UserError.js';
 import { general, planText } from '../messages.js';
 import { loadSpec, loadStore, writeOut, DEFAULT_STORE } from './coverage.js';
 import type { CostModel } from '../plan/costModel.js';
+import { formatNumber } from '../report/formatNumber.js';
 import type { PlanResult } from '../plan/Plan.js';
 import type { SweepSpec } from '../plan/SweepSpec.js';
 
@@ -44,18 +45,18 @@ export function parseBudget(text: string | undefined, model: CostModel): number 
   return v * UNIT_SECONDS[unit];
 }
 
-const sig = (v: number, d = 3) => Number(v.toPrecision(d)).toLocaleString('en-US', { maximumFractionDigits: 12 });
-const num = (v: number) => v.toLocaleString('en-US', { maximumFractionDigits: 6 });
+const sig = (v: number) => formatNumber(v);
+const num = (v: number) => formatNumber(v, 4);
 
 function describeModel(model: CostModel, spec: SweepSpec): string {
   if (model.units === 'relative')
     return planText.modelRelative(`width ${num(spec.axes.width[0])}, n ${num(spec.axes.train_size[0])}, ${num(spec.epochs)} epochs`);
-  if (!model.exponentFitted) return planText.modelWidthOnly(model.runs, model.c.toPrecision(3));
+  if (!model.exponentFitted) return planText.modelWidthOnly(model.runs, formatNumber(model.c));
   return planText.modelFitted(
     model.a.toFixed(2),
     model.aSe === null ? null : model.aSe.toFixed(2),
     model.runs,
-    model.c.toPrecision(3),
+    formatNumber(model.c),
     model.spread === null ? null : Math.exp(model.spread).toFixed(2),
   );
 }

@@ -1,3 +1,4 @@
+import { formatNumber, numberExpr } from '../report/formatNumber.js';
 import type { TopLevelSpec } from 'vega-lite';
 import type { CoverageResult } from '../plan/coverage.js';
 import type { SweepSpec } from '../plan/SweepSpec.js';
@@ -51,7 +52,7 @@ export function coverageSpec(opts: { coverage: CoverageResult; spec: SweepSpec }
   const total = cov.runs.length;
   const { complete, partial, missing, diverged } = cov.counts;
   const manyConditions = spec.conditions.length > 1;
-  const fmt = (v: number) => v.toLocaleString('en-US');
+  const fmt = (v: number) => formatNumber(v);
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     title: {
@@ -71,8 +72,8 @@ export function coverageSpec(opts: { coverage: CoverageResult; spec: SweepSpec }
       width: Math.max(120, 44 * spec.axes.width.length),
       height: Math.max(80, 30 * spec.axes.train_size.length),
       encoding: {
-        x: { field: 'width', type: 'ordinal', title: 'width', sort: 'ascending', axis: { labelAngle: 0 } },
-        y: { field: 'train_size', type: 'ordinal', title: 'train size', sort: 'descending', axis: { format: ',' } },
+        x: { field: 'width', type: 'ordinal', title: 'width', sort: 'ascending', axis: { labelAngle: 0, labelExpr: numberExpr() } },
+        y: { field: 'train_size', type: 'ordinal', title: 'train size', sort: 'descending', axis: { labelExpr: numberExpr() } },
       },
       layer: [
         {

@@ -1,3 +1,4 @@
+import { formatNumber } from '../report/formatNumber.js';
 import type { TopLevelSpec } from 'vega-lite';
 import type { RidgeResult } from '../analysis/Ridge.js';
 import type { MapAxis, SweepMap } from '../grid/SweepMap.js';
@@ -89,7 +90,7 @@ function segments<T>(rows: T[], has: (r: T) => boolean): { row: T; seg: number }
   return out;
 }
 
-const fmtNumber = (v: number) => (Number.isFinite(v) ? String(Number(v.toPrecision(2))) : 'n/a');
+const fmtNumber = (v: number) => formatNumber(v, 2);
 
 /** Heatmap panels side by side (one per label noise or condition), sharing every scale. */
 export function facetHeatmapSpec(panels: MapPanel[], opts: HeatmapOptions = {}): TopLevelSpec {
