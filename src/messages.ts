@@ -53,6 +53,13 @@ export const ingestText = {
   badMappingFile: (path: string, why: string) => `--mapping ${path}: ${why}`,
   nothingFound: (paths: string) => `no readable logs found in ${paths}`,
   nothingRead: 'nothing could be read; see the reasons above',
+  nothingAccepted: (read: number, rejected: number, store: string) =>
+    read === 0
+      ? 'nothing to ingest: no rows in any source (see the notes above)'
+      : `nothing accepted from any source: ${rejected} of ${read} rows rejected (reasons above and in ${store}/rejected.csv)${rejected < read ? ', the rest pending or skipped' : ''}`,
+  gridSpecGiven: (path: string) =>
+    `${fmtPath(path)} is a grid spec (the planned sweep), not a run log: give it to --spec of coverage, plan or report`,
+  gridSpecSkipped: (path: string) => `${fmtPath(path)} is a grid spec, not a run log: left out (give it to --spec)`,
   strictFailed: (n: number) => `--strict: ${n} row${n === 1 ? '' : 's'} rejected, store left unchanged`,
   summary: (r: { read: number; accepted: number; duplicates: number; rejected: number; pending: number; skipped: number }) =>
     `read ${r.read} rows = ${r.accepted} accepted + ${r.duplicates} duplicates + ${r.rejected} rejected + ${r.pending} pending` +
@@ -101,6 +108,7 @@ export const ingestText = {
 // ── store ────────────────────────────────────────────────────────────────────
 export const storeText = {
   noStore: (dir: string) => `no store at ${dir} (run datlas ingest first)`,
+  empty: (dir: string) => `the store is empty: ${dir} holds no accepted rows (ingest run logs first; rejected rows are listed in ${dir}/rejected.csv)`,
   notAStore: (dir: string) => `${dir} holds a manifest.json that is not a datlas store`,
   badManifest: (dir: string, why: string) => `store ${dir}: manifest.json is not readable: ${why}`,
   badRows: (dir: string, why: string) => `store ${dir}: rows.arrow is not readable: ${why}`,

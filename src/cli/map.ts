@@ -119,6 +119,7 @@ export const command: CommandSpec<MapArgs> = {
     const { buildMap } = await import('../grid/buildMap.js');
     const { mapToJson } = await import('../grid/mapJson.js');
     const { table } = await readStore(args.store);
+    (await import('../store/assertRows.js')).assertRows(table, args.store);
     const map = buildMap(table, { kind: args.kind, x: args.x, y: args.y, at, metric: args.metric, method: args.method, raster, scales });
 
     let ridge = null;

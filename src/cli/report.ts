@@ -124,6 +124,7 @@ export const command: CommandSpec<ReportArgs> = {
     const { readStore } = await import('../store/readStore.js');
     const storeDir = args.store ?? DEFAULT_STORE;
     const { table, manifest } = await readStore(storeDir);
+    (await import('../store/assertRows.js')).assertRows(table, storeDir);
     const spec = args.spec ? await loadSpec(args.spec) : null;
     const title = args.title ?? spec?.name ?? msg.defaultTitle(basename(resolve(storeDir)));
     if (!(args.scale > 0 && args.scale <= 8)) throw usageError(msg.badScale(String(args.scale)));

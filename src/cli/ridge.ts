@@ -76,6 +76,7 @@ export const command: CommandSpec<RidgeArgs> = {
     const { buildMap } = await import('../grid/buildMap.js');
     const { findRidge } = await import('../analysis/findRidge.js');
     const { table } = await readStore(args.store);
+    (await import('../store/assertRows.js')).assertRows(table, args.store);
     // The ridge reads the measured cells only: the cheapest interpolator on a small raster suffices.
     const map = buildMap(table, { kind: args.kind, at, metric: args.metric, method: 'linear', raster: { nx: 16, ny: 16 } });
     const ridge = findRidge(map, { minProminence: args.minProminence, boot: args.boot, seed: args.seed, epsilon: args.epsilon, alpha: args.alpha });
