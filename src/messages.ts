@@ -268,10 +268,12 @@ export const planText = {
   specInvalid: (file: string, line: number | null, key: string, problem: string) =>
     `${fmtPath(file)}${line === null ? '' : ` line ${line}`}: ${key}: ${problem}`,
   specRequired: () => 'is required',
-  specUnknownKey: (known: string[]) => `unknown key (expected one of: ${known.join(', ')})`,
+  specUnknownKey: (key: string, parent: string, nearest: string | null, known: string[]) =>
+    `unknown key '${key}'${parent ? ` in ${parent}` : ''} ${nearest ? `(did you mean ${nearest}?)` : `(expected one of: ${known.join(', ')})`}`,
+  specUnknown: (file: string, line: number | null, problem: string) => `${fmtPath(file)}${line === null ? '' : ` line ${line}`}: ${problem}`,
   specLogNonPositive: () => 'log spacing needs values > 0 (use spacing: linear)',
   specMissing: (file: string) => `no spec file at ${fmtPath(file)} (write an example with: datlas plan --init ${file})`,
-  specFlagNeeded: () => '--spec FILE is required (write an example with: datlas plan --init sweep.yaml)',
+  specFlagNeeded: () => '--spec FILE is required (write an example with: datlas plan --init grid.yaml)',
   badPlaceholder: (name: string, known: string[]) => `--command: unknown placeholder {${name}} (known: ${known.map((k) => `{${k}}`).join(' ')})`,
   slurmEmpty: () => 'the plan is empty: nothing to put in a Slurm array',
   slurmLineBreak: (value: string) => `value ${JSON.stringify(value)} contains a line break; the Slurm array reads one CSV line per run`,

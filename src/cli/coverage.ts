@@ -78,10 +78,10 @@ function coverageJson(cov: CoverageResult, spec: SweepSpec) {
 export const command: CommandSpec<CoverageArgs> = {
   usage: 'coverage',
   describe: 'which planned runs are complete, partial, missing or diverged',
-  example: ['coverage --spec sweep.yaml --out coverage.png', 'list the gaps of the sweep and draw the width × train-size grid'],
+  example: ['coverage --spec grid.yaml --out coverage.png', 'list the gaps of the sweep and draw the width × train-size grid'],
   builder: (y: Argv) =>
     y
-      .option('spec', { type: 'string', describe: 'sweep spec (YAML or JSON; write one with datlas plan --init)' })
+      .option('spec', { type: 'string', describe: 'grid spec (YAML or JSON; write one with datlas plan --init)' })
       .option('store', { type: 'string', describe: `store directory (default ./${DEFAULT_STORE})` })
       .option('out', { type: 'string', describe: 'coverage image (.png, .svg or .pdf; its vega-lite spec is written beside)' })
       .option('limit', { type: 'number', default: 30, describe: 'gap lines to print (0 = all)' }),

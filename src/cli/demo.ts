@@ -38,6 +38,9 @@ function distinct(col: Float64Array): number[] {
  * The demo's spec: the axes the sweep ran, plus one larger train size whose runs were planned
  * but not launched yet (so coverage and plan have gaps to show). YAML, as a user would write it.
  */
+/** How a spec written by the demo begins (older versions used the words "sweep spec"). */
+const DEMO_SPEC_HEAD = '# Demo ';
+
 export function demoSpec(table: RowTable): string {
   const widths = distinct(table.width);
   const sizes = distinct(table.train_size);
@@ -46,7 +49,7 @@ export function demoSpec(table: RowTable): string {
   const epochs = Math.max(...distinct(table.epochs));
   const planned = [...sizes, PLANNED_EXTRA_TRAIN_SIZE].filter((v, i, a) => a.indexOf(v) === i).sort((a, b) => a - b);
   return [
-    '# Demo sweep spec written by `datlas demo`: the axes the simulated sweep ran, plus train size',
+    '# Demo grid spec written by `datlas demo`: the axes the simulated sweep ran, plus train size',
     `# ${PLANNED_EXTRA_TRAIN_SIZE}, planned but not run yet, so coverage and plan have gaps to show.`,
     'name: demo-random-features',
     'axes:',
@@ -115,8 +118,11 @@ export const command: CommandSpec<DemoArgs> = {
     const { table, manifest } = await readStore(store);
 
     // 3. The spec, with planned runs still missing.
-    const specPath = join(out, 'sweep.yaml');
+    const specPath = join(out, 'grid.yaml');
     writeFileSync(specPath, demoSpec(table));
+    // Earlier versions wrote the spec as sweep.yaml: remove that file when it is the demo's own.
+    const oldSpec = join(out, 'sweep.yaml');
+    if (existsSync(oldSpec) && readFileSync(oldSpec, 'utf8').startsWith(DEMO_SPEC_HEAD)) rmSync(oldSpec);
     const { parseSpec } = await import('../plan/parseSpec.js');
     const spec = parseSpec(readFileSync(specPath, 'utf8'), specPath);
 

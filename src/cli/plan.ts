@@ -95,18 +95,18 @@ export const command: CommandSpec<PlanArgs> = {
   usage: 'plan',
   describe: 'rank the next runs: gaps first, then new widths and seeds that sharpen the peak, within a budget',
   example: [
-    'plan --spec sweep.yaml --budget 48h --emit slurm --command "python train.py --width {width} --n {train_size} --noise {label_noise} --seed {seed} --epochs {epochs}" --out next.sbatch',
+    'plan --spec grid.yaml --budget 48h --emit slurm --command "python train.py --width {width} --n {train_size} --noise {label_noise} --seed {seed} --epochs {epochs}" --out next.sbatch',
     'a Slurm job array (and next.csv) for the best runs that fit 48 hours of compute',
   ],
   builder: (y: Argv) =>
     y
-      .option('spec', { type: 'string', describe: 'sweep spec (YAML or JSON)' })
+      .option('spec', { type: 'string', describe: 'grid spec (YAML or JSON)' })
       .option('store', { type: 'string', describe: `store directory (default ./${DEFAULT_STORE}; absent default = nothing run yet)` })
       .option('budget', { type: 'string', describe: 'cost cap: a number in cost units, or a time (90m, 48h, 2d) when wall time is logged' })
       .option('emit', { choices: EMITS, describe: 'export: csv, json, shell (one command per run) or slurm (job array)' })
       .option('command', { type: 'string', describe: 'command template: {width} {train_size} {label_noise} {seed} {epochs} {run} {condition} {resume_from} {index}' })
       .option('out', { type: 'string', describe: 'file for --emit (slurm: default plan.sbatch, with the plan CSV beside it)' })
-      .option('init', { type: 'string', describe: 'write a commented example spec to FILE (default sweep.yaml; - = stdout) and exit' })
+      .option('init', { type: 'string', describe: 'write a commented example spec to FILE (default grid.yaml; - = stdout) and exit' })
       .option('force', { type: 'boolean', default: false, describe: 'let --init overwrite an existing file' })
       .option('refine', { type: 'boolean', default: true, describe: 'propose new widths and seeds from the ridge and hurts analyses (--no-refine: gaps only)' })
       .option('skip-diverged', { type: 'boolean', default: false, describe: 'do not re-launch diverged runs' })
@@ -118,7 +118,7 @@ export const command: CommandSpec<PlanArgs> = {
   async run(args) {
     if (args.init !== undefined) {
       const { SPEC_EXAMPLE } = await import('../plan/specExample.js');
-      const file = args.init === '' ? 'sweep.yaml' : args.init;
+      const file = args.init === '' ? 'grid.yaml' : args.init;
       if (file === '-') {
         process.stdout.write(SPEC_EXAMPLE);
         return 0;

@@ -111,11 +111,11 @@ export function reportSummary(model: ReportModel, files: ReportFiles): string[] 
 export const command: CommandSpec<ReportArgs> = {
   usage: 'report',
   describe: 'group-meeting report: PDF deck, self-contained HTML page and PNGs with maps, ridges, hurts, coverage and plan',
-  example: ['report --store atlas-store --spec sweep.yaml --out report --title "Width sweep, CIFAR-10"', 'writes report/report.pdf, report/report.html and report/png/'],
+  example: ['report --store atlas-store --spec grid.yaml --out report --title "Width sweep, CIFAR-10"', 'writes report/report.pdf, report/report.html and report/png/'],
   builder: (y: Argv) =>
     y
       .option('store', { type: 'string', describe: `store directory (default ./${DEFAULT_STORE})` })
-      .option('spec', { type: 'string', describe: 'sweep spec (YAML or JSON): adds coverage and the proposed next runs' })
+      .option('spec', { type: 'string', describe: 'grid spec (YAML or JSON): adds coverage and the proposed next runs' })
       .option('out', { type: 'string', default: 'report', describe: 'output directory' })
       .option('title', { type: 'string', describe: 'title of the deck and page (default: the spec name or the store folder)' })
       .option('budget', { type: 'string', describe: 'cost cap for the proposed runs (as in datlas plan --budget)' })
