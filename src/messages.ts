@@ -15,6 +15,16 @@ export const general = {
   badAt: (text: string) => `--at expects axis=value (e.g. --at width=64), got '${text}'`,
   badList: (flag: string, text: string) => `${flag} expects a comma-separated list of numbers, got '${text}'`,
   wroteFile: (path: string) => `wrote ${fmtPath(path)}`,
+  // A path of the wrong kind or state (a file where a folder is needed, ...): what and where.
+  notAFolder: (file: string, wanted: string) => `${file} is a file, not a folder${wanted !== file ? ` (needed as a folder for ${wanted})` : ''}; give a folder path`,
+  existsAsFile: (path: string) => `${path} exists and is a file, not a folder; give a folder path (or remove the file)`,
+  isAFolder: (path: string) => `${path} is a folder, not a file; give a file path`,
+  noAccess: (path: string) => `permission denied: ${path}`,
+  noSuchPath: (path: string) => `no such file or folder: ${path}`,
+  noSpace: (path: string) => `no space left on the device while writing ${path}`,
+  atTwice: (name: string, a: string, b: string) => `--at ${name} given twice (${a} and ${b}); give one value per axis`,
+  version: (name: string, version: string) => `${name} ${version}`,
+  commandList: 'name a command; the commands are:',
 };
 
 // ── ingest ───────────────────────────────────────────────────────────────────
@@ -148,8 +158,13 @@ export const mapMessages = {
   atOnMapAxis: (name: string) => `--at fixes '${name}', but '${name}' is an axis of this map; drop it or choose other axes`,
   atUnknown: (name: string, allowed: readonly string[]) => `--at names '${name}', which is not one of ${allowed.join(', ')}`,
   atNotNumber: (name: string, value: string) => `--at ${name}=${value}: ${name} takes a number`,
-  atValueAbsent: (name: string, value: number | string, available: readonly (number | string)[]) =>
-    `no rows with ${name}=${value}; values present: ${available.slice(0, 20).join(', ')}${available.length > 20 ? ', ...' : ''}`,
+  atValueAbsent: (name: string, value: number | string, available: readonly (number | string)[]) => {
+    if (available.length === 0) return `no rows with ${name}=${value}: no row has any ${name} value`;
+    if (available.every((v) => v === '')) return `no rows with ${name}=${value}: this sweep has no ${name}s (every run's ${name} is empty); drop --at ${name}`;
+    const sorted = [...available].sort((a, b) => (typeof a === 'number' && typeof b === 'number' ? a - b : String(a) < String(b) ? -1 : 1));
+    const shown = sorted.slice(0, 20).map((v) => (typeof v === 'number' ? formatNumber(v, 6) : v === '' ? '"" (none)' : JSON.stringify(v)));
+    return `no rows with ${name}=${value}; values present: ${shown.join(', ')}${available.length > 20 ? `, … (${available.length} values)` : ''}`;
+  },
   noMetric: (metric: string) => `no row has a finite ${metric}${metric === 'test_error' ? ' (try --metric test_loss)' : ''}`,
   noCells: (fixed: string) => `no measured cells at ${fixed} (runs may end before that epoch; they are never extrapolated)`,
   tooFewCells: (n: number, x: string, y: string) => `only ${n} measured cell(s) over ${x} × ${y}: a map needs at least 2 (3 not on one line for a 2-D field)`,
@@ -319,6 +334,7 @@ export const planText = {
   planHead: (n: number, cost: string, units: string) => `${n} run${n === 1 ? '' : 's'} planned, total cost ${cost}${units ? ` ${units}` : ''}`,
   planDropped: (n: number, cost: string, budget: string) => `${n} more run${n === 1 ? '' : 's'} (cost ${cost}) left out by --budget ${budget}`,
   planEmpty: () => 'nothing to run: every planned run is complete and no refinement is proposed',
+  planNoneFits: (budget: string) => `no run fits --budget ${budget}: the cheapest proposed run costs more (see below)`,
   modelFitted: (a: string, aSe: string | null, runs: number, c: string, spread: string | null) =>
     `cost model: seconds = c · width^a · train_size · epochs, a = ${a}${aSe ? ` ± ${aSe}` : ''}, c = ${c} (least squares in log space over ${runs} runs' wall time${spread ? `; a run's cost is typically off by ×${spread}` : ''})`,
   modelWidthOnly: (runs: number, c: string) =>

@@ -3,6 +3,7 @@ import type { Argv } from 'yargs';
 import { UserError, usageError } from '../UserError.js';
 import { general } from '../messages.js';
 import type { CommandSpec } from './CommandSpec.js';
+import { fsErrorText } from './fsErrorText.js';
 
 /**
  * Command registry. Each entry loads its module only when that command runs (or its --help is
@@ -102,6 +103,12 @@ export async function main(args: string[]): Promise<number> {
       return err.exitCode;
     }
     const e = err as Error;
+    const fsText = fsErrorText(err);
+    if (fsText) {
+      process.stderr.write(`datlas: ${fsText}\n`);
+      if (debug && e?.stack) process.stderr.write(`${e.stack}\n`);
+      return 1;
+    }
     process.stderr.write(`datlas: ${general.internal(e?.message ?? String(err))}\n`);
     if (debug && e?.stack) process.stderr.write(`${e.stack}\n`);
     return 1;

@@ -17,7 +17,7 @@ export function parseAt(values: string[] | undefined): Record<string, number | s
       const valueText = text.slice(eq + 1).trim();
       if (eq <= 0 || name === '' || valueText === '') throw usageError(general.badAt(text));
       const value = NUMBER.test(valueText) ? Number(valueText) : valueText;
-      if (name in out && out[name] !== value) throw usageError(general.badAt(`${text} (${name} given twice)`));
+      if (name in out && out[name] !== value) throw usageError(general.atTwice(name, String(out[name]), String(value)));
       out[name] = value;
     }
   }

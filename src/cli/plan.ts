@@ -208,7 +208,7 @@ export const command: CommandSpec<PlanArgs> = {
       return 0;
     }
     const lines: string[] = [];
-    if (plan.runs.length === 0) lines.push(planText.planEmpty());
+    if (plan.runs.length === 0) lines.push(plan.dropped.runs ? planText.planNoneFits(String(args.budget)) : planText.planEmpty());
     else {
       lines.push(planText.planHead(plan.runs.length, costText(plan.cost, model), model.units === 'relative' ? 'relative units' : ''));
       lines.push(...runTable(plan, spec, args.limit));

@@ -1,0 +1,73 @@
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { runCli } from '../helpers/runCli.js';
+import { parseAt } from '../../src/cli/parseAt.js';
+import { SPEC_TEXT, spec, storeFor, tableCsv } from '../plan/fixtures.js';
+import { UserError } from '../../src/UserError.js';
+import { mapMessages } from '../../src/messages.js';
+
+let dir = '';
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'datlas-paths-'));
+  writeFileSync(join(dir, 'runs.csv'), tableCsv(storeFor(spec, { removed: [{ condition: 'adam', width: 8, train_size: 1000, label_noise: 0, seed: 0 }] })));
+  writeFileSync(join(dir, 'grid.yaml'), SPEC_TEXT);
+  writeFileSync(join(dir, 'a-file'), 'not a folder\n');
+  expect(runCli(['ingest', 'runs.csv', '--quiet'], { cwd: dir }).code).toBe(0);
+});
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+const oneLine = (s: string) => {
+  expect(s.trim().split('\n')).toHaveLength(1);
+  expect(s).not.toContain('internal error');
+};
+
+describe('a path of the wrong kind gets a clear message, never an internal error', () => {
+  it('--store FILE (ENOTDIR)', () => {
+    const r = runCli(['map', '--kind', 'model', '--store', 'a-file'], { cwd: dir });
+    expect(r.code).toBe(1);
+    oneLine(r.stderr);
+    expect(r.stderr).toContain('a-file is a file, not a folder');
+  });
+
+  it('--out FILE where a folder is written (EEXIST), and a file below a file (ENOTDIR)', () => {
+    const r = runCli(['map', '--kind', 'model', '--out', 'a-file'], { cwd: dir });
+    expect(r.code).toBe(1);
+    oneLine(r.stderr);
+    expect(r.stderr).toContain('a-file exists and is a file, not a folder');
+    const c = runCli(['coverage', '--spec', 'grid.yaml', '--out', 'a-file/cov.png'], { cwd: dir });
+    expect(c.code).toBe(1);
+    oneLine(c.stderr);
+    expect(c.stderr).toContain('a-file is a file, not a folder');
+  });
+});
+
+describe('--at', () => {
+  it('given twice for one axis: says which and both values', () => {
+    expect(() => parseAt(['width=8', 'width=16'])).toThrow(new UserError('--at width given twice (8 and 16); give one value per axis', 2));
+    expect(parseAt(['width=8', 'width=8'])).toEqual({ width: 8 });
+  });
+
+  it('a value not in the sweep lists the values present, and says so when there are none', () => {
+    const noise = runCli(['map', '--kind', 'model', '--at', 'label_noise=0.3'], { cwd: dir });
+    expect(noise.code).toBe(1);
+    expect(noise.stderr.trim()).toBe('datlas: no rows with label_noise=0.3; values present: 0, 0.2');
+    const cond = runCli(['map', '--kind', 'model', '--at', 'condition=sgd'], { cwd: dir });
+    expect(cond.code).toBe(1);
+    expect(cond.stderr.trim()).toBe('datlas: no rows with condition=sgd; values present: "adam"');
+    // Never an empty list without a word.
+    expect(mapMessages.atValueAbsent('condition', 'x', [''])).toBe("no rows with condition=x: this sweep has no conditions (every run's condition is empty); drop --at condition");
+    expect(mapMessages.atValueAbsent('width', 8, [])).toBe('no rows with width=8: no row has any width value');
+  });
+});
+
+describe('plan --budget 0', () => {
+  it('does not claim every planned run is complete when runs are missing', () => {
+    const r = runCli(['plan', '--spec', 'grid.yaml', '--budget', '0', '--no-refine'], { cwd: dir });
+    expect(r.code, r.stderr).toBe(0);
+    expect(r.stdout).not.toContain('every planned run is complete');
+    expect(r.stdout).toContain('no run fits --budget 0');
+    expect(r.stdout).toMatch(/1 more run \(cost [^)]+\) left out by --budget 0/);
+  });
+});
