@@ -10,7 +10,10 @@ const fmtPath = (p: string) => (p === '-' ? 'stdin' : p);
 
 // ── general / CLI ────────────────────────────────────────────────────────────
 export const general = {
-  unknownCommand: (name: string) => `unknown command '${name}'; run 'datlas --help' for the list`,
+  unknownCommand: (name: string, nearest: string | null = null) =>
+    `unknown command '${name}'${nearest ? ` (did you mean ${nearest}?)` : ''}; run 'datlas --help' for the list`,
+  unknownFlag: (flag: string, nearest: string) => `--${flag} (did you mean --${nearest}?)`,
+  unknownFlags: (parts: string[]) => `unknown option${parts.length === 1 ? '' : 's'}: ${parts.join(', ')}`,
   internal: (what: string) => `internal error: ${what} (run again with --debug for details and report it)`,
   badAt: (text: string) => `--at expects axis=value (e.g. --at width=64), got '${text}'`,
   badList: (flag: string, text: string) => `${flag} expects a comma-separated list of numbers, got '${text}'`,

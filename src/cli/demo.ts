@@ -3,6 +3,7 @@ import { availableParallelism } from 'node:os';
 import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Argv } from 'yargs';
+import { packageRoot } from './packageInfo.js';
 import type { CommandSpec } from './CommandSpec.js';
 import { UserError } from '../UserError.js';
 import { report as msg } from '../messages.js';
@@ -19,17 +20,6 @@ export const DEMO_SWEEP = 'sample-sweeps/demo';
 export const PLANNED_EXTRA_TRAIN_SIZE = 1024;
 
 /** The package root: the nearest folder up from this module with our package.json (works from src/ and dist/). */
-function packageRoot(): string {
-  let dir = dirname(fileURLToPath(import.meta.url));
-  for (;;) {
-    const pkg = join(dir, 'package.json');
-    if (existsSync(pkg) && /"name":\s*"descent-atlas"/.test(readFileSync(pkg, 'utf8'))) return dir;
-    const up = dirname(dir);
-    if (up === dir) return resolve(dirname(fileURLToPath(import.meta.url)), '../..');
-    dir = up;
-  }
-}
-
 function distinct(col: Float64Array): number[] {
   return [...new Set(col)].filter((v) => Number.isFinite(v)).sort((a, b) => a - b);
 }

@@ -132,7 +132,7 @@ export const command: CommandSpec<IngestArgs> = {
       scale: scale as Partial<Record<Target, Scale>>,
       strict: args.strict,
       wait: args.wait,
-      progress: (total) => progressBar({ label: 'ingest', total, quiet: args.quiet, minTotal: 300 }),
+      progress: (total) => progressBar({ label: 'ingest', total, quiet: args.quiet, minTotal: 300, stage: 'reading logs' }),
     });
     const err = (line: string) => {
       if (!args.quiet) process.stderr.write(`${line}\n`);

@@ -4,6 +4,7 @@ import { UserError, usageError } from '../UserError.js';
 import { general } from '../messages.js';
 import type { CommandSpec } from './CommandSpec.js';
 import { fsErrorText } from './fsErrorText.js';
+import { nearestName } from '../nearestName.js';
 
 /**
  * Command registry. Each entry loads its module only when that command runs (or its --help is
@@ -59,18 +60,48 @@ function base(args: string[]): Argv {
     .wrap(wantsHelp ? Math.min(100, process.stdout.columns || 100) : null);
 }
 
+/** The option names a parsed command knows (yargs' own list, kebab-case spellings and aliases). */
+function knownFlags(y: unknown): string[] {
+  // yargs' instance method (not in its type declarations): the options of the command being parsed.
+  const o = (y as { getOptions?: () => { key?: Record<string, unknown>; alias?: Record<string, string[]>; hiddenOptions?: string[] } }).getOptions?.();
+  if (!o?.key) return [];
+  // Hidden options and aliases (old spellings) are never suggested: the canonical name is.
+  const skip = new Set([...(o.hiddenOptions ?? []), ...Object.values(o.alias ?? {}).flat(), 'version', '$0']);
+  return Object.keys(o.key).filter((k) => !skip.has(k) && !/[A-Z]/.test(k));
+}
+
+/** yargs' "Unknown argument(s): a, b" with the nearest known flag for each, when one is near. */
+function suggestFlags(msg: string, y: unknown): string {
+  const m = /^Unknown arguments?: (.+)$/.exec(msg.trim());
+  if (!m) return msg;
+  const known = knownFlags(y);
+  const parts = m[1].split(', ').map((a) => {
+    const near = nearestName(a, known);
+    return near ? general.unknownFlag(a, near) : `--${a}`;
+  });
+  return general.unknownFlags(parts);
+}
+
 /** Runs the CLI and returns the exit code. Never throws. */
 export async function main(args: string[]): Promise<number> {
   const debug = args.includes('--debug');
   const name = args.find((a) => !a.startsWith('-'));
+  // `datlas` alone: the command list (the help), not an error.
+  if (args.length === 0) args = ['--help'];
+  if (!name && (args.includes('--version') || args.includes('-v'))) {
+    const { packageVersion } = await import('./packageInfo.js');
+    process.stdout.write(`${general.version('datlas', packageVersion())}\n`);
+    return 0;
+  }
   let failure: { message: string; code: number } | null = null;
   let code = 0;
   try {
     // A usage error must stop yargs before any handler runs: returning from fail() lets it go on.
-    let y = base(args).fail((msg, err) => {
+    let y: Argv = base(args).fail((msg, err) => {
       if (err) throw err;
-      failure = { message: msg, code: 2 };
-      throw usageError(String(msg).replace(/\s*\n\s*/g, ' '));
+      const text = suggestFlags(String(msg).replace(/\s*\n\s*/g, ' '), y);
+      failure = { message: text, code: 2 };
+      throw usageError(text);
     });
     if (name && COMMANDS[name]) {
       const { command } = await COMMANDS[name].load();
@@ -84,9 +115,9 @@ export async function main(args: string[]): Promise<number> {
       );
     } else {
       for (const [cmd, { describe }] of Object.entries(COMMANDS)) y = y.command(cmd, describe);
-      y = y.demandCommand(1, 'name a command');
+      y = y.demandCommand(1, `${general.commandList} ${Object.keys(COMMANDS).join(', ')}`);
       if (name) {
-        process.stderr.write(`datlas: ${general.unknownCommand(name)}\n`);
+        process.stderr.write(`datlas: ${general.unknownCommand(name, nearestName(name, Object.keys(COMMANDS)))}\n`);
         return 2;
       }
     }

@@ -76,7 +76,7 @@ export async function makeReport(opts: MakeReportOptions): Promise<{ model: Repo
   ]);
   const cp = opts.spec ? await coverageAndPlan({ table: opts.table, spec: opts.spec, budget: opts.budget }) : null;
   // Roughly: 3 maps × (1 + variants); the bar is a guide, not a count of work.
-  const bar = await progressBar({ label: 'report', total: 30, quiet: opts.quiet, minTotal: 1 });
+  const bar = await progressBar({ label: 'report', total: 30, quiet: opts.quiet, minTotal: 1, stage: 'analysing' });
   const model = buildReport({
     table: opts.table,
     title: opts.title,
@@ -85,10 +85,25 @@ export async function makeReport(opts: MakeReportOptions): Promise<{ model: Repo
     coverage: cp?.coverage ?? null,
     spec: opts.spec,
     plan: cp?.plan ?? null,
-    onStep: () => bar.tick(),
+    onStep: (stage) => {
+      bar.stage(stage);
+      bar.tick();
+    },
   });
   bar.done();
-  const files = await writeReport({ model, outDir: opts.out, scale: opts.scale });
+  // Drawing and writing: a bar of its own, one step per stage.
+  const stages = model.maps.length + 2;
+  const draw = await progressBar({ label: 'report', total: stages, quiet: opts.quiet, minTotal: 1, stage: 'drawing' });
+  const files = await writeReport({
+    model,
+    outDir: opts.out,
+    scale: opts.scale,
+    onStage: (stage) => {
+      draw.stage(stage);
+      draw.tick();
+    },
+  });
+  draw.done();
   return { model, files, plan: cp?.plan ?? null };
 }
 

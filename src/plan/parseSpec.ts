@@ -5,6 +5,7 @@ import type { Document } from 'yaml';
 import { UserError } from '../UserError.js';
 import { planText as msg } from '../messages.js';
 import { SPEC_SCHEMA } from './specSchema.js';
+import { nearestName } from '../nearestName.js';
 import { expandAxis } from './expandAxis.js';
 import type { AxisDef } from './expandAxis.js';
 import type { SweepSpec } from './SweepSpec.js';
@@ -52,32 +53,6 @@ function lineOf(doc: Document, lc: LineCounter, segments: string[]): number | nu
   return null;
 }
 
-/**
- * Edit distance with adjacent transpositions (optimal string alignment, Damerau 1964): 'sedes' is
- * one swap from 'seeds'. For "did you mean" on misspelt keys.
- */
-export function editDistance(a: string, b: string): number {
-  const d: number[][] = Array.from({ length: a.length + 1 }, (_, i) => Array.from({ length: b.length + 1 }, (_, j) => (i === 0 ? j : j === 0 ? i : 0)));
-  for (let i = 1; i <= a.length; i++)
-    for (let j = 1; j <= b.length; j++) {
-      const cost = a[i - 1] === b[j - 1] ? 0 : 1;
-      d[i][j] = Math.min(d[i - 1][j] + 1, d[i][j - 1] + 1, d[i - 1][j - 1] + cost);
-      if (i > 1 && j > 1 && a[i - 1] === b[j - 2] && a[i - 2] === b[j - 1]) d[i][j] = Math.min(d[i][j], d[i - 2][j - 2] + 1);
-    }
-  return d[a.length][b.length];
-}
-
-/** The known key nearest to a misspelt one, when it is near enough to be the one meant. */
-export function nearestKey(key: string, known: readonly string[]): string | null {
-  let best: string | null = null;
-  let bestD = Infinity;
-  for (const k of known) {
-    const d = editDistance(key.toLowerCase(), k.toLowerCase());
-    if (d < bestD) [best, bestD] = [k, d];
-  }
-  return best !== null && bestD <= Math.max(1, Math.floor(Math.max(key.length, best.length) / 3)) ? best : null;
-}
-
 // Which of ajv's errors (allErrors) to report: a misspelt key explains the "required" error it
 // causes, so unknown keys come first; the if/then/else wrappers only repeat their branch's error.
 const RANK: Record<string, number> = { additionalProperties: 0, required: 1, if: 9 };
@@ -92,7 +67,7 @@ function describeError(e: ErrorObject): { segments: string[]; key?: string; prob
   if (e.keyword === 'additionalProperties') {
     const known = Object.keys((e.parentSchema as { properties?: Record<string, unknown> } | undefined)?.properties ?? {});
     const key = String(p.additionalProperty);
-    return { segments: [...segments, key], key, problem: msg.specUnknownKey(key, pointerParent(segments), nearestKey(key, known), known) };
+    return { segments: [...segments, key], key, problem: msg.specUnknownKey(key, pointerParent(segments), nearestName(key, known), known) };
   }
   if (e.keyword === 'enum') return { segments, problem: `must be one of ${(p.allowedValues as unknown[]).join(', ')}` };
   return { segments, problem: e.message ?? 'is not valid' };

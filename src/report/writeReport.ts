@@ -40,6 +40,8 @@ export interface WriteReportOptions {
   outDir: string;
   /** Pixel ratio of the PNGs (default 2). */
   scale?: number;
+  /** Called as each stage starts (progress): "drawing the model-wise figures", "writing the PDF deck". */
+  onStage?: (stage: string) => void;
 }
 
 /** Writes beside, then renames: a reader never sees half a file. */
@@ -97,6 +99,7 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
 
   const figures: PageFigure[][] = [];
   for (const sec of model.maps) {
+    opts.onStage?.(`drawing the ${sec.kind}-wise figures`);
     const main = sec.variants[sec.main];
     const name = `map-${sec.kind}`;
     // The render stage's figures: measured cells (with key and warnings), slices, the
@@ -210,9 +213,11 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
   }
 
   const pdfPath = join(outDir, 'report.pdf');
+  opts.onStage?.('writing the PDF deck');
   writeAtomic(pdfPath, await composeDeck({ pages, footer: `${f.title} · store ${f.storeHash ?? 'unknown'} · made by datlas ${f.generatedAt}` }));
 
   const htmlPath = join(outDir, 'report.html');
+  opts.onStage?.('writing the HTML page');
   writeAtomic(
     htmlPath,
     htmlPage({
