@@ -261,12 +261,16 @@ export const render = {
     raster ? `×: missing cell, no finished run; its colour is interpolated (${n})` : `grey ×: missing cell, no finished run (${n})`,
   keyDiverged: (n: number) => `triangle: cell with diverged run(s), left out of the mean (${n})`,
   keyRidge: (from: string) => `ridge: error peak in each row; whiskers: its location interval (${from}); gap: no significant peak`,
-  keyThreshold: (x: string, eps: string, dots: boolean) =>
-    `dashed: interpolation threshold, smallest ${x} with mean train error ≤ ${eps}${dots ? ' (square: a row whose neighbours have none)' : ''}`,
+  keyThreshold: (x: string, eps: string, dots: boolean, largest = false, atEdge = 0, edge = '') =>
+    `dashed: interpolation threshold, ${largest ? 'largest' : 'smallest'} ${x} with mean train error ≤ ${eps}${dots ? ' (square: a row whose neighbours have none)' : ''}` +
+    (atEdge ? `; in ${atEdge} row${atEdge === 1 ? '' : 's'} it lies at or beyond the sweep's edge (${largest ? '≥' : '≤'} ${edge}): not drawn` : ''),
+  keyThresholdEdgeOnly: (x: string, eps: string, largest: boolean, rows: number, edge: string) =>
+    `interpolation threshold (${largest ? 'largest' : 'smallest'} ${x} with mean train error ≤ ${eps}): at or beyond the sweep's edge in ${rows} row${rows === 1 ? '' : 's'} (${largest ? '≥' : '≤'} ${edge}), not drawn`,
   keySlicesBand: (diverged: boolean, peaks: boolean) =>
     `band: 95% Student-t interval of the mean over seeds${peaks ? ' · ◆ ridge peak with its location interval' : ''}${diverged ? ' · △ cell with diverged run(s)' : ''}`,
   warnNoRidge: 'ridge not computed: no peak or threshold drawn',
   warnNoPeak: (k: number) => `no significant peak in any row (prominence ≥ ${k} standard errors): no ridge drawn`,
+  warnPeaksNotShown: (y: string, ys: string) => `no significant peak in the rows shown; the peaks are at ${y} ${ys}`,
   warnWeakPeaks: (where: string, k: number) => `not significant (prominence < ${k} standard errors): peak at ${where}`,
   warnCurveNoise: (where: string) =>
     `one seed per cell: peak interval from curve noise, not seeds (${where}); run more seeds before trusting it`,

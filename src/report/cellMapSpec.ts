@@ -112,7 +112,8 @@ export function cellMapSpec(map: SweepMap, ridge: RidgeResult | null, opts: Cell
   for (const row of [...(ridge?.rows ?? [])].sort((a, b) => a.y - b.y)) {
     if (row.peak) peaks.push({ y: row.y, x: row.peak.x, low: row.peak.low, high: row.peak.high, run: peakRun });
     else peakRun++;
-    if (row.threshold !== null) thresholds.push({ y: row.y, t: row.threshold, run: thrRun });
+    // At the sweep's edge the threshold is only a bound: not drawn as if measured.
+    if (row.threshold !== null && !row.thresholdAtEdge) thresholds.push({ y: row.y, t: row.threshold, run: thrRun });
     else thrRun++;
   }
   const xEnc = { field: 'x', type: 'quantitative', scale: xScale, title: map.x.name };
