@@ -8,6 +8,13 @@ import { formatNumber } from './report/formatNumber.js';
 
 const fmtPath = (p: string) => (p === '-' ? 'stdin' : p);
 
+/** Why the tool chose a fixed value: most data, or (levels tied on data) the largest of them. */
+export const pickWhy = (tied: number | undefined): string => (tied && tied > 1 ? ` (largest of ${tied} levels with equal data)` : ' (most data)');
+
+/** "chosen by most data: epochs, label_noise (largest of 2 levels with equal data)". */
+export const pickedList = (names: string[], ties: Record<string, number> = {}): string =>
+  `chosen by most data: ${names.map((n) => (ties[n] && ties[n] > 1 ? `${n}${pickWhy(ties[n])}` : n)).join(', ')}`;
+
 // ── general / CLI ────────────────────────────────────────────────────────────
 export const general = {
   unknownCommand: (name: string, nearest: string | null = null) =>
@@ -175,7 +182,7 @@ export const mapMessages = {
   noMethodWorked: (why: string) => `no interpolation method worked on this map: ${why}`,
   badRaster: (text: string) => `--raster expects NXxNY (e.g. 256x256) with sizes 2..2048, got '${text}'`,
   badFormat: (text: string, allowed: readonly string[]) => `--format '${text}' is not available; choose from ${allowed.join(', ')}`,
-  badScale: (text: string) => `--scale expects axis=log2|linear (e.g. --scale width=linear), got '${text}'`,
+  badScale: (text: string) => `--axis-scale expects axis=log2|linear (e.g. --axis-scale width=linear), got '${text}'`,
   droppedNonPositive: (axis: string, n: number) => `${n} cell(s) at ${axis} <= 0 left out of the log2 ${axis} axis`,
   epochsThinned: (logged: number, used: number) => `runs logged ${logged} distinct epochs; the map uses ${used} of them (every run aligned to them along its own curve)`,
   oneSeedCells: (n: number) => `${n} cell(s) have one seed: no interval there`,
@@ -211,8 +218,8 @@ export const analysisText = {
     `no cells with a finite metric at ${fmtFixed(fixed) || 'the chosen values'}; check --at against the sweep's values`,
   ridgeHeader: (kind: string, metric: string, x: string, y: string, fixed: Record<string, number | string>) =>
     `ridge of the ${kind} map: ${metricName(metric)} peak along ${x}, per ${y}` + (Object.keys(fixed).length ? ` (${fmtFixed(fixed)})` : ''),
-  picked: (names: string[], fixed: Record<string, number | string>) =>
-    `picked ${names.map((n) => `${n}=${fixed[n]}`).join(', ')} (most data); set --at to choose`,
+  picked: (names: string[], fixed: Record<string, number | string>, ties: Record<string, number> = {}) =>
+    `picked ${names.map((n) => `${n}=${fixed[n]}${pickWhy(ties[n])}`).join(', ')}; set --at to choose`,
   ridgePeak: (o: { y: string; yv: number; x: string; px: number; low: number; high: number; level: number; metric: string; error: number; prominence: number; z: number }) =>
     `${o.y} ${fmtNum(o.yv)}: peak at ${o.x} ≈ ${fmtApprox(o.px)} (${Math.round(o.level * 100)}% interval ${fmtApprox(o.low)}–${fmtApprox(o.high)}), ` +
     `${metricName(o.metric)} ${fmtNum(o.error)}, ${fmtNum(o.prominence)} above the dip (${fmtNum(o.z)} SE)`,
@@ -428,7 +435,7 @@ export const report = {
   heavyTail: (m: string) =>
     `The ${m} is a mean of squared errors, heavy-tailed near the interpolation threshold: one seed can dominate a cell's mean there, so check the seeds in the read-outs before trusting a peak's height.`,
   coverageFigure: 'The planned grid: each cell coloured by the share of its planned seeds complete, labelled done/planned (p: partial, d: diverged).',
-  badScale: (text: string) => `--scale expects a pixel ratio between 0 and 8 (e.g. 1 or 2), got '${text}'`,
+  badScale: (text: string) => `--png-scale expects a pixel ratio between 0 and 8 (e.g. 1 or 2), got '${text}'`,
   chosenPeaks: 'of the fixed values offered, the ones whose map has the most significant peaks',
   hurtsFigure:
     'Test error along train size at the widths where more data hurts most (mean over seeds, band: 95% interval; dashed: train error).',

@@ -19,7 +19,9 @@ interface ReportArgs {
   out: string;
   title?: string;
   budget?: string;
-  scale: number;
+  'png-scale': number;
+  /** Old spelling of --png-scale (hidden). */
+  scale?: number;
 }
 
 /** Short content hash of the store: sha256 over its sources' hashes (sorted), 12 hex digits. */
@@ -134,7 +136,8 @@ export const command: CommandSpec<ReportArgs> = {
       .option('out', { type: 'string', default: 'report', describe: 'output directory' })
       .option('title', { type: 'string', describe: 'title of the deck and page (default: the spec name or the store folder)' })
       .option('budget', { type: 'string', describe: 'cost cap for the proposed runs (as in datlas plan --budget)' })
-      .option('scale', { type: 'number', default: 2, describe: 'pixel ratio of the PNG images (1 = screen size, 2 = crisp on slides)' }),
+      .option('png-scale', { type: 'number', default: 2, describe: 'pixel ratio of the PNG images (1 = screen size, 2 = crisp on slides)' })
+      .option('scale', { type: 'number', hidden: true, describe: 'old spelling of --png-scale' }),
   async run(args) {
     const { readStore } = await import('../store/readStore.js');
     const storeDir = args.store ?? DEFAULT_STORE;
@@ -142,8 +145,9 @@ export const command: CommandSpec<ReportArgs> = {
     (await import('../store/assertRows.js')).assertRows(table, storeDir);
     const spec = args.spec ? await loadSpec(args.spec) : null;
     const title = args.title ?? spec?.name ?? msg.defaultTitle(basename(resolve(storeDir)));
-    if (!(args.scale > 0 && args.scale <= 8)) throw usageError(msg.badScale(String(args.scale)));
-    const { model, files } = await makeReport({ table, manifest, spec, out: args.out, title, budget: args.budget, scale: args.scale, quiet: args.quiet || args.json });
+    const pngScale = args.scale ?? args['png-scale'];
+    if (!(pngScale > 0 && pngScale <= 8)) throw usageError(msg.badScale(String(pngScale)));
+    const { model, files } = await makeReport({ table, manifest, spec, out: args.out, title, budget: args.budget, scale: pngScale, quiet: args.quiet || args.json });
     if (args.json) {
       const { reportJson } = await import('../report/reportJson.js');
       process.stdout.write(`${JSON.stringify({ files, ...reportJson(model) })}\n`);

@@ -81,7 +81,7 @@ export const command: CommandSpec<RidgeArgs> = {
     const map = buildMap(table, { kind: args.kind, at, metric: args.metric, method: 'linear', raster: { nx: 16, ny: 16 } });
     const ridge = findRidge(map, { minProminence: args.minProminence, boot: args.boot, seed: args.seed, epsilon: args.epsilon, alpha: args.alpha });
     if (!args.quiet) {
-      if (map.picked.length) process.stderr.write(`${t.picked(map.picked, map.fixed)}\n`);
+      if (map.picked.length) process.stderr.write(`${t.picked(map.picked, map.fixed, map.pickedTies)}\n`);
       for (const note of map.notes ?? []) process.stderr.write(`${note}\n`);
     }
     if (args.json) process.stdout.write(`${JSON.stringify(ridgeJson(ridge, map))}\n`);

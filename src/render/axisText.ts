@@ -1,6 +1,7 @@
 import type { MapAxis, SweepMap } from '../grid/SweepMap.js';
 import type { Metric } from '../store/RowTable.js';
 import { formatNumber, numberExpr } from '../report/formatNumber.js';
+import { pickWhy } from '../messages.js';
 
 /** Plain names of the sweep axes, as they appear in titles. */
 const AXIS_LABEL: Record<string, string> = {
@@ -61,13 +62,13 @@ export function seedsText(map: Pick<SweepMap, 'cells'>): string {
  * "train size 4,000 · label noise 20% · 3 seeds per cell · method gp".
  * Values the tool picked (most data) are marked so a reader knows they were not asked for.
  */
-export function fixedLine(map: Pick<SweepMap, 'fixed' | 'picked' | 'cells' | 'method'>, opts: { omit?: string[]; method?: boolean } = {}): string {
+export function fixedLine(map: Pick<SweepMap, 'fixed' | 'picked' | 'pickedTies' | 'cells' | 'method'>, opts: { omit?: string[]; method?: boolean } = {}): string {
   const { omit = [], method = true } = opts;
   const parts: string[] = [];
   for (const [name, value] of Object.entries(map.fixed)) {
     if (omit.includes(name)) continue;
     if (name === 'condition' && value === '') continue;
-    parts.push(fixedValueText(name, value) + (map.picked.includes(name) ? ' (most data)' : ''));
+    parts.push(fixedValueText(name, value) + (map.picked.includes(name) ? pickWhy(map.pickedTies?.[name]) : ''));
   }
   parts.push(seedsText(map));
   if (method) parts.push(`method ${map.method}`);

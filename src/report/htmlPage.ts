@@ -1,7 +1,7 @@
 import { cellMapSpec, cellRecords } from './cellMapSpec.js';
 import { escapeHtml, jsonForScript, scriptForInline } from './escapeHtml.js';
 import { formatCost, formatFixed, formatNumber } from './formatNumber.js';
-import { report as msg } from '../messages.js';
+import { pickedList, report as msg } from '../messages.js';
 import { PAGE_SCRIPT } from './pageScript.js';
 import type { MapSection, ReportModel } from './ReportModel.js';
 import { factRows, hurtsTable, planGroups, planRows, PLAN_COLUMNS, PLAN_GROUP_COLUMNS, COVERAGE_COLUMNS, COVERAGE_GROUP_COLUMNS, coverageGroups, coverageRows } from './reportTables.js';
@@ -52,7 +52,7 @@ function sectionData(sec: MapSection) {
 }
 
 function variantMeta(map: MapSection['variants'][number]['map'], main: boolean): string {
-  const picked = map.picked.length ? ` · chosen by most data: ${map.picked.join(', ')}` : '';
+  const picked = map.picked.length ? ` · ${pickedList(map.picked, map.pickedTies)}` : '';
   // Only the main variant has an interpolated field on the page (the pictures below the map).
   const field = main ? ` · pictures below: ${map.method} interpolation (leave-one-out rmse ${formatNumber(map.loo.rmse)})` : '';
   return `${map.cells.length} measured cells · ${map.missing.length} missing${field}${picked}`;

@@ -1,6 +1,6 @@
 import { mkdirSync, readdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { report as msg } from '../messages.js';
+import { pickedList, report as msg } from '../messages.js';
 import { renderSpec } from '../render/renderSpec.js';
 import { slicesSpec } from '../render/slicesSpec.js';
 import { writeMapImages } from '../render/writeMapImages.js';
@@ -132,7 +132,7 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
         : [];
     const figs: PageFigure[] = [];
     const title = `${sec.kind[0].toUpperCase()}${sec.kind.slice(1)}-wise map: ${sec.x} × ${sec.y}`;
-    const picked = sec.chosen === 'peaks' ? ` (${msg.chosenPeaks})` : main.map.picked.length ? ` (chosen by most data: ${main.map.picked.join(', ')})` : '';
+    const picked = sec.chosen === 'peaks' ? ` (${msg.chosenPeaks})` : main.map.picked.length ? ` (${pickedList(main.map.picked, main.map.pickedTies)})` : '';
     const mapSub = `at ${formatFixed(main.map.fixed)}${picked} · ${main.map.cells.length} measured cells, ${main.map.missing.length} missing`;
     const side: DeckBlock[] = [];
     if (main.ridge) {
