@@ -1,5 +1,4 @@
 import type { TopLevelSpec } from 'vega-lite';
-import { registerNumberFormat } from '../report/formatNumber.js';
 
 export type ImageFormat = 'png' | 'svg' | 'pdf';
 export const IMAGE_FORMATS: readonly ImageFormat[] = ['png', 'svg', 'pdf'];
@@ -49,7 +48,6 @@ export async function renderFormats(
 ): Promise<Partial<Record<ImageFormat, Buffer | string>>> {
   const { formats, scale = 2 } = opts;
   const vega = await import('vega');
-  registerNumberFormat(vega);
   const { vega: vgSpec } = await compileSpec(spec);
   const view = new vega.View(vega.parse(vgSpec as never), { renderer: 'none' });
   const out: Partial<Record<ImageFormat, Buffer | string>> = {};

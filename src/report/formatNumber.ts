@@ -1,7 +1,7 @@
 /**
- * The one number formatter of the tool: text, tables, chart labels (through the vega expression
- * function `datlasNumber`, registered by registerNumberFormat) and the HTML page (which embeds
- * this very function's source) all print a number the same way.
+ * The one number formatter of the tool: text, tables, chart labels (numberExpr, the same rules in
+ * vega's expression language) and the HTML page (which embeds this very function's source) all
+ * print a number the same way.
  *
  * SI style for large magnitudes, chosen once: |v| >= 1e4 as 3 significant digits with k, M, G, T
  * (56234 → "56.2k", 1e5 → "100k", 178000 → "178k", 1e6 → "1M"); integers below 1e4 exactly
@@ -37,22 +37,26 @@ export function formatNumber(v: number | null | undefined, digits = 3): string {
   return `${sign}${Number(a.toPrecision(digits))}`;
 }
 
-/** The name under which chart expressions call formatNumber (`datlasNumber(datum.value)`). */
-export const NUMBER_EXPR_FUNCTION = 'datlasNumber';
-
-/** A vega expression formatting `field` with formatNumber (e.g. an axis labelExpr). */
+/**
+ * formatNumber written in vega's expression language (d3-format underneath), for chart labels
+ * (an axis labelExpr): plain vega, so a written .vl.json opens in any vega-lite viewer. Tests check
+ * it against formatNumber value by value. d3 writes minus as U+2212; it is replaced by '-'.
+ */
 export function numberExpr(field = 'datum.value'): string {
-  return `${NUMBER_EXPR_FUNCTION}(${field})`;
+  const v = field;
+  return (
+    `!isValid(${v}) || isNaN(${v}) ? '–'` +
+    ` : abs(${v}) >= 1e4 ? replace(format(${v}, '.3~s'), '−', '-')` +
+    ` : ${v} == floor(${v}) ? replace(format(${v}, 'd'), '−', '-')` +
+    ` : abs(${v}) >= 100 ? replace(format(round(${v}), 'd'), '−', '-')` +
+    ` : abs(${v}) < 1e-3 ? replace(format(${v}, '.2~e'), '−', '-')` +
+    ` : replace(format(${v}, '.3~r'), '−', '-')`
+  );
 }
 
-/** Registers formatNumber with vega's expression language (idempotent), for headless rendering. */
-export function registerNumberFormat(vega: { expressionFunction: (name: string, fn?: unknown) => unknown }): void {
-  vega.expressionFunction(NUMBER_EXPR_FUNCTION, (v: unknown) => formatNumber(typeof v === 'number' ? v : Number.NaN));
-}
-
-/** The browser-side definition: the function's own source, bound to the same expression name. */
-export function numberFormatScript(vegaGlobal = 'vega'): string {
-  return `var formatNumber = ${formatNumber.toString()};\n${vegaGlobal}.expressionFunction(${JSON.stringify(NUMBER_EXPR_FUNCTION)}, function (v) { return formatNumber(typeof v === 'number' ? v : NaN); });\n`;
+/** The browser-side definition for the report page's read-outs: this function's own source. */
+export function numberFormatScript(): string {
+  return `var formatNumber = ${formatNumber.toString()};\n`;
 }
 
 /** "0.412 (0.398–0.425)" or "0.412" when there is no interval. */

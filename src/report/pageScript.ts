@@ -16,9 +16,8 @@ export const PAGE_SCRIPT = String.raw`
   var api = { views: views, current: current, data: data, errors: [], ready: null, render: render, cellAt: cellAt };
   window.datlas = api;
 
-  // The tool's one number format (src/report/formatNumber.ts), its source embedded below;
-  // also registered as the chart expression function the tick labels call.
-  ${numberFormatScript('vega')}
+  // The tool's one number format (src/report/formatNumber.ts), its source embedded below.
+  ${numberFormatScript()}
   function fmt(v) {
     return formatNumber(typeof v === 'number' ? v : NaN);
   }
