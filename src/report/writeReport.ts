@@ -70,7 +70,8 @@ async function writeHurtsSlices(model: ReportModel, pngDir: string, scale: numbe
   const v = sample.variants.find((x) => x.map.fixed.label_noise === seg.fixed.label_noise && x.map.fixed.epochs === seg.fixed.epochs);
   if (!v) return null;
   const widths = [...new Set(model.hurts[0].segments.filter((x) => x.fixed.label_noise === seg.fixed.label_noise && x.fixed.epochs === seg.fixed.epochs).map((x) => x.fixed.width as number))].slice(0, 4);
-  const spec = slicesSpec(v.map, v.ridge, { rows: widths });
+  // Wide and low: it shares a slide with the segments' table.
+  const spec = slicesSpec(v.map, v.ridge, { rows: widths, width: 760, height: 250 });
   const png = (await renderSpec(spec, { format: 'png', scale })) as Buffer;
   writeAtomic(join(pngDir, 'hurts-slices.vl.json'), `${JSON.stringify(spec, null, 1)}\n`);
   writeAtomic(join(pngDir, 'hurts-slices.png'), png);
@@ -171,8 +172,9 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
     pages.push({
       title: 'Where more data hurts',
       subtitle: `${h.slices ?? '?'} train-size slices at ${formatFixed(h.fixed) || 'every epoch'}, α = ${formatNumber(h.alpha ?? 0.05)}; worst rise first`,
-      columns: hurtsPng ? [[table], [{ kind: 'image', png: hurtsPng }, { kind: 'text', text: msg.hurtsFigure, size: 9.5, color: '#5b6472' }]] : [[table]],
-      widths: hurtsPng ? [1.15, 1] : undefined,
+      // The table is short (a few segments): it goes on top and the chart takes the rest of the
+      // slide at full width, instead of a third of it beside the table.
+      columns: hurtsPng ? [[table, { kind: 'image', png: hurtsPng }, { kind: 'text', text: msg.hurtsFigure, size: 9.5, color: '#5b6472' }]] : [[table]],
     });
   }
   let coveragePng: Buffer | null = null;
