@@ -29,6 +29,7 @@ export const general = {
   notAFolder: (file: string, wanted: string) => `${file} is a file, not a folder${wanted !== file ? ` (needed as a folder for ${wanted})` : ''}; give a folder path`,
   existsAsFile: (path: string) => `${path} exists and is a file, not a folder; give a folder path (or remove the file)`,
   isAFolder: (path: string) => `${path} is a folder, not a file; give a file path`,
+  folderGiven: () => 'a folder was given where a file is needed; give a file path',
   noAccess: (path: string) => `permission denied: ${path}`,
   noSuchPath: (path: string) => `no such file or folder: ${path}`,
   noSpace: (path: string) => `no space left on the device while writing ${path}`,

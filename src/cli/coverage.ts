@@ -1,4 +1,4 @@
-import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, extname } from 'node:path';
 import type { Argv } from 'yargs';
 import type { CommandSpec } from './CommandSpec.js';
@@ -26,6 +26,7 @@ export async function loadSpec(file: string | undefined): Promise<SweepSpec> {
   if (file === '-') text = readFileSync(0, 'utf8');
   else {
     if (!existsSync(file)) throw new UserError(planText.specMissing(file));
+    if (statSync(file).isDirectory()) throw usageError(general.isAFolder(file));
     text = readFileSync(file, 'utf8');
   }
   return parseSpec(text, file);

@@ -8,7 +8,9 @@ import { general } from '../messages.js';
  */
 export function fsErrorText(err: unknown): string | null {
   const e = err as (NodeJS.ErrnoException & { dest?: string }) | null;
-  if (!e || typeof e.code !== 'string' || typeof e.path !== 'string') return null;
+  if (!e || typeof e.code !== 'string') return null;
+  // Reading a folder as a file fails without a path: say what went wrong all the same.
+  if (typeof e.path !== 'string') return e.code === 'EISDIR' ? general.folderGiven() : null;
   const path = e.path;
   switch (e.code) {
     case 'ENOTDIR': {

@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../helpers/runCli.js';
 import { parseAt } from '../../src/cli/parseAt.js';
+import { fsErrorText } from '../../src/cli/fsErrorText.js';
 import { SPEC_TEXT, spec, storeFor, tableCsv } from '../plan/fixtures.js';
 import { UserError } from '../../src/UserError.js';
 import { mapMessages } from '../../src/messages.js';
@@ -40,6 +41,17 @@ describe('a path of the wrong kind gets a clear message, never an internal error
     expect(c.code).toBe(1);
     oneLine(c.stderr);
     expect(c.stderr).toContain('a-file is a file, not a folder');
+  });
+});
+
+describe('a folder where a file goes', () => {
+  it('--spec DIR is a usage error naming it; a read of a folder without a path still reads clearly', () => {
+    const r = runCli(['plan', '--spec', '.'], { cwd: dir });
+    expect(r.code).toBe(2);
+    expect(r.stderr.trim()).toBe('datlas: . is a folder, not a file; give a file path');
+    const e = Object.assign(new Error('EISDIR: illegal operation on a directory, read'), { code: 'EISDIR' });
+    expect(fsErrorText(e)).toBe('a folder was given where a file is needed; give a file path');
+    expect(fsErrorText(new Error('plain'))).toBeNull();
   });
 });
 
