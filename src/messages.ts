@@ -220,7 +220,7 @@ export const analysisText = {
   ridgeHeader: (kind: string, metric: string, x: string, y: string, fixed: Record<string, number | string>) =>
     `ridge of the ${kind} map: ${metricName(metric)} peak along ${x}, per ${y}` + (Object.keys(fixed).length ? ` (${fmtFixed(fixed)})` : ''),
   picked: (names: string[], fixed: Record<string, number | string>, ties: Record<string, number> = {}) =>
-    `picked ${names.map((n) => `${n}=${fixed[n]}${pickWhy(ties[n])}`).join(', ')}; set --at to choose`,
+    `picked ${names.map((n) => `${n}=${typeof fixed[n] === 'number' ? fmtNum(fixed[n] as number) : fixed[n]}${pickWhy(ties[n])}`).join(', ')}; set --at to choose`,
   ridgePeak: (o: { y: string; yv: number; x: string; px: number; low: number; high: number; level: number; metric: string; error: number; prominence: number; z: number }) =>
     `${o.y} ${fmtNum(o.yv)}: peak at ${o.x} ≈ ${fmtApprox(o.px)} (${Math.round(o.level * 100)}% interval ${fmtApprox(o.low)}–${fmtApprox(o.high)}), ` +
     `${metricName(o.metric)} ${fmtNum(o.error)}, ${fmtNum(o.prominence)} above the dip (${fmtNum(o.z)} SE)`,

@@ -69,7 +69,7 @@ const fmt = (v: number) => formatNumber(v);
 function summary(map: SweepMap, ridgeRows: { total: number; withPeak: number } | null, files: string[]): string[] {
   const axis = (a: SweepMap['x']) => `${a.name} (${a.scale}, ${a.values.length} value${a.values.length === 1 ? '' : 's'} ${fmt(a.values[0])}..${fmt(a.values[a.values.length - 1])})`;
   const lines = [`map ${map.kind}: ${map.metric} over ${axis(map.x)} × ${axis(map.y)}`];
-  const fixed = Object.entries(map.fixed).map(([k, v]) => `${k}=${v === '' ? '""' : v}${map.picked.includes(k) ? ` (picked: ${pickWhy(map.pickedTies?.[k]).slice(2)}` : ''}`);
+  const fixed = Object.entries(map.fixed).map(([k, v]) => `${k}=${v === '' ? '""' : typeof v === 'number' ? fmt(v) : v}${map.picked.includes(k) ? ` (picked: ${pickWhy(map.pickedTies?.[k]).slice(2)}` : ''}`);
   lines.push(`fixed: ${fixed.join(', ') || 'nothing'}`);
   const tried = Object.entries(map.loo.tried).map(([m, r]) => `${m} ${fmt(r)}`).join(', ');
   lines.push(`method: ${map.method}, leave-one-out RMSE ${fmt(map.loo.rmse)} over ${map.loo.points ?? 0} cells (tried: ${tried})`);
