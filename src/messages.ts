@@ -19,7 +19,8 @@ export const pickedList = (names: string[], ties: Record<string, number> = {}): 
 export const general = {
   unknownCommand: (name: string, nearest: string | null = null) =>
     `unknown command '${name}'${nearest ? ` (did you mean ${nearest}?)` : ''}; run 'datlas --help' for the list`,
-  unknownFlag: (flag: string, nearest: string) => `--${flag} (did you mean --${nearest}?)`,
+  unknownFlag: (flag: string, nearest: string) => `${flag} (did you mean --${nearest}?)`,
+  unexpectedWords: (words: string[]) => `unexpected argument${words.length === 1 ? '' : 's'}: ${words.map((w) => `'${w}'`).join(', ')} (this command takes options only)`,
   unknownFlags: (parts: string[]) => `unknown option${parts.length === 1 ? '' : 's'}: ${parts.join(', ')}`,
   internal: (what: string) => `internal error: ${what} (run again with --debug for details and report it)`,
   badAt: (text: string) => `--at expects axis=value (e.g. --at width=64), got '${text}'`,

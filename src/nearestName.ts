@@ -21,5 +21,6 @@ export function nearestName(name: string, known: readonly string[]): string | nu
     const d = editDistance(name.toLowerCase(), k.toLowerCase());
     if (d < bestD) [best, bestD] = [k, d];
   }
-  return best !== null && bestD <= Math.max(1, Math.floor(Math.max(name.length, best.length) / 3)) ? best : null;
+  // Near: within a third of the letters, and never a whole name replaced ('q' is not a typo of 'x').
+  return best !== null && bestD < name.length && bestD <= Math.max(1, Math.floor(Math.max(name.length, best.length) / 3)) ? best : null;
 }

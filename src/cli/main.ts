@@ -71,15 +71,21 @@ function knownFlags(y: unknown): string[] {
 }
 
 /** yargs' "Unknown argument(s): a, b" with the nearest known flag for each, when one is near. */
-function suggestFlags(msg: string, y: unknown): string {
+function suggestFlags(msg: string, y: unknown, args: string[]): string {
   const m = /^Unknown arguments?: (.+)$/.exec(msg.trim());
   if (!m) return msg;
   const known = knownFlags(y);
-  const parts = m[1].split(', ').map((a) => {
-    const near = nearestName(a, known);
-    return near ? general.unknownFlag(a, near) : `--${a}`;
-  });
-  return general.unknownFlags(parts);
+  const names = m[1].split(', ');
+  // A stray word (not an option) is named as typed, with nothing to suggest.
+  const words = names.filter((a) => args.includes(a));
+  const parts = names
+    .filter((a) => !words.includes(a))
+    .map((a) => {
+      const dash = args.includes(`-${a}`) ? '-' : '--';
+      const near = nearestName(a, known);
+      return near ? general.unknownFlag(`${dash}${a}`, near) : `${dash}${a}`;
+    });
+  return [parts.length ? general.unknownFlags(parts) : '', words.length ? general.unexpectedWords(words) : ''].filter(Boolean).join('; ');
 }
 
 /** Runs the CLI and returns the exit code. Never throws. */
@@ -99,7 +105,7 @@ export async function main(args: string[]): Promise<number> {
     // A usage error must stop yargs before any handler runs: returning from fail() lets it go on.
     let y: Argv = base(args).fail((msg, err) => {
       if (err) throw err;
-      const text = suggestFlags(String(msg).replace(/\s*\n\s*/g, ' '), y);
+      const text = suggestFlags(String(msg).replace(/\s*\n\s*/g, ' '), y, args);
       failure = { message: text, code: 2 };
       throw usageError(text);
     });

@@ -65,6 +65,8 @@ describe('datlas for a newcomer', () => {
     const far = runCli(['map', '--zzzzzz', '1']);
     expect(far.code).toBe(2);
     expect(far.stderr.trim()).toBe('datlas: unknown option: --zzzzzz');
+    expect(runCli(['map', '-q']).stderr.trim()).toBe('datlas: unknown option: -q');
+    expect(runCli(['map', 'extra']).stderr.trim()).toBe("datlas: unexpected argument: 'extra' (this command takes options only)");
     const cmd = runCli(['plna']);
     expect(cmd.code).toBe(2);
     expect(cmd.stderr).toContain("unknown command 'plna' (did you mean plan?)");
