@@ -57,18 +57,18 @@ export async function progressBar(opts: { label: string; total: number; quiet?: 
   if (quiet || !process.stderr.isTTY || total < minTotal) return silent;
   const { default: cliProgress } = await import('cli-progress');
   const bar: SingleBar = new cliProgress.SingleBar(
-    { format: `${label}: {stage} [{bar}] {value}/{total} {eta}`, stream: process.stderr, hideCursor: true, clearOnComplete: true },
+    { format: `${label}: {stage} [{bar}] {value}/{total} {remaining}`, stream: process.stderr, hideCursor: true, clearOnComplete: true },
     cliProgress.Presets.shades_classic,
   );
   const clock = () => performance.now() / 1000;
   const eta = new EtaSmoother(total, 0.15, clock());
   let done = 0;
   let stage = opts.stage ?? 'working';
-  bar.start(total, 0, { stage, eta: '' });
+  bar.start(total, 0, { stage, remaining: '' });
   return {
     tick: (by = 1) => {
       done += by;
-      bar.increment(by, { stage, eta: `eta ${formatEta(eta.update(done, clock()))}` });
+      bar.increment(by, { stage, remaining: `eta ${formatEta(eta.update(done, clock()))}` });
     },
     stage: (text: string) => {
       stage = text;
