@@ -2,6 +2,7 @@ import { cellMapSpec, cellRecords } from './cellMapSpec.js';
 import { escapeHtml, jsonForScript, scriptForInline } from './escapeHtml.js';
 import { formatCost, formatFixed, formatNumber } from './formatNumber.js';
 import { pickedList, report as msg } from '../messages.js';
+import { metricLabel } from '../render/axisText.js';
 import { PAGE_SCRIPT } from './pageScript.js';
 import type { MapSection, ReportModel } from './ReportModel.js';
 import { factRows, hurtsTable, planGroups, planRows, PLAN_COLUMNS, PLAN_GROUP_COLUMNS, COVERAGE_COLUMNS, COVERAGE_GROUP_COLUMNS, coverageGroups, coverageRows } from './reportTables.js';
@@ -38,7 +39,8 @@ function sectionData(sec: MapSection) {
     kind: sec.kind,
     x: sec.x,
     y: sec.y,
-    metric: sec.variants[sec.main]?.map.metric ?? 'test_error',
+    // The metric's label as on the figures ("test error"), not the column name.
+    metric: metricLabel(sec.variants[sec.main]?.map.metric ?? 'test_error'),
     main: sec.main,
     variants: sec.variants.map((v) => ({
       label: v.label,
@@ -140,7 +142,7 @@ export function htmlPage(opts: HtmlPageOptions): string {
 <body>
 <header>
 <h1>${esc(f.title)}</h1>
-<p class="sub">${esc(`${f.runs} runs · ${f.rows} logged rows · metric ${f.metric} · data of ${f.dataDate ?? 'unknown date'} · store ${f.storeHash ?? 'unknown'}`)}</p>
+<p class="sub">${esc(`${f.runs} runs · ${f.rows} logged rows · metric ${metricLabel(f.metric)} · data of ${f.dataDate ?? 'unknown date'} · store ${f.storeHash ?? 'unknown'}`)}</p>
 </header>
 <h2>Headline findings</h2>
 <ol class="findings">${model.findings.map((s) => `<li>${esc(s)}</li>`).join('')}</ol>
