@@ -5,6 +5,7 @@ import { general } from '../messages.js';
 import type { CommandSpec } from './CommandSpec.js';
 import { fsErrorText } from './fsErrorText.js';
 import { nearestName } from '../nearestName.js';
+import { guardOutput } from './terminalSafe.js';
 
 /**
  * Command registry. Each entry loads its module only when that command runs (or its --help is
@@ -88,8 +89,32 @@ function suggestFlags(msg: string, y: unknown, args: string[]): string {
   return [parts.length ? general.unknownFlags(parts) : '', words.length ? general.unexpectedWords(words) : ''].filter(Boolean).join('; ');
 }
 
-/** Runs the CLI and returns the exit code. Never throws. */
-export async function main(args: string[]): Promise<number> {
+/**
+ * `-` (stdin, DESIGN.md §6) as yargs would drop it: its parser reads a lone `-` as an empty group
+ * of short flags, so `ingest -` got no path and `--spec -` an unknown argument. It crosses the
+ * parser as this token (no argument from a shell can hold a NUL) and is given back before the
+ * command runs.
+ */
+const DASH = '\u0000-';
+const restoreDash = (v: unknown): unknown => (v === DASH ? '-' : Array.isArray(v) ? v.map(restoreDash) : v);
+function withDash(argv: Record<string, unknown>): Record<string, unknown> {
+  for (const k of Object.keys(argv)) argv[k] = restoreDash(argv[k]);
+  return argv;
+}
+
+/** Runs the CLI and returns the exit code. Never throws. Text it prints has control characters escaped (terminalSafe). */
+export async function main(argsGiven: string[]): Promise<number> {
+  const unguard = guardOutput();
+  try {
+    return await runMain(argsGiven);
+  } finally {
+    unguard();
+  }
+}
+
+async function runMain(argsGiven: string[]): Promise<number> {
+  const end = argsGiven.indexOf('--');
+  let args = argsGiven.map((a, i) => (a === '-' && (end < 0 || i < end) ? DASH : a));
   const debug = args.includes('--debug');
   const name = args.find((a) => !a.startsWith('-'));
   // `datlas` alone: the command list (the help), not an error.
@@ -105,7 +130,7 @@ export async function main(args: string[]): Promise<number> {
     // A usage error must stop yargs before any handler runs: returning from fail() lets it go on.
     let y: Argv = base(args).fail((msg, err) => {
       if (err) throw err;
-      const text = suggestFlags(String(msg).replace(/\s*\n\s*/g, ' '), y, args);
+      const text = suggestFlags(String(msg).split(DASH).join('-').replace(/\s*\n\s*/g, ' '), y, args);
       failure = { message: text, code: 2 };
       throw usageError(text);
     });
@@ -116,7 +141,7 @@ export async function main(args: string[]): Promise<number> {
         command.describe,
         (b) => command.builder(b).example(`$0 ${command.example[0]}`, command.example[1]),
         async (argv) => {
-          code = await command.run(argv as never);
+          code = await command.run(withDash(argv) as never);
         },
       );
     } else {
