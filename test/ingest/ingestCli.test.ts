@@ -68,7 +68,8 @@ describe('datlas ingest', () => {
 
   it('escapes control characters of user text it prints (run names, values, paths)', () => {
     const name = 'esc\u001b]0;title\u0007.csv';
-    writeFileSync(join(dir, name), 'run,width,epoch,n,test_error\nr,8,1,100,\u001b[31mbad\n');
+    // One good row beside the bad one: an ingest that accepts nothing exits 1 (nothing accepted from any source).
+    writeFileSync(join(dir, name), 'run,width,epoch,n,test_error\nr,8,1,100,\u001b[31mbad\nr,8,2,100,0.5\n');
     const r = runCli(['ingest', name, '--store', 'se'], { cwd: dir });
     expect(r.code).toBe(0);
     for (const text of [r.stdout, r.stderr]) expect(text).not.toMatch(/[\u0000-\u0008\u000b-\u001f\u007f-\u009f]/);
