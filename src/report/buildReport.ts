@@ -35,7 +35,7 @@ export interface BuildReportOptions {
   boot?: number;
   seed?: number;
   /** Called as each map variant is done (progress). */
-  onStep?: () => void;
+  onStep?: (stage: string) => void;
 }
 
 const KINDS: MapKind[] = ['model', 'sample', 'epoch'];
@@ -125,14 +125,14 @@ function peakScore(r: RidgeResult | null): [number, number] {
 function mapSection(
   table: RowTable,
   kind: MapKind,
-  o: { metric: Metric; perAxis: number; boot: number; seed: number; onStep?: () => void; at?: Record<string, number | string> },
+  o: { metric: Metric; perAxis: number; boot: number; seed: number; onStep?: (stage: string) => void; at?: Record<string, number | string> },
 ): MapSection | null {
   // The tool's own pick (most data) fixes the values not given; a cheap field is enough to learn them.
   const first = buildMap(table, { kind, metric: o.metric, ...VARIANT_FIELD, ...(o.at ? { at: o.at } : {}) });
   if (first.cells.length === 0) return null;
   const ridgeOf = (map: SweepMap): RidgeResult | null =>
     map.cells.length >= 3 ? findRidge(map, { boot: o.boot, seed: o.seed, nullRounds: o.boot }) : null;
-  o.onStep?.();
+  o.onStep?.(`analysing the ${kind}-wise maps`);
 
   // Values offered per fixed axis (the pick always among them).
   const axes: { key: string; values: (number | string)[] }[] = [];
@@ -163,7 +163,7 @@ function mapSection(
     } catch {
       // A slice the sweep does not cover (buildMap refuses it): nothing to offer there.
     }
-    o.onStep?.();
+    o.onStep?.(`analysing the ${kind}-wise maps`);
   }
   const selector = axes.map((a) => a.key).filter((key) => new Set(maps.map((m) => m.fixed[key])).size > 1);
   const variants: MapVariant[] = maps.map((map) => ({ label: variantLabel(map.fixed, selector), map, ridge: ridgeOf(map), cautions: [] }));
