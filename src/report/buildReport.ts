@@ -130,8 +130,14 @@ function mapSection(
   // The tool's own pick (most data) fixes the values not given; a cheap field is enough to learn them.
   const first = buildMap(table, { kind, metric: o.metric, ...VARIANT_FIELD, ...(o.at ? { at: o.at } : {}) });
   if (first.cells.length === 0) return null;
-  const ridgeOf = (map: SweepMap): RidgeResult | null =>
-    map.cells.length >= 3 ? findRidge(map, { boot: o.boot, seed: o.seed, nullRounds: o.boot }) : null;
+  // Epoch-wise rows are curves along epochs: the shown map keeps 100 epochs, but the curve model
+  // smooths and tests on every logged epoch (as `datlas ridge` does); thinned, a flat curve's
+  // spikes read as peaks.
+  const ridgeOf = (map: SweepMap): RidgeResult | null => {
+    if (map.cells.length < 3) return null;
+    const dense = kind === 'epoch' ? buildMap(table, { kind, metric: o.metric, ...VARIANT_FIELD, at: { ...map.fixed }, maxEpochs: 10_000 }) : map;
+    return findRidge(dense, { boot: o.boot, seed: o.seed, nullRounds: o.boot });
+  };
   o.onStep?.(`analysing the ${kind}-wise maps`);
 
   // Values offered per fixed axis (the pick always among them).
