@@ -217,6 +217,7 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   const fixed: Record<string, number | string> = {};
   for (const [key, v] of Object.entries(at)) if (isKey(key)) fixed[key] = v;
   const picked: string[] = [];
+  const pickedTies: Record<string, number> = {};
   // Only a condition that has something left can be in a row (a store of one condition never loops).
   const hasConditions = conditionValues.some((c) => restOf(c) !== '') && rows.some((i) => restOf(condition(i)) !== '');
   for (const name of PICK_ORDER) {
@@ -253,6 +254,9 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
       if (best === undefined) throw new UserError(msg.noMetric(metric));
       value = best;
       picked.push(name);
+      // Levels with as much data as the pick: the pick is only the tie-break (largest), not "most data".
+      const tied = [...counts].filter(([v, c]) => c === bestCount && !(typeof v === 'number' && !Number.isFinite(v))).length;
+      if (tied > 1) pickedTies[name] = tied;
     }
     fixed[name] = value;
     if (name !== 'epochs') {
@@ -423,6 +427,7 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
     metric,
     fixed,
     picked,
+    pickedTies,
     method,
     loo: { method, rmse: tried[method] ?? NaN, tried, points: common.length, ...(Object.keys(skipped).length ? { skipped } : {}) },
     cells: mapCells,

@@ -1,3 +1,4 @@
+import { formatNumber } from '../formatNumber.js';
 import { buildCells } from '../cells/buildCells.js';
 import type { Cell } from '../cells/Cell.js';
 import { tQuantile } from '../cells/tQuantile.js';
@@ -110,7 +111,7 @@ const SECONDARY = 0.2;
 /** One-sided normal quantile through Student t with very many degrees of freedom. */
 const zOf = (p: number) => tQuantile(1 - p, 1e7);
 
-const fmt = (v: number) => Number(v.toPrecision(4)).toLocaleString('en-US');
+const fmt = (v: number) => formatNumber(v, 4);
 
 /** Grid steps (indices i, i+1 of `values`) inside [lo, hi] coarser than `limit` octaves. */
 function coarseSteps(values: readonly number[], lo: number, hi: number, limit: number): [number, number][] {
