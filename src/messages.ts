@@ -401,3 +401,12 @@ export const report = {
   demoNext: (html: string, store: string, spec: string) =>
     `next: open ${html} in a browser; try datlas map --store ${store} --kind model --at label_noise=0.1, or datlas plan --store ${store} --spec ${spec} --budget 100`,
 };
+
+/** The library (src/api): messages for scripts that call it. */
+export const apiText = {
+  notRows: (what: string) => `expected rows: a store (openStore), an arquero table (store.toArquero()) or a RowTable, got ${what}`,
+  arqueroColumns: (missing: string[]) =>
+    `the arquero table lacks the column${missing.length === 1 ? '' : 's'} ${missing.join(', ')} (start from store.toArquero() and keep the canonical columns)`,
+  notAMap: (what: string) => `expected a map (from buildMap, or a map file read with JSON.parse), got ${what}`,
+  badOption: (name: string, value: string, what: string) => `option ${name}: expected ${what}, got '${value}'`,
+};

@@ -1,0 +1,52 @@
+import { findRidge as ridgeOfMap } from '../analysis/findRidge.js';
+import type { RidgeOptions } from '../analysis/findRidge.js';
+import { buildMap as mapOfRows } from '../grid/buildMap.js';
+import type { MapOptions as GridMapOptions } from '../grid/buildMap.js';
+import { jsonReplacer, mapFileObject } from '../grid/mapJson.js';
+import type { MapFile } from '../grid/mapJson.js';
+import type { SweepMap } from '../grid/SweepMap.js';
+import { ridgeJson } from './findRidge.js';
+import type { RidgeJson } from './findRidge.js';
+import { rowsOf } from './rowsOf.js';
+import type { RowsInput } from './rowsOf.js';
+
+export interface MapOptions extends GridMapOptions {
+  /** Also locate the ridge and put it in the map, as `datlas map` does (default true; false skips the bootstrap). */
+  ridge?: boolean | RidgeOptions;
+  /** Recorded in the map as its provenance (`store`), as the map file does. */
+  store?: string;
+}
+
+/**
+ * A map as `datlas map --format json` writes it: the SweepMap (axes, cells with their seed
+ * statistics, missing and diverged cells, raster, leave-one-out error), its `format`, the names
+ * of the raster's origin codes, and the ridge. In memory the raster keeps its typed arrays and
+ * missing values are NaN; `JSON.stringify(map)` gives the file's text (typed arrays as arrays,
+ * NaN as null), and a map file read back with JSON.parse is accepted wherever a map is.
+ */
+export type MapObject = MapFile & { ridge: RidgeJson | null; store?: string; toJSON(): unknown };
+
+/** Adds the non-enumerable toJSON that writes typed arrays as arrays and NaN as null (the file's text). */
+export function asMapObject(map: SweepMap, extra: { ridge: RidgeJson | null; store?: string }): MapObject {
+  const obj = mapFileObject(map, extra) as MapObject;
+  Object.defineProperty(obj, 'toJSON', {
+    enumerable: false,
+    value(this: MapObject) {
+      const plain: Record<string, unknown> = { ...this };
+      return JSON.parse(JSON.stringify(plain, jsonReplacer)) as unknown;
+    },
+  });
+  return obj;
+}
+
+/**
+ * The map of one metric over two axes with the others fixed, as `datlas map --kind K --format json`:
+ * rows from a store, an arquero table (after any verbs) or a RowTable. Unset `at` axes take the
+ * value with the most data (listed in `picked`).
+ */
+export async function buildMap(rows: RowsInput, opts: MapOptions = {}): Promise<MapObject> {
+  const { ridge = true, store, ...mapOpts } = opts;
+  const map = mapOfRows(rowsOf(rows), mapOpts);
+  const r = ridge === false ? null : ridgeJson(ridgeOfMap(map, ridge === true ? {} : ridge), map);
+  return asMapObject(map, { ridge: r, ...(store !== undefined && { store }) });
+}

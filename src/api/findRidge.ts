@@ -1,0 +1,23 @@
+import { findRidge as ridgeOfMap } from '../analysis/findRidge.js';
+import type { RidgeOptions } from '../analysis/findRidge.js';
+import type { RidgeResult } from '../analysis/Ridge.js';
+import type { SweepMap } from '../grid/SweepMap.js';
+import { reviveMap } from './reviveMap.js';
+
+/** `datlas ridge --json`: the ridge (DESIGN.md §6) plus the values the tool picked and the map's notes. */
+export type RidgeJson = RidgeResult & { picked: string[]; notes: string[] };
+
+/** The ridge with the map's picked values and notes (shared by the CLI's --json and the library). */
+export function ridgeJson(r: RidgeResult, map: Pick<SweepMap, 'picked' | 'notes'>): RidgeJson {
+  return { ...r, picked: map.picked, notes: map.notes ?? [] };
+}
+
+/**
+ * The double-descent ridge of a map, as `datlas ridge --json`: per row y, the significant
+ * intermediate peak along x with its bootstrap interval (or null: never a fabricated one), and the
+ * interpolation threshold. Takes a map from buildMap, or a map file read back with JSON.parse.
+ */
+export function findRidge(map: SweepMap | object, opts: RidgeOptions = {}): RidgeJson {
+  const m = reviveMap(map);
+  return ridgeJson(ridgeOfMap(m, opts), m);
+}

@@ -1,0 +1,79 @@
+import { ingestSources } from '../ingest/ingestSources.js';
+import type { IngestOptions as SourcesOptions, IngestResult } from '../ingest/ingestSources.js';
+import type { Scale } from '../ingest/normalizeRaw.js';
+import type { Target } from '../ingest/synonyms.js';
+import { columnSources } from '../store/columnSources.js';
+import { readManifest } from '../store/readStore.js';
+import { ingestText } from '../messages.js';
+import { UserError } from '../UserError.js';
+
+export interface IngestOptions {
+  /** Store directory (default ./atlas-store). */
+  store?: string;
+  /** canonical column → source column or dotted JSON path (`{ width: 'config.model.width' }`). */
+  map?: Partial<Record<Target, string>>;
+  /** Values for logs that lack them (`{ label_noise: 0.2 }`); other keys join the condition. */
+  set?: Record<string, string | number>;
+  /** Regular expression taking the seed from the file path (first group). */
+  seedFrom?: RegExp | string;
+  /** column → 'percent' | 'fraction', overriding the per-column detection. */
+  scale?: Partial<Record<Target, Scale>>;
+  /** Any rejected row fails the ingest and leaves the store unchanged (`strictFailed` in the result). */
+  strict?: boolean;
+  /** Seconds to wait for another ingest holding the store lock (default 30). */
+  wait?: number;
+  /** Keep notes (unreadable paths, skipped columns) off stderr; they are in the result either way. */
+  quiet?: boolean;
+  /** A progress reporter made once the number of sources is known (the CLI's bar). */
+  progress?: SourcesOptions['progress'];
+}
+
+/** What `datlas ingest --json` prints: read == accepted + duplicates + rejected + pending + skipped. */
+export interface IngestSummary {
+  read: number;
+  accepted: number;
+  duplicates: number;
+  rejected: number;
+  pending: number;
+  skipped: number;
+  conflicts: number;
+  sources: number;
+  unchanged: number;
+  failed: number;
+  displaced: number;
+  storeRows: number;
+  storeSources: number;
+  wrote: boolean;
+  strictFailed: boolean;
+  /** canonical column → where it came from, over the store's sources. */
+  mapping: Record<string, string>;
+  store: string;
+  missing: string[];
+  rejectedFile: string;
+  notes: string[];
+}
+
+/** The JSON form of an ingest's result (shared by the CLI's --json and `ingest()`). */
+export function ingestSummary(r: IngestResult, store: string): IngestSummary {
+  const { rejects: _rejects, notes, missing, ...counts } = r;
+  const manifest = readManifest(store);
+  return { ...counts, mapping: manifest ? columnSources(manifest) : {}, store, missing, rejectedFile: `${store}/rejected.csv`, notes };
+}
+
+/**
+ * Merges run logs into a store, as `datlas ingest PATH...`: every row read ends in the store, the
+ * duplicates count, or rejected.csv. Throws a UserError when no path names a readable source.
+ */
+export async function ingest(paths: string | string[], opts: IngestOptions = {}): Promise<IngestSummary> {
+  const { store = 'atlas-store', map = {}, set = {}, scale = {}, strict = false, wait = 30, quiet = false } = opts;
+  const list = typeof paths === 'string' ? [paths] : [...paths];
+  if (list.length === 0) throw new UserError(ingestText.noPaths);
+  const seedFrom = typeof opts.seedFrom === 'string' ? new RegExp(opts.seedFrom) : opts.seedFrom;
+  const r = await ingestSources({
+    paths: list, store, map, set: Object.fromEntries(Object.entries(set).map(([k, v]) => [k, String(v)])), seedFrom, scale, strict, wait,
+    progress: opts.progress,
+  });
+  if (!quiet) for (const note of r.notes) process.stderr.write(`note: ${note}\n`);
+  if (r.sources === 0) throw new UserError(r.missing.length ? ingestText.cannotOpen(r.missing[0], 'ENOENT') : ingestText.nothingFound(list.join(' ')));
+  return ingestSummary(r, store);
+}
