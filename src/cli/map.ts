@@ -116,22 +116,18 @@ export const command: CommandSpec<MapArgs> = {
     const scales = parseScales(args.scale);
     const { readStore } = await import('../store/readStore.js');
     const { buildMap } = await import('../grid/buildMap.js');
-    const { mapToJson } = await import('../grid/mapJson.js');
+    const api = await import('../api/buildMap.js');
     const { table } = await readStore(args.store);
-    const map = buildMap(table, { kind: args.kind, x: args.x, y: args.y, at, metric: args.metric, method: args.method, raster, scales });
-
-    let ridge = null;
-    if (args.ridge) {
-      const { findRidge } = await import('../analysis/findRidge.js');
-      ridge = findRidge(map);
-    }
+    // The library's buildMap: the object it returns is the map file (ridge and provenance included).
+    const map = await api.buildMap(table, { kind: args.kind, x: args.x, y: args.y, at, metric: args.metric, method: args.method, raster, scales, ridge: args.ridge, store: args.store });
+    const ridge = map.ridge;
 
     mkdirSync(args.out, { recursive: true });
     const base = map.kind === 'custom' ? `map-${map.x.name}-${map.y.name}` : `map-${map.kind}`;
     const files: string[] = [];
     if (formats.includes('json')) {
       const path = join(args.out, `${base}.json`);
-      writeFileSync(path, `${mapToJson(map, { ridge, store: args.store })}\n`);
+      writeFileSync(path, `${JSON.stringify(map)}\n`);
       files.push(path);
     }
     const imageFormats = formats.filter((f): f is 'png' | 'svg' | 'pdf' => f !== 'json');

@@ -1,6 +1,6 @@
 import type { Argv } from 'yargs';
 import type { RidgeResult } from '../analysis/Ridge.js';
-import type { MapKind, SweepMap } from '../grid/SweepMap.js';
+import type { MapKind } from '../grid/SweepMap.js';
 import { analysisText as t } from '../messages.js';
 import type { Metric } from '../store/RowTable.js';
 import { usageError } from '../UserError.js';
@@ -22,11 +22,6 @@ interface RidgeArgs {
 /** Rejects non-finite or out-of-range numbers with a usage error naming the flag. */
 export function checkNumber(flag: string, v: number, ok: (v: number) => boolean, what: string): void {
   if (!Number.isFinite(v) || !ok(v)) throw usageError(t.badNumber(flag, String(v), what));
-}
-
-/** The ridge as DESIGN.md §6 JSON (plus notes and the choices made). */
-function ridgeJson(r: RidgeResult, map: SweepMap) {
-  return { ...r, picked: map.picked, notes: map.notes ?? [] };
 }
 
 function ridgeText(r: RidgeResult): string {
@@ -74,7 +69,7 @@ export const command: CommandSpec<RidgeArgs> = {
     const at = parseAt(args.at);
     const { readStore } = await import('../store/readStore.js');
     const { buildMap } = await import('../grid/buildMap.js');
-    const { findRidge } = await import('../analysis/findRidge.js');
+    const { findRidge } = await import('../api/findRidge.js');
     const { table } = await readStore(args.store);
     // The ridge reads the measured cells only: the cheapest interpolator on a small raster suffices.
     const map = buildMap(table, { kind: args.kind, at, metric: args.metric, method: 'linear', raster: { nx: 16, ny: 16 } });
@@ -83,7 +78,7 @@ export const command: CommandSpec<RidgeArgs> = {
       if (map.picked.length) process.stderr.write(`${t.picked(map.picked, map.fixed)}\n`);
       for (const note of map.notes ?? []) process.stderr.write(`${note}\n`);
     }
-    if (args.json) process.stdout.write(`${JSON.stringify(ridgeJson(ridge, map))}\n`);
+    if (args.json) process.stdout.write(`${JSON.stringify(ridge)}\n`);
     else process.stdout.write(`${ridgeText(ridge)}\n`);
     return 0;
   },
