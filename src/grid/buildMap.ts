@@ -439,6 +439,7 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
     diverged,
     raster: { nx, ny, xs, ys, value, sd, origin },
     notes,
+    fitNotes: fitted.notes,
     ...(fitted.params ? { fit: fitted.params } : {}),
     ...(epochTargets ? { alignedEpochs: epochTargets } : {}),
   };
