@@ -5,7 +5,7 @@
  *
  *   npm run bench                        the 1M-row steps, simulate --preset demo, --help
  *   npm run bench -- --big               also ingest the 10M-row sweep (BENCH_BIG=1 works too)
- *   npm run bench -- --only ingest,map   some steps (help, ingest, reingest, map, simulate, ingest10m)
+ *   npm run bench -- --only ingest,map   some steps (help, ingest, reingest, map, simulate, boundary, ingest10m)
  *   npm run bench -- --profile           also profile (--cpu-prof) each step that misses its target
  *   npm run bench -- --label after       tag the results (bench/out/results-after.json as well)
  *   npm run bench -- --reps 5
@@ -192,7 +192,7 @@ async function main(): Promise<void> {
   ensureBuilt();
 
   const want = (name: string) => !only || only.includes(name);
-  const needs1m = ['ingest', 'reingest', 'map'].some(want);
+  const needs1m = ['ingest', 'reingest', 'map', 'boundary'].some(want);
   const sweep1m = join(work, 'sweep-1m');
   if (needs1m) {
     const t0 = performance.now();
@@ -244,6 +244,16 @@ async function main(): Promise<void> {
     process.stderr.write(`${step.name}: ${step.what}\n`);
     results.push(await runStep(step));
   }
+  let boundary: Record<string, number> & { filter: string } | null = null;
+  if (want('boundary')) {
+    // The library's arquero boundary, in one process on the 1M-row store (bench/boundary.mjs).
+    process.stderr.write('boundary: store → arquero → typed arrays, in process\n');
+    if (!existsSync(join(store, 'manifest.json'))) {
+      if (!existsSync(sweep1m)) makeSweep(sweep1m, SWEEP_1M, (l) => process.stderr.write(`${l}\n`));
+      execFileSync(process.execPath, [entry, 'ingest', sweep1m, '--store', store, '--quiet'], { cwd: root });
+    }
+    boundary = JSON.parse(execFileSync(process.execPath, [join(root, 'bench/boundary.mjs'), store, String(Math.max(reps, 5))], { cwd: root, encoding: 'utf8' })) as Record<string, number> & { filter: string };
+  }
   const loadEnd = loadavg();
 
   const head = ['step', 'median wall', 'target', 'rows/s', 'peak RSS', 'cpu s', 'load', 'ok', ...(againstRoot ? ['against: wall', 'cpu s', 'change'] : [])];
@@ -270,8 +280,18 @@ async function main(): Promise<void> {
   for (const r of rows) console.log(line(r));
   console.log(`\nload average at end: ${loadEnd.map((l) => l.toFixed(2)).join(' ')}${loadEnd[0] > 1.5 ? ' (machine busy: figures noisy)' : ''}`);
   console.log('cpu s = user + system seconds of the child (above the wall time: more than one core worked)');
+  if (boundary) {
+    const b = boundary;
+    console.log(`\narquero boundary on ${b.rows.toLocaleString('en')} rows (median of ${b.reps}, in process):`);
+    console.log(`  openStore (read rows.arrow, load arquero)         ${b.openStoreFirstMs} ms`);
+    console.log(`  store.toArquero()                                  ${b.toArqueroMs} ms (first call ${b.toArqueroFirstMs} ms: decodes the text columns)`);
+    console.log(`  arquero table → typed arrays, all rows             ${b.fromArqueroMs} ms (${b.fromArqueroMsPer1M} ms per 1M rows)`);
+    console.log(`  filter verb (${b.filter})                 ${b.filterVerbMs} ms → ${b.filteredRows.toLocaleString('en')} rows`);
+    console.log(`  filtered arquero table → typed arrays              ${b.fromFilteredMs} ms (${b.fromFilteredMsPer1MActive} ms per 1M active rows)`);
+    console.log(`  buildMap (linear, 64×64, no ridge): from the store ${b.buildMapStoreMs} ms, from the arquero table ${b.buildMapArqueroMs} ms`);
+  }
 
-  const json = { date: new Date().toISOString(), label, commit, cliRoot, against: againstRoot ? { root: againstRoot, commit: againstCommit } : null, machine, loadStart, loadEnd, steps: results };
+  const json = { date: new Date().toISOString(), label, commit, cliRoot, against: againstRoot ? { root: againstRoot, commit: againstCommit } : null, machine, loadStart, loadEnd, steps: results, boundary };
   writeFileSync(join(outDir, 'results.json'), `${JSON.stringify(json, null, 2)}\n`);
   if (label) writeFileSync(join(outDir, `results-${label}.json`), `${JSON.stringify(json, null, 2)}\n`);
   console.log(`wrote ${join('bench/out', 'results.json')}${label ? ` and bench/out/results-${label}.json` : ''}`);

@@ -38,38 +38,70 @@ export function rowsOf(input: RowsInput): RowTable {
   throw new UserError(apiText.notRows('an object without rows'));
 }
 
-/** arquero → RowTable: numbers as Float64Array (NaN for null), text as string arrays. */
+/** A column's values as an indexable array: arquero keeps plain arrays and typed arrays as they are; other column kinds (Arrow) are read out once. */
+function rawColumn(t: ArqueroTable, name: string): ArrayLike<unknown> {
+  const col = t.column(name) as unknown;
+  if (Array.isArray(col) || ArrayBuffer.isView(col)) return col as ArrayLike<unknown>;
+  const c = col as { toArray?: () => unknown; [Symbol.iterator](): Iterator<unknown> };
+  const arr = c.toArray?.();
+  if (Array.isArray(arr) || ArrayBuffer.isView(arr)) return arr as ArrayLike<unknown>;
+  return Array.from(c as Iterable<unknown>);
+}
+
+/**
+ * arquero → RowTable: numbers as Float64Array (NaN for null), text as string arrays. Only the
+ * active rows, in the table's order. An unfiltered, unordered Float64Array column is shared, not
+ * copied (the analyses never write to their input); every other column is gathered by row index
+ * in one pass (arquero's own per-value readers cost about a second per million rows).
+ */
 export function fromArquero(t: ArqueroTable): RowTable {
   const names = new Set(t.columnNames());
   const missing = ['run', 'width', 'epochs', 'train_size'].filter((c) => !names.has(c));
   if (missing.length) throw new UserError(apiText.arqueroColumns(missing));
   const length = t.numRows();
-  const extraNames = [...names].filter((n) => !(STORE_COLUMNS as readonly string[]).includes(n) && typeof firstValue(t, n) === 'number');
-  const out = emptyTable(length, extraNames) as { -readonly [K in keyof RowTable]: RowTable[K] };
+  const idx: Uint32Array | null = t.isFiltered() || t.isOrdered() ? t.indices(true) : null;
   const numbers = (name: string): Float64Array => {
-    const v = t.array(name, Float64Array) as Float64Array;
-    // Arrow-backed columns with nulls come through as 0 in a Float64Array: read them as values instead.
-    const col = t.column(name) as { nullCount?: number } | undefined;
-    if (col && typeof col.nullCount === 'number' && col.nullCount > 0) {
-      const vals = t.array(name) as ArrayLike<unknown>;
-      return Float64Array.from({ length }, (_, i) => (vals[i] === null || vals[i] === undefined ? NaN : Number(vals[i])));
+    const raw = rawColumn(t, name);
+    if (raw instanceof Float64Array && !idx) return raw;
+    const out = new Float64Array(length);
+    if (ArrayBuffer.isView(raw)) {
+      const src = raw as unknown as ArrayLike<number>;
+      for (let k = 0; k < length; k++) out[k] = src[idx ? idx[k] : k];
+    } else {
+      for (let k = 0; k < length; k++) {
+        const v = raw[idx ? idx[k] : k];
+        out[k] = v === null || v === undefined ? NaN : Number(v);
+      }
     }
-    return v;
+    return out;
   };
   const text = (name: string): string[] => {
-    const vals = t.array(name) as ArrayLike<unknown>;
-    const a = new Array<string>(length);
-    for (let i = 0; i < length; i++) a[i] = vals[i] === null || vals[i] === undefined ? '' : String(vals[i]);
-    return a;
+    const raw = rawColumn(t, name);
+    const out = new Array<string>(length);
+    for (let k = 0; k < length; k++) {
+      const v = raw[idx ? idx[k] : k];
+      out[k] = typeof v === 'string' ? v : v === null || v === undefined ? '' : String(v);
+    }
+    return out;
   };
-  for (const c of NUMERIC_COLUMNS) if (names.has(c)) out[c] = numbers(c);
-  for (const c of STRING_COLUMNS) if (names.has(c)) out[c] = text(c);
-  if (names.has('status')) out.status = text('status').map((s): RunStatus => (s === 'diverged' ? 'diverged' : 'ok'));
-  if (names.has('source_line')) out.source_line = Int32Array.from(t.array('source_line', Float64Array) as Float64Array);
+  const extraNames = [...names].filter((n) => !(STORE_COLUMNS as readonly string[]).includes(n) && isNumberColumn(rawColumn(t, n)));
+  const out = emptyTable(0) as { -readonly [K in keyof RowTable]: RowTable[K] };
+  out.length = length;
+  // Defaults only for the columns the table lacks.
+  let defaults: RowTable | null = null;
+  const dflt = (): RowTable => (defaults ??= emptyTable(length));
+  for (const c of NUMERIC_COLUMNS) out[c] = names.has(c) ? numbers(c) : dflt()[c];
+  for (const c of STRING_COLUMNS) out[c] = names.has(c) ? text(c) : dflt()[c];
+  out.status = names.has('status') ? text('status').map((s): RunStatus => (s === 'diverged' ? 'diverged' : 'ok')) : dflt().status;
+  out.source_line = names.has('source_line') ? Int32Array.from(numbers('source_line')) : dflt().source_line;
+  out.extra = {};
   for (const e of extraNames) out.extra[e] = numbers(e);
   return out;
 }
 
-function firstValue(t: ArqueroTable, name: string): unknown {
-  return t.numRows() > 0 ? t.get(name, 0) : undefined;
+/** Whether a column holds numbers (a typed array, or a plain array whose first non-null value is a number). */
+function isNumberColumn(raw: ArrayLike<unknown>): boolean {
+  if (ArrayBuffer.isView(raw)) return true;
+  for (let i = 0; i < raw.length; i++) if (raw[i] !== null && raw[i] !== undefined) return typeof raw[i] === 'number';
+  return false;
 }
