@@ -3,6 +3,7 @@ import { buildCells } from '../cells/buildCells.js';
 import { mapMessages as msg } from '../messages.js';
 import type { Metric, RowTable } from '../store/RowTable.js';
 import { AXES, defaultMetric, textReader, textValues } from '../store/RowTable.js';
+import { eachRunKey } from '../store/rowKeys.js';
 import { UserError, usageError } from '../UserError.js';
 import { cellEdges, detectScale, fromScale, toScale } from './axisScale.js';
 import { gaussianProcessField } from './gaussianProcessField.js';
@@ -113,25 +114,14 @@ function fitMethod(method: MethodName, p: ScatterPoints): FittedField {
 function chooseEpochs(table: RowTable, rows: Int32Array, max: number, notes: string[]): number[] {
   const perEpoch = new Map<number, Set<string>>();
   const runs = new Set<string>();
-  const run = textReader(table, 'run');
-  // A run's rows are contiguous: its id string is built once per block, not once per row.
-  let id = '';
-  let lastRow = -2;
-  for (let r = 0; r < rows.length; r++) {
-    const i = rows[r];
+  eachRunKey(table, rows, (id, i) => {
     const e = table.epochs[i];
-    if (!Number.isFinite(e)) continue;
-    const p = lastRow;
-    if (!(p >= 0 && run(i) === run(p) && table.width[i] === table.width[p] && table.train_size[i] === table.train_size[p] &&
-      Object.is(table.seed[i], table.seed[p]))) {
-      id = `${run(i)}\u0000${table.width[i]}\u0000${table.train_size[i]}\u0000${table.seed[i]}`;
-    }
-    lastRow = i;
+    if (!Number.isFinite(e)) return;
     runs.add(id);
     let s = perEpoch.get(e);
     if (!s) perEpoch.set(e, (s = new Set()));
     s.add(id);
-  }
+  });
   const all = [...perEpoch.keys()].sort((a, b) => a - b);
   if (all.length <= max) return all;
   const common = all.filter((e) => perEpoch.get(e)!.size * 2 >= runs.size);
@@ -278,11 +268,7 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   if (fixed.epochs !== undefined) {
     // Runs that stopped before the fixed epoch: say how many, since they silently thin the cells.
     const last = new Map<string, number>();
-    const run = textReader(table, 'run');
-    for (const i of rows) {
-      const id = `${run(i)}\u0000${table.width[i]}\u0000${table.train_size[i]}\u0000${table.seed[i]}`;
-      last.set(id, Math.max(last.get(id) ?? -Infinity, table.epochs[i]));
-    }
+    eachRunKey(table, rows, (id, i) => last.set(id, Math.max(last.get(id) ?? -Infinity, table.epochs[i])));
     const short = [...last.values()].filter((e) => e < (fixed.epochs as number)).length;
     if (short > 0) notes.push(msg.runsEndBefore(short, fixed.epochs as number));
   }
