@@ -151,59 +151,82 @@ function evenly(n: number): Float64Array {
   return Float64Array.from({ length: n }, (_, k) => (n === 1 ? 0 : k / (n - 1)));
 }
 
-/**
- * A map: the metric over two axes with every other axis (and the condition) fixed, from the
- * seed-aggregated cells, interpolated on a regular raster in the transformed plane.
- * Fixed values not given in `at` are picked — the value with the most rows, ties to the largest —
- * and listed in `picked`. `auto` picks the method with the lowest leave-one-out RMSE.
- */
-export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
+/** The sweep's conditions, parsed once: their keys (weight_decay, optimizer, ...) can be map axes (numeric ones) or fixed with `at`. */
+interface Conditions {
+  values: string[];
+  parsed: Map<string, Map<string, string>>;
+  /** Keys that are not the four axes nor `condition` itself, sorted. */
+  keys: string[];
+  numericKeys: string[];
+  isKey(name: string): boolean;
+  keyValue(condition: string, key: string): number | string | undefined;
+}
+
+function readConditions(table: RowTable): Conditions {
+  const parsed = new Map<string, Map<string, string>>();
+  const values = textValues(table, 'condition');
+  for (const c of values) parsed.set(c, parseCondition(c));
+  const keyValues = new Map<string, string[]>();
+  for (const m of parsed.values()) for (const [k, v] of m) keyValues.set(k, [...(keyValues.get(k) ?? []), v]);
+  const keys = [...keyValues.keys()].filter((k) => !(FIXABLE as readonly string[]).includes(k)).sort();
+  const numericKeys = keys.filter((k) => keyValues.get(k)!.every((v) => NUMBER.test(v)));
+  return {
+    values, parsed, keys, numericKeys,
+    isKey: (n) => keys.includes(n),
+    keyValue: (c, key) => {
+      const v = parsed.get(c)!.get(key);
+      return v === undefined ? undefined : NUMBER.test(v) ? Number(v) : v;
+    },
+  };
+}
+
+/** Step 1: which axes the map is over, and what kind of map that is. Usage errors for unknown or equal axes and bad `at` names. */
+function resolveAxes(opts: MapOptions, conds: Conditions): { kind: SweepMap['kind']; xName: string; yName: string } {
   const kindAxes = MAP_AXES[opts.kind ?? 'model'];
   const xName = opts.x ?? kindAxes.x;
   const yName = opts.y ?? kindAxes.y;
-  // Condition keys (weight_decay, optimizer, ...) can be axes (numeric ones) or fixed with --at.
-  const parsed = new Map<string, Map<string, string>>();
-  const conditionValues = textValues(table, 'condition');
-  for (const c of conditionValues) parsed.set(c, parseCondition(c));
-  // Row loops read text through the store's codes when it has them (no whole-column decoding).
-  const condition = textReader(table, 'condition');
-  const keyValues = new Map<string, string[]>();
-  for (const m of parsed.values()) for (const [k, v] of m) keyValues.set(k, [...(keyValues.get(k) ?? []), v]);
-  const conditionKeys = [...keyValues.keys()].filter((k) => !(FIXABLE as readonly string[]).includes(k)).sort();
-  const numericKeys = conditionKeys.filter((k) => keyValues.get(k)!.every((v) => NUMBER.test(v)));
-  const axisNames = [...AXES, ...numericKeys];
+  const axisNames = [...AXES, ...conds.numericKeys];
   for (const n of [xName, yName]) if (!axisNames.includes(n)) throw usageError(msg.unknownAxis(n, axisNames));
   if (xName === yName) throw usageError(msg.sameAxes(xName));
-  const isKey = (n: string) => conditionKeys.includes(n);
   const kind: SweepMap['kind'] =
     xName === kindAxes.x && yName === kindAxes.y ? (opts.kind ?? 'model') : ((Object.keys(MAP_AXES) as MapKind[]).find((k) => MAP_AXES[k].x === xName && MAP_AXES[k].y === yName) ?? 'custom');
-  const metric = opts.metric ?? defaultMetric(table);
-  const at = opts.at ?? {};
-  for (const name of Object.keys(at)) {
-    if (!(FIXABLE as readonly string[]).includes(name) && !isKey(name)) throw usageError(msg.atUnknown(name, [...FIXABLE, ...conditionKeys]));
+  for (const name of Object.keys(opts.at ?? {})) {
+    if (!(FIXABLE as readonly string[]).includes(name) && !conds.isKey(name)) throw usageError(msg.atUnknown(name, [...FIXABLE, ...conds.keys]));
     if (name === xName || name === yName) throw usageError(msg.atOnMapAxis(name));
   }
-  // The condition left to fix once axis keys and --at keys are taken out of it.
+  return { kind, xName, yName };
+}
+
+/**
+ * Step 2: the rows of the slice. Rows carrying information (a finite metric or a diverged mark),
+ * restricted to the `at` values, then every other axis (and the condition) fixed: the given value,
+ * or the one with the most rows (ties to the largest), listed in `picked`. Epochs are fixed later,
+ * by aligning runs along their curves.
+ */
+function sliceRows(table: RowTable, opts: MapOptions, conds: Conditions, axes: { xName: string; yName: string }, metric: Metric): {
+  rows: Int32Array;
+  fixed: Record<string, number | string>;
+  picked: string[];
+} {
+  const { xName, yName } = axes;
+  const at = opts.at ?? {};
+  const { isKey, keyValue } = conds;
+  // Row loops read text through the store's codes when it has them (no whole-column decoding).
+  const condition = textReader(table, 'condition');
+  // The condition left to fix once axis keys and `at` keys are taken out of it.
   const setAside = new Set([xName, yName, ...Object.keys(at)].filter(isKey));
   const restCache = new Map<string, string>();
   const restOf = (c: string): string => {
     let r = restCache.get(c);
     if (r === undefined) {
-      const m = parsed.get(c)!;
+      const m = conds.parsed.get(c)!;
       r = m.size === 0 ? c : [...m].filter(([k]) => !setAside.has(k)).map(([k, v]) => `${k}=${v}`).join(',');
       restCache.set(c, r);
     }
     return r;
   };
-  const keyValue = (c: string, key: string): number | string | undefined => {
-    const v = parsed.get(c)!.get(key);
-    return v === undefined ? undefined : NUMBER.test(v) ? Number(v) : v;
-  };
-  const notes: string[] = [];
 
-  // Rows that carry information: a finite metric, or a diverged mark.
-  const metricCol = table[metric];
-  let rows: Int32Array = informativeRows(metricCol, textReader(table, 'status'));
+  let rows: Int32Array = informativeRows(table[metric], textReader(table, 'status'));
   if (rows.length === 0) throw new UserError(msg.noMetric(metric));
   for (const [key, want] of Object.entries(at)) {
     if (!isKey(key)) continue;
@@ -217,7 +240,7 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   for (const [key, v] of Object.entries(at)) if (isKey(key)) fixed[key] = v;
   const picked: string[] = [];
   // Only a condition that has something left can be in a row (a store of one condition never loops).
-  const hasConditions = conditionValues.some((c) => restOf(c) !== '') && rows.some((i) => restOf(condition(i)) !== '');
+  const hasConditions = conds.values.some((c) => restOf(c) !== '') && rows.some((i) => restOf(condition(i)) !== '');
   for (const name of PICK_ORDER) {
     if (name === xName || name === yName) continue;
     if (name === 'condition' && !hasConditions && at.condition === undefined) continue;
@@ -261,12 +284,20 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
       rows = col && typeof v === 'number' ? rowsNear(rows, col, v) : rows.filter((i) => (typeof v === 'number' ? sameNumber(valueOf(i) as number, v) : valueOf(i) === v));
     }
   }
+  return { rows, fixed, picked };
+}
 
+/**
+ * Step 3: the seed-aggregated cells of the slice. With epochs fixed or an epochs axis, every run
+ * is aligned to the target epochs along its own curve; runs that stopped before a fixed epoch are
+ * counted in a note, since they silently thin the cells.
+ */
+function sliceCells(table: RowTable, opts: MapOptions, slice: { rows: Int32Array; fixed: Record<string, number | string> }, axes: { xName: string; yName: string }, metric: Metric, notes: string[]): { cells: Cell[]; epochTargets: number[] | undefined } {
+  const { rows, fixed } = slice;
   const epochTargets =
-    fixed.epochs !== undefined ? [fixed.epochs as number] : xName === 'epochs' || yName === 'epochs' ? (opts.epochs ?? chooseEpochs(table, rows, opts.maxEpochs ?? 100, notes)) : undefined;
+    fixed.epochs !== undefined ? [fixed.epochs as number] : axes.xName === 'epochs' || axes.yName === 'epochs' ? (opts.epochs ?? chooseEpochs(table, rows, opts.maxEpochs ?? 100, notes)) : undefined;
   const cells = buildCells(table, { metric, epochs: epochTargets, rows });
   if (fixed.epochs !== undefined) {
-    // Runs that stopped before the fixed epoch: say how many, since they silently thin the cells.
     const last = new Map<string, number>();
     eachRunKey(table, rows, (id, i) => last.set(id, Math.max(last.get(id) ?? -Infinity, table.epochs[i])));
     const short = [...last.values()].filter((e) => e < (fixed.epochs as number)).length;
@@ -274,10 +305,29 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   }
   const fixedText = Object.entries(fixed).map(([k, v]) => `${k}=${v}`).join(', ') || 'the whole sweep';
   if (cells.length === 0) throw new UserError(msg.noCells(fixedText));
+  return { cells, epochTargets };
+}
 
-  // Axes and their scales; a log2 axis cannot hold values <= 0 (epoch 0 is the usual case).
-  const coord = (c: Cell, name: string) => (isKey(name) ? (keyValue(c.condition, name) as number) : (c[name as keyof Cell] as number));
-  // Cells whose condition lacks a key used as an axis have no place on the map.
+/** The cells placed on the two axes, with the grid points that lack a measurement. */
+interface PlacedCells {
+  xAxis: MapAxis;
+  yAxis: MapAxis;
+  mapCells: MapCell[];
+  measured: MapCell[];
+  /** 1 where grid point (x value i, y value j) holds a measured cell, at j * nx + i. */
+  isMeasured: Uint8Array;
+  missing: { x: number; y: number }[];
+  diverged: { x: number; y: number; count: number }[];
+}
+
+/**
+ * Step 4: the axes. Each axis's scale (log2 when its values are roughly geometric, or as given),
+ * cells without a place dropped (a condition lacking an axis key; values <= 0 on a log2 axis,
+ * noted), each axis's values and cell edges, and the missing and diverged grid points.
+ */
+function chooseAxes(cells: Cell[], opts: MapOptions, conds: Conditions, axes: { xName: string; yName: string }, notes: string[]): PlacedCells {
+  const { xName, yName } = axes;
+  const coord = (c: Cell, name: string) => (conds.isKey(name) ? (conds.keyValue(c.condition, name) as number) : (c[name as keyof Cell] as number));
   const placed = cells.filter((c) => Number.isFinite(coord(c, xName)) && Number.isFinite(coord(c, yName)));
   const axisScale = (name: string): AxisScale => {
     if (opts.scales?.[name]) return opts.scales[name];
@@ -303,7 +353,6 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
 
   const mapCells: MapCell[] = kept.map((cell) => ({ x: coord(cell, xName), y: coord(cell, yName), cell }));
   const measured = mapCells.filter((m) => m.cell.stats.n > 0);
-  // Which (x value, y value) grid points hold a measured cell, by value index.
   const xIndex = new Map(xAxis.values.map((v, k) => [v, k]));
   const yIndex = new Map(yAxis.values.map((v, k) => [v, k]));
   const nxv = xAxis.values.length;
@@ -314,20 +363,42 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
     if (!isMeasured[j * nxv + i]) missing.push({ x, y });
   }));
   const diverged = mapCells.filter((m) => m.cell.diverged > 0).map((m) => ({ x: m.x, y: m.y, count: m.cell.diverged }));
+  return { xAxis, yAxis, mapCells, measured, isMeasured, missing, diverged };
+}
 
-  // Normalised transformed coordinates: each axis's [min, max] → [0, 1].
+/** The transformed plane the field lives in: each axis's [min, max] in its scale mapped to [0, 1]. */
+interface Plane {
+  sx: { lo: number; hi: number; norm: (v: number) => number };
+  sy: { lo: number; hi: number; norm: (v: number) => number };
+  xVaries: boolean;
+  yVaries: boolean;
+  dims: 1 | 2;
+}
+
+function planeOf(xAxis: MapAxis, yAxis: MapAxis): Plane {
   const span = (a: MapAxis) => {
     const lo = toScale(a.scale, a.values[0]);
     const hi = toScale(a.scale, a.values[a.values.length - 1]);
     return { lo, hi, norm: (v: number) => (hi > lo ? (toScale(a.scale, v) - lo) / (hi - lo) : 0) };
   };
-  const sx = span(xAxis);
-  const sy = span(yAxis);
   const xVaries = xAxis.values.length > 1;
   const yVaries = yAxis.values.length > 1;
-  const dims: 1 | 2 = xVaries && yVaries ? 2 : 1;
+  return { sx: span(xAxis), sy: span(yAxis), xVaries, yVaries, dims: xVaries && yVaries ? 2 : 1 };
+}
+
+/**
+ * Step 5: fit the field. The measured cell means (with their squared standard errors as noise)
+ * in the normalised plane, fitted by the requested method, or under `auto` by every method, the
+ * one with the lowest leave-one-out RMSE kept (compared on the cells every tried method predicts).
+ */
+function fitField(measured: MapCell[], plane: Plane, opts: MapOptions, names: { xName: string; yName: string }): {
+  method: MethodName;
+  fitted: FittedField;
+  loo: SweepMap['loo'];
+} {
+  const { sx, sy, xVaries, yVaries, dims } = plane;
   const n = measured.length;
-  if (n < 2 || (!xVaries && !yVaries)) throw new UserError(msg.tooFewCells(n, xName, yName));
+  if (n < 2 || (!xVaries && !yVaries)) throw new UserError(msg.tooFewCells(n, names.xName, names.yName));
   // In one dimension the varying axis plays x for the interpolators.
   const u = (m: MapCell) => (dims === 2 || xVaries ? sx.norm(m.x) : sy.norm(m.y));
   const w = (m: MapCell) => (dims === 2 ? sy.norm(m.y) : 0);
@@ -346,7 +417,6 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
       : null,
   };
 
-  // Fit the method(s); auto compares leave-one-out RMSE on the cells every tried method can predict.
   const requested = opts.method ?? 'auto';
   const candidates: MethodName[] = requested === 'auto' ? [...METHODS] : [requested];
   const fits = new Map<MethodName, FittedField>();
@@ -375,12 +445,23 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   }
   let method = [...fits.keys()][0];
   for (const m of fits.keys()) if ((tried[m] ?? Infinity) < (tried[method] ?? Infinity)) method = m;
-  const fitted = fits.get(method)!;
-  notes.push(...fitted.notes);
+  return {
+    method,
+    fitted: fits.get(method)!,
+    loo: { method, rmse: tried[method] ?? NaN, tried, points: common.length, ...(Object.keys(skipped).length ? { skipped } : {}) },
+  };
+}
 
-  // Raster in the normalised plane; a single-valued axis gets one raster line.
-  const nx = xVaries ? (opts.raster?.nx ?? DEFAULT_RASTER.nx) : 1;
-  const ny = yVaries ? (opts.raster?.ny ?? DEFAULT_RASTER.ny) : 1;
+/**
+ * Step 6: rasterise. The fitted field on a regular raster over the normalised plane (one raster
+ * line along an axis with a single value), each raster point's origin marked: inside a measured
+ * cell, interpolated, or outside the data.
+ */
+function rasterise(fitted: FittedField, plane: Plane, placed: PlacedCells, size: { nx: number; ny: number } | undefined): SweepMap['raster'] {
+  const { sx, sy, xVaries, yVaries, dims } = plane;
+  const { xAxis, yAxis, isMeasured } = placed;
+  const nx = xVaries ? (size?.nx ?? DEFAULT_RASTER.nx) : 1;
+  const ny = yVaries ? (size?.ny ?? DEFAULT_RASTER.ny) : 1;
   const gxN = evenly(nx);
   const gyN = evenly(ny);
   let value: Float64Array;
@@ -390,6 +471,7 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   const xs = Array.from(gxN, (t) => fromScale(xAxis.scale, sx.lo + t * (sx.hi - sx.lo)));
   const ys = Array.from(gyN, (t) => fromScale(yAxis.scale, sy.lo + t * (sy.hi - sy.lo)));
   const origin = new Uint8Array(nx * ny);
+  const nxv = xAxis.values.length;
   const xi = xs.map((x) => Math.min(xAxis.values.length - 1, Math.max(0, lowerBound(xAxis.edges, x) - 1)));
   const yi = ys.map((y) => Math.min(yAxis.values.length - 1, Math.max(0, lowerBound(yAxis.edges, y) - 1)));
   for (let j = 0; j < ny; j++) {
@@ -402,7 +484,12 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
           : ORIGIN_OUTSIDE;
     }
   }
+  return { nx, ny, xs, ys, value, sd, origin };
+}
 
+/** Notes a reader of the cells should see: cells resting on one seed, and heavy-tailed cells (mean and median far apart). */
+function cellNotes(measured: MapCell[]): string[] {
+  const notes: string[] = [];
   const oneSeed = measured.filter((m) => m.cell.stats.n === 1).length;
   if (oneSeed > 0) notes.push(msg.oneSeedCells(oneSeed));
   const heavy = measured.filter((m) => {
@@ -410,20 +497,44 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
     return k >= 3 && mean > 0 && median > 0 && (mean > 2 * median || median > 2 * mean);
   }).length;
   if (heavy > 0) notes.push(msg.heavyTails(heavy));
+  return notes;
+}
 
+/**
+ * A map: the metric over two axes with every other axis (and the condition) fixed, from the
+ * seed-aggregated cells, interpolated on a regular raster in the transformed plane.
+ * Fixed values not given in `at` are picked — the value with the most rows, ties to the largest —
+ * and listed in `picked`. `auto` picks the method with the lowest leave-one-out RMSE.
+ * The steps: resolve the axes, slice the rows, aggregate the cells, choose the axes' scales and
+ * values, fit the field, rasterise it.
+ */
+export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
+  const conds = readConditions(table);
+  const { kind, xName, yName } = resolveAxes(opts, conds);
+  const names = { xName, yName };
+  const metric = opts.metric ?? defaultMetric(table);
+  const notes: string[] = [];
+  const slice = sliceRows(table, opts, conds, names, metric);
+  const { cells, epochTargets } = sliceCells(table, opts, slice, names, metric, notes);
+  const placed = chooseAxes(cells, opts, conds, names, notes);
+  const plane = planeOf(placed.xAxis, placed.yAxis);
+  const { method, fitted, loo } = fitField(placed.measured, plane, opts, names);
+  notes.push(...fitted.notes);
+  const raster = rasterise(fitted, plane, placed, opts.raster);
+  notes.push(...cellNotes(placed.measured));
   return {
     kind,
-    x: xAxis,
-    y: yAxis,
+    x: placed.xAxis,
+    y: placed.yAxis,
     metric,
-    fixed,
-    picked,
+    fixed: slice.fixed,
+    picked: slice.picked,
     method,
-    loo: { method, rmse: tried[method] ?? NaN, tried, points: common.length, ...(Object.keys(skipped).length ? { skipped } : {}) },
-    cells: mapCells,
-    missing,
-    diverged,
-    raster: { nx, ny, xs, ys, value, sd, origin },
+    loo,
+    cells: placed.mapCells,
+    missing: placed.missing,
+    diverged: placed.diverged,
+    raster,
     notes,
     fitNotes: fitted.notes,
     ...(fitted.params ? { fit: fitted.params } : {}),
