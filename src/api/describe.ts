@@ -1,7 +1,7 @@
 import type { Manifest } from '../store/Manifest.js';
-import type { RowTable } from '../store/RowTable.js';
-import { textReader } from '../store/RowTable.js';
-import { columnSources } from '../store/columnSources.js';
+import type { Metric, RowTable } from '../store/RowTable.js';
+import { METRICS, textReader } from '../store/RowTable.js';
+import { sourceColumns } from '../store/sourceColumns.js';
 import { readRejected } from '../store/rejectedCsv.js';
 import type { Reject } from '../store/Reject.js';
 import { readStore } from '../store/readStore.js';
@@ -11,6 +11,7 @@ import type { Store } from './Store.js';
 export interface DescribeResult {
   rows: number;
   runs: number;
+  sources: number;
   /** canonical column → the source column (or path, or set: value) it came from. */
   columns: Record<string, string>;
   axes: {
@@ -21,6 +22,10 @@ export interface DescribeResult {
   };
   seeds: number[];
   conditions: { condition: string; runs: number }[];
+  /** The metrics some row holds. */
+  metrics: Metric[];
+  /** Extra numeric columns kept beside the canonical ones. */
+  extra: string[];
   /** Rejected rows in rejected.csv by kind of reason. */
   rejected: Record<string, number>;
 }
@@ -61,7 +66,8 @@ export function describeTable(table: RowTable, manifest: Manifest, rejects: read
   return {
     rows: table.length,
     runs: all.size,
-    columns: columnSources(manifest),
+    sources: Object.keys(manifest.sources).length,
+    columns: sourceColumns(manifest),
     axes: {
       width: distinct(table.width),
       train_size: distinct(table.train_size),
@@ -69,6 +75,8 @@ export function describeTable(table: RowTable, manifest: Manifest, rejects: read
       epochs: { min: epochs.length ? epochs[0] : null, max: epochs.length ? epochs[epochs.length - 1] : null, distinct: epochs.length },
     },
     seeds: distinct(table.seed),
+    metrics: METRICS.filter((m) => table[m].some((v) => Number.isFinite(v))),
+    extra: Object.keys(table.extra).sort(),
     conditions: [...runsOf].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)).map(([condition, s]) => ({ condition, runs: s.size })),
     rejected,
   };

@@ -2,7 +2,7 @@ import { ingestSources } from '../ingest/ingestSources.js';
 import type { IngestOptions as SourcesOptions, IngestResult } from '../ingest/ingestSources.js';
 import type { Scale } from '../ingest/normalizeRaw.js';
 import type { Target } from '../ingest/synonyms.js';
-import { columnSources } from '../store/columnSources.js';
+import { sourceColumns } from '../store/sourceColumns.js';
 import { readManifest } from '../store/readStore.js';
 import { ingestText } from '../messages.js';
 import { UserError } from '../UserError.js';
@@ -57,7 +57,7 @@ export interface IngestSummary {
 export function ingestSummary(r: IngestResult, store: string): IngestSummary {
   const { rejects: _rejects, notes, missing, ...counts } = r;
   const manifest = readManifest(store);
-  return { ...counts, mapping: manifest ? columnSources(manifest) : {}, store, missing, rejectedFile: `${store}/rejected.csv`, notes };
+  return { ...counts, mapping: manifest ? sourceColumns(manifest) : {}, store, missing, rejectedFile: `${store}/rejected.csv`, notes };
 }
 
 /**

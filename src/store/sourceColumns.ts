@@ -5,7 +5,7 @@ import type { Manifest } from './Manifest.js';
  * dotted path, or `set:` value) when every source agrees, else the distinct ones joined by " | "
  * in first-seen order. Sources are visited in path order so the answer does not depend on ingest order.
  */
-export function columnSources(manifest: Manifest): Record<string, string> {
+export function sourceColumns(manifest: Manifest): Record<string, string> {
   const seen = new Map<string, string[]>();
   for (const key of Object.keys(manifest.sources).sort()) {
     for (const [canonical, from] of Object.entries(manifest.sources[key].mapping ?? {})) {
