@@ -7,7 +7,12 @@ import { readManifest } from '../store/readStore.js';
 import { ingestText } from '../messages.js';
 import { UserError } from '../UserError.js';
 
-export interface IngestOptions {
+/**
+ * Options of `ingest()`: those of `datlas ingest` (every option of ingestSources passes through,
+ * e.g. `map`, `scale`, `strict`, `wait`), with `set` values as numbers or strings and `seedFrom`
+ * as a RegExp or its source text.
+ */
+export interface IngestOptions extends Omit<SourcesOptions, 'paths' | 'store' | 'set' | 'seedFrom' | 'readStdin'> {
   /** Store directory (default ./atlas-store). */
   store?: string;
   /** canonical column → source column or dotted JSON path (`{ width: 'config.model.width' }`). */
@@ -24,8 +29,6 @@ export interface IngestOptions {
   wait?: number;
   /** Keep notes (unreadable paths, skipped columns) off stderr; they are in the result either way. */
   quiet?: boolean;
-  /** A progress reporter made once the number of sources is known (the CLI's bar). */
-  progress?: SourcesOptions['progress'];
 }
 
 /** What `datlas ingest --json` prints: read == accepted + duplicates + rejected + pending + skipped. */
@@ -65,14 +68,18 @@ export function ingestSummary(r: IngestResult, store: string): IngestSummary {
  * duplicates count, or rejected.csv. Throws a UserError when no path names a readable source.
  */
 export async function ingest(paths: string | string[], opts: IngestOptions = {}): Promise<IngestSummary> {
-  const { store = 'atlas-store', map = {}, set = {}, scale = {}, strict = false, wait = 30, quiet = false } = opts;
+  const { store = 'atlas-store', set = {}, quiet = false, seedFrom: seedText, ...rest } = opts;
   const list = typeof paths === 'string' ? [paths] : [...paths];
   if (list.length === 0) throw new UserError(ingestText.noPaths);
-  const seedFrom = typeof opts.seedFrom === 'string' ? new RegExp(opts.seedFrom) : opts.seedFrom;
-  const r = await ingestSources({
-    paths: list, store, map, set: Object.fromEntries(Object.entries(set).map(([k, v]) => [k, String(v)])), seedFrom, scale, strict, wait,
-    progress: opts.progress,
-  });
+  let seedFrom = seedText instanceof RegExp ? seedText : undefined;
+  if (typeof seedText === 'string') {
+    try {
+      seedFrom = new RegExp(seedText);
+    } catch (err) {
+      throw new UserError(ingestText.badSeedFrom(seedText, (err as Error).message), 2);
+    }
+  }
+  const r = await ingestSources({ ...rest, paths: list, store, set: Object.fromEntries(Object.entries(set).map(([k, v]) => [k, String(v)])), seedFrom });
   if (!quiet) for (const note of r.notes) process.stderr.write(`note: ${note}\n`);
   if (r.sources === 0) throw new UserError(r.missing.length ? ingestText.cannotOpen(r.missing[0], 'ENOENT') : ingestText.nothingFound(list.join(' ')));
   return ingestSummary(r, store);

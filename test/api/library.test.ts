@@ -1,7 +1,7 @@
-import { readFileSync, rmSync } from 'node:fs';
+import { readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { buildMap, coverage, describe as describeStore, findHurts, findRidge, openStore, planRuns, renderMap, simulate } from '../../src/api/index.js';
+import { buildMap, coverage, describe as describeStore, findHurts, findRidge, ingest, openStore, planRuns, renderMap, simulate, UserError } from '../../src/api/index.js';
 import type { Store } from '../../src/api/index.js';
 import { runCli } from '../helpers/runCli.js';
 import { DEMO_SPEC, demoStore } from './demoStore.js';
@@ -82,5 +82,19 @@ describe('the library gives what the commands print', () => {
     const theirs = JSON.parse(r.stdout) as Record<string, unknown>;
     expect({ ...mine, out: '', seconds: 0 }).toEqual({ ...theirs, out: '', seconds: 0 });
     expect(readFileSync(join(dir, 'sim-a/sweep.csv'), 'utf8').split('\n').length - 2).toBe(mine.rows);
+  });
+
+  it('ingest: --set values as numbers, the counts accounted, and UserErrors for what cannot be done', async () => {
+    // Invented log (fixture): two epochs of one run with a bad line between them.
+    const log = join(dir, 'one.csv');
+    writeFileSync(log, 'run,seed,width,epoch,n,test_error\nr1,0,8,1,100,0.4\nr1,0,8,2,100,oops\nr1,0,8,3,100,0.3\n');
+    const st = join(dir, 'set-store');
+    const c = await ingest(log, { store: st, set: { label_noise: 0.3 }, quiet: true });
+    expect([c.read, c.accepted, c.rejected]).toEqual([3, 2, 1]);
+    expect(c.read).toBe(c.accepted + c.duplicates + c.rejected + c.pending + c.skipped);
+    expect((await describeStore(st)).axes.label_noise).toEqual([0.3]);
+    await expect(ingest(join(dir, 'no-such-dir'), { store: st, quiet: true })).rejects.toThrow(UserError);
+    await expect(ingest(log, { store: st, seedFrom: '(' })).rejects.toThrow(/seed/);
+    await expect(openStore(join(dir, 'not-a-store'))).rejects.toThrow(UserError);
   });
 });
