@@ -86,6 +86,12 @@ describe('docs/schemas validate every --json output on the demo sweep', () => {
     check('plan', cli(['plan', '--store', store, '--spec', DEMO_SPEC, '--json', '--budget', '1000']));
   });
 
+  it('simulate', () => {
+    const r = runCli(['simulate', '--preset', 'quick', '--out', join(dir, 'sim'), '--workers', '1', '--json']);
+    expect(r.code, r.stderr).toBe(0);
+    check('simulate', JSON.parse(r.stdout));
+  });
+
   it('the schemas reject outputs that break them (they can fail)', () => {
     const bad = structuredClone(ingestOut) as Record<string, unknown>;
     delete bad.read;
