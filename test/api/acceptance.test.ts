@@ -5,7 +5,6 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../helpers/runCli.js';
 import { ROOT } from './demoStore.js';
-import { buildPackage } from './buildPackage.js';
 
 // Done-when of the library: a script in the project root imports the package by its name,
 // ingests sample-sweeps/demo, gets its 15,000 rows as an arquero table, and finds the same
@@ -16,7 +15,6 @@ let out: {
   peaks: { y: number; x: number; low: number; high: number }[]; sameAsCli: boolean;
 };
 beforeAll(() => {
-  buildPackage();
   dir = mkdtempSync(join(tmpdir(), 'datlas-accept-'));
   out = JSON.parse(execFileSync(process.execPath, [join(ROOT, 'library-check.mjs'), join(dir, 'store')], { cwd: ROOT, encoding: 'utf8' }));
 }, 180_000);

@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../helpers/runCli.js';
 import { ROOT } from './demoStore.js';
-import { buildPackage, typeCheck } from './buildPackage.js';
+import { typeCheck } from './typeCheck.js';
 import { readmeBlock } from './readmeBlocks.js';
 
 // README "Use from TypeScript": the script is taken from README.md as it stands, so it cannot go
@@ -13,7 +13,6 @@ import { readmeBlock } from './readmeBlocks.js';
 let work = '';
 let stdout = '';
 beforeAll(() => {
-  buildPackage();
   work = mkdtempSync(join(ROOT, '.api-work-'));
   symlinkSync(join(ROOT, 'sample-sweeps'), join(work, 'sample-sweeps'));
   const { lang, code } = readmeBlock('library-example');

@@ -1,10 +1,9 @@
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { ROOT } from './demoStore.js';
-import { buildPackage, typeCheck } from './buildPackage.js';
+import { typeCheck } from './typeCheck.js';
 
-beforeAll(() => buildPackage(), 120_000);
 
 describe('type declarations of the package', () => {
   it('a script using every exported function type-checks against dist/*.d.ts through "exports"', () => {

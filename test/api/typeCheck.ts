@@ -1,11 +1,7 @@
+// dist/ (what package.json "exports" points at) is built once before the tests by test/buildOnce.ts.
 import { execFileSync } from 'node:child_process';
 import { join } from 'node:path';
 import { ROOT } from './demoStore.js';
-
-/** Brings dist/ (JavaScript and declarations, what package.json "exports" points at) up to date. */
-export function buildPackage(): void {
-  execFileSync(process.execPath, [join(ROOT, 'scripts/build.mjs')], { stdio: 'inherit' });
-}
 
 /** tsc (the project's own TypeScript) on a tsconfig; its exit code and diagnostics. */
 export function typeCheck(tsconfig: string): { code: number; output: string } {
