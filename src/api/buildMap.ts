@@ -8,12 +8,13 @@ import type { SweepMap } from '../grid/SweepMap.js';
 import { ridgeJson } from './findRidge.js';
 import type { RidgeJson } from './findRidge.js';
 import { rowsOf } from './rowsOf.js';
+import { Store } from './Store.js';
 import type { RowsInput } from './rowsOf.js';
 
 export interface MapOptions extends GridMapOptions {
   /** Also locate the ridge and put it in the map, as `datlas map` does (default true; false skips the bootstrap). */
   ridge?: boolean | RidgeOptions;
-  /** Recorded in the map as its provenance (`store`), as the map file does. */
+  /** Recorded in the map as its provenance (`store`), as the map file does (default: the directory of an opened store). */
   store?: string;
 }
 
@@ -45,7 +46,9 @@ export function asMapObject(map: SweepMap, extra: { ridge: RidgeJson | null; sto
  * value with the most data (listed in `picked`).
  */
 export async function buildMap(rows: RowsInput, opts: MapOptions = {}): Promise<MapObject> {
-  const { ridge = true, store, ...mapOpts } = opts;
+  const { ridge = true, store: given, ...mapOpts } = opts;
+  // A map of an opened store records that store, as the map file of `datlas map --store DIR` does.
+  const store = given ?? (rows instanceof Store ? rows.dir : undefined);
   const map = mapOfRows(rowsOf(rows), mapOpts);
   const r = ridge === false ? null : ridgeJson(ridgeOfMap(map, ridge === true ? {} : ridge), map);
   return asMapObject(map, { ridge: r, ...(store !== undefined && { store }) });

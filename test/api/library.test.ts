@@ -36,7 +36,7 @@ describe('the library gives what the commands print', () => {
   it('buildMap: the map file of datlas map --format json, byte for byte', async () => {
     const out = join(dir, 'maps');
     cli(['map', '--kind', 'sample', '--out', out]);
-    const map = await buildMap(store, { kind: 'sample', store: storeDir });
+    const map = await buildMap(store, { kind: 'sample' });
     expect(`${JSON.stringify(map)}\n`).toBe(readFileSync(join(out, 'map-sample.json'), 'utf8'));
   });
 
