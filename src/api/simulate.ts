@@ -47,7 +47,9 @@ const noBar = async () => ({ tick() {}, done() {} });
 
 /**
  * Simulates a double-descent sweep (random features trained by gradient descent in closed form,
- * or linear-Gaussian with exact risk) and writes its run logs, as `datlas simulate --json`.
+ * or linear-Gaussian with exact risk) and writes its run logs, as `datlas simulate --json`. The
+ * option handling mirrors the command's (src/cli/simulate.ts parses and checks its flags);
+ * test/api/library.test.ts compares the two on the same preset.
  */
 export async function simulate(opts: SimulateOptions = {}): Promise<SimulateSummary> {
   const { preset = 'quick', shape = 'csv', workers = availableParallelism(), force = false, progress = noBar } = opts;
@@ -104,6 +106,10 @@ export async function simulate(opts: SimulateOptions = {}): Promise<SimulateSumm
     bar.done();
   }
   const files = await writeSweepLogs({ table, dir: out, shape });
-  const seconds = (performance.now() - started) / 1000;
-  return { preset, out, shape, runs: new Set(table.run).size, rows: table.length, files: files.length, workers, seconds: Number(seconds.toFixed(3)) };
+  return simulateSummary({ preset, out, shape, table, files: files.length, workers, seconds: (performance.now() - started) / 1000 });
+}
+
+/** The JSON summary of a simulated sweep (shared by `datlas simulate --json` and `simulate()`). */
+export function simulateSummary(o: { preset: string; out: string; shape: string; table: RowTable; files: number; workers: number; seconds: number }): SimulateSummary {
+  return { preset: o.preset, out: o.out, shape: o.shape, runs: new Set(o.table.run).size, rows: o.table.length, files: o.files, workers: o.workers, seconds: Number(o.seconds.toFixed(3)) };
 }

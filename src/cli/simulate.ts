@@ -1,4 +1,5 @@
 import type { Argv } from 'yargs';
+import { readdir } from 'node:fs/promises';
 import { availableParallelism } from 'node:os';
 import { general, simulateMessages as t } from '../messages.js';
 import { usageError } from '../UserError.js';
@@ -85,17 +86,64 @@ export const command: CommandSpec<SimulateArgs> = {
     if (preset === 'linear' && labelNoise) throw usageError(t.noiseNeedsFeatures);
     if (preset === 'linear' && epochs !== undefined) throw usageError(t.epochsNeedFeatures);
 
-    const { simulate } = await import('../api/simulate.js');
-    const r = await simulate({
-      preset: preset as (typeof PRESETS)[number], out: args.out, shape: shape as (typeof SHAPES)[number], seeds, widths, trainSizes, labelNoise,
-      epochs, testSize, ridge, workers, force: args.force,
-      progress: (total) => progressBar({ label: 'simulate', total, quiet: args.quiet || args.json, minTotal: preset === 'linear' ? 200 : 2 }),
-    });
-    const { out, runs, seconds } = r;
-    if (args.json) {
-      process.stdout.write(JSON.stringify(r) + '\n');
+    const out = args.out ?? `sweep-${preset}`;
+    if (!args.force) {
+      const entries = await readdir(out).catch(() => [] as string[]);
+      if (entries.length > 0) throw usageError(t.outNotEmpty(out));
+    }
+
+    const { presets } = await import('../simulate/presets.js');
+    const { writeSweepLogs } = await import('../simulate/writeSweepLogs.js');
+    const started = performance.now();
+    let table;
+    if (preset === 'linear') {
+      const { linearSweep } = await import('../simulate/linearSweep.js');
+      const o = presets.linear();
+      const maxWidth = Math.max(...(widths ?? o.widths));
+      const opts = {
+        ...o,
+        ...(seeds !== undefined && { seeds }),
+        ...(widths && { widths }),
+        ...(trainSizes && { trainSizes }),
+        ...(testSize !== undefined && { testSize }),
+        ...(ridge !== undefined && { ridge }),
+        dims: Math.max(o.dims ?? 0, maxWidth),
+      };
+      const total = (typeof opts.seeds === 'number' ? opts.seeds : opts.seeds.length) * new Set(opts.widths).size * new Set(opts.trainSizes).size;
+      const bar = await progressBar({ label: 'simulate', total, quiet: args.quiet || args.json, minTotal: 200 });
+      table = linearSweep({ ...opts, onRun: () => bar.tick() });
+      bar.done();
     } else {
-      process.stdout.write(t.wrote(runs, r.rows, r.files, out, seconds, shape) + '\n');
+      const { featuresSweepParallel } = await import('../simulate/parallelSweep.js');
+      const { featuresRunCount, resolveFeaturesOptions } = await import('../simulate/featuresSweep.js');
+      const o = presets[preset as 'quick' | 'demo' | 'epochs']();
+      const opts = {
+        ...o,
+        ...(seeds !== undefined && { seeds }),
+        ...(widths && { widths }),
+        ...(trainSizes && { trainSizes }),
+        ...(labelNoise && { labelNoise }),
+        ...(epochs !== undefined && { maxEpochs: epochs }),
+        ...(testSize !== undefined && { testSize }),
+      };
+      let total: number;
+      try {
+        total = featuresRunCount(resolveFeaturesOptions(opts));
+      } catch (err) {
+        throw usageError((err as Error).message);
+      }
+      const bar = await progressBar({ label: 'simulate', total, quiet: args.quiet || args.json, minTotal: 2 });
+      table = await featuresSweepParallel({ ...opts, workers, onRun: () => bar.tick() });
+      bar.done();
+    }
+    const files = await writeSweepLogs({ table, dir: out, shape: shape as (typeof SHAPES)[number] });
+    const seconds = (performance.now() - started) / 1000;
+    const runs = new Set(table.run).size;
+    if (args.json) {
+      const { simulateSummary } = await import('../api/simulate.js');
+      process.stdout.write(JSON.stringify(simulateSummary({ preset, out, shape, table, files: files.length, workers, seconds })) + '\n');
+    } else {
+      process.stdout.write(t.wrote(runs, table.length, files.length, out, seconds, shape) + '\n');
       if (!args.quiet) {
         process.stderr.write((preset === 'linear' ? t.linearNote : t.peakNote) + '\n');
         process.stderr.write(t.nextStep(out) + '\n');
