@@ -110,7 +110,7 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
     return pOf;
   };
 
-  const rows: RidgeRow[] = ys.map((y) => {
+  const rows: RidgeRow[] = ys.map((y, rowIndex) => {
     const all = (byY.get(y) ?? []).filter((p) => Number.isFinite(tx.to(p.x))).sort((a, b) => a.x - b.x);
     const crossing = thresholdCrossing(
       all.map((p) => tx.to(p.x)),
@@ -128,9 +128,8 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
 
     const zOf = (lp: LocalPeak) => zIn(noise, lp);
     const scored = localPeaks(means).map((lp) => ({ lp, z: zOf(lp), p: NaN }));
-    // One bootstrap stream per row, keyed by the row's y value (not its position): the same seed
-    // gives the same answer whatever other rows exist (a map of a filtered epoch range included).
-    const rng = seededRng(deriveSeed(seed, hashKey(`y=${y}`)));
+    // One bootstrap stream per row: the same seed gives the same answer whatever other rows exist.
+    const rng = seededRng(deriveSeed(seed, rowIndex));
     const rep = new Float64Array(means.length);
     const tall = scored.filter((s) => s.z >= minProminence);
     if (tall.length > 0 && alpha < 1 && nullRounds > 0 && Number.isFinite(noise.sd)) {

@@ -25,15 +25,6 @@ function peakRate(curve: (u: number) => number, seeds: number, sd: number, trial
 }
 
 describe('findRidge', () => {
-  it("gives a row the same bootstrap interval whatever other rows the map holds (stream keyed by y)", () => {
-    const means = [0.6, 0.5, 0.42, 0.36, 0.38, 0.44, 0.5, 0.46, 0.38, 0.32, 0.28, 0.26, 0.25];
-    const rowAt = (y: number, shift: number) => ({ y, cells: means.map((m, i) => makeCell({ width: XS[i] }, [m - 0.02, m + shift, m + 0.02 + shift])) });
-    const both = findRidge(makeMap({ xs: XS, rows: [rowAt(10, 0.001), rowAt(1000, 0.003)] }), { boot: 200 });
-    const alone = findRidge(makeMap({ xs: XS, rows: [rowAt(1000, 0.003)] }), { boot: 200 });
-    expect(both.rows[1].peak).not.toBeNull();
-    expect(alone.rows[0].peak).toEqual(both.rows[1].peak);
-  });
-
   it('locates an intermediate peak, not the under-fitted global maximum at the left edge', () => {
     // Means fall from 0.6 (tiny model), rise to a peak at width 32 (index 6), then fall again.
     const means = [0.6, 0.5, 0.42, 0.36, 0.38, 0.44, 0.5, 0.46, 0.38, 0.32, 0.28, 0.26, 0.25];
