@@ -5,7 +5,8 @@
  *
  *   npm run bench                        the 1M-row steps, simulate --preset demo, --help
  *   npm run bench -- --big               also ingest the 10M-row sweep (BENCH_BIG=1 works too)
- *   npm run bench -- --only ingest,map   some steps (help, ingest, reingest, map, simulate, boundary, ingest10m)
+ *   npm run bench -- --only ingest,map   some steps (help, ingest, reingest, map, simulate, ingest10m)
+ *   npm run bench -- --only boundary     the library's arquero boundary, in process (bench/boundary.mjs)
  *   npm run bench -- --profile           also profile (--cpu-prof) each step that misses its target
  *   npm run bench -- --label after       tag the results (bench/out/results-after.json as well)
  *   npm run bench -- --reps 5

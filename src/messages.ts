@@ -113,6 +113,15 @@ export const storeText = {
 };
 
 // ── simulate ─────────────────────────────────────────────────────────────────
+/** The library (src/api): messages for scripts that call it. */
+export const apiText = {
+  notRows: (what: string) => `expected rows: a store (openStore), an arquero table (store.toArquero()) or a RowTable, got ${what}`,
+  arqueroColumns: (missing: string[]) =>
+    `the arquero table lacks the column${missing.length === 1 ? '' : 's'} ${missing.join(', ')} (start from store.toArquero() and keep the canonical columns)`,
+  notAMap: (what: string) => `expected a map (from buildMap, or a map file read with JSON.parse), got ${what}`,
+  badOption: (name: string, value: string, what: string) => `option ${name}: expected ${what}, got '${value}'`,
+};
+
 export const simulateMessages = {
   badPreset: (name: string, names: readonly string[]) => `--preset must be one of ${names.join(', ')}, got '${name}'`,
   badShape: (name: string, names: readonly string[]) => `--shape must be one of ${names.join(', ')}, got '${name}'`,
@@ -400,13 +409,4 @@ export const report = {
   demoHead: (logs: string, rows: number, seconds: number) => `demo: ${rows} logged rows from ${logs}, report and plan in ${seconds.toFixed(1)} s`,
   demoNext: (html: string, store: string, spec: string) =>
     `next: open ${html} in a browser; try datlas map --store ${store} --kind model --at label_noise=0.1, or datlas plan --store ${store} --spec ${spec} --budget 100`,
-};
-
-/** The library (src/api): messages for scripts that call it. */
-export const apiText = {
-  notRows: (what: string) => `expected rows: a store (openStore), an arquero table (store.toArquero()) or a RowTable, got ${what}`,
-  arqueroColumns: (missing: string[]) =>
-    `the arquero table lacks the column${missing.length === 1 ? '' : 's'} ${missing.join(', ')} (start from store.toArquero() and keep the canonical columns)`,
-  notAMap: (what: string) => `expected a map (from buildMap, or a map file read with JSON.parse), got ${what}`,
-  badOption: (name: string, value: string, what: string) => `option ${name}: expected ${what}, got '${value}'`,
 };
