@@ -112,16 +112,16 @@ export const storeText = {
     `store ${dir}: rows.arrow and manifest.json come from different writes (a file copied in by hand?); move the store aside and ingest the logs again`,
 };
 
-// ── simulate ─────────────────────────────────────────────────────────────────
-/** The library (src/api): messages for scripts that call it. */
+// ── library (src/api) ────────────────────────────────────────────────────────
+/** Messages for scripts that call the library. */
 export const apiText = {
   notRows: (what: string) => `expected rows: a store (openStore), an arquero table (store.toArquero()) or a RowTable, got ${what}`,
   arqueroColumns: (missing: string[]) =>
     `the arquero table lacks the column${missing.length === 1 ? '' : 's'} ${missing.join(', ')} (start from store.toArquero() and keep the canonical columns)`,
   notAMap: (what: string) => `expected a map (from buildMap, or a map file read with JSON.parse), got ${what}`,
-  badOption: (name: string, value: string, what: string) => `option ${name}: expected ${what}, got '${value}'`,
 };
 
+// ── simulate ─────────────────────────────────────────────────────────────────
 export const simulateMessages = {
   badPreset: (name: string, names: readonly string[]) => `--preset must be one of ${names.join(', ')}, got '${name}'`,
   badShape: (name: string, names: readonly string[]) => `--shape must be one of ${names.join(', ')}, got '${name}'`,
