@@ -6,13 +6,14 @@
  *   npm run bench                        the 1M-row steps, simulate --preset demo, --help
  *   npm run bench -- --big               also ingest the 10M-row sweep (BENCH_BIG=1 works too)
  *   npm run bench -- --only ingest,map   some steps (help, ingest, reingest, map, simulate, ingest10m)
- *   npm run bench -- --only boundary     the library's arquero boundary, in process (bench/boundary.mjs)
  *   npm run bench -- --profile           also profile (--cpu-prof) each step that misses its target
  *   npm run bench -- --label after       tag the results (bench/out/results-after.json as well)
  *   npm run bench -- --reps 5
  *   npm run bench -- --cli-root /tmp/old --label before   the CLI of another checkout (A/B under the same load)
  *   npm run bench -- --against /tmp/old --reps 6   interleaved A/B: each repetition runs the other checkout's
  *                                        CLI and this one back to back (order alternating), medians side by side
+ *
+ * `--only boundary` times the library's arquero boundary in one process (bench/boundary.mjs).
  *
  * Data goes to bench/work/ (generated, not committed), results to bench/out/results.json.
  */
