@@ -18,6 +18,8 @@ export interface Sample {
   sys: number;
   code: number;
   stderr: string;
+  /** The start of stdout (a step may check what the command printed). */
+  stdout: string;
 }
 
 const GNU_TIME = '/usr/bin/time';
@@ -62,14 +64,18 @@ export async function measure(opts: { cwd: string; args: string[]; nodeArgs?: st
     ? [GNU_TIME, '-f', '%e %M %U %S', '-o', out, process.execPath, ...nodeArgs, entry, ...args]
     : [process.execPath, ...nodeArgs, WRAPPER, out, ...args];
   const t0 = performance.now();
-  const { code, stderr } = await new Promise<{ code: number; stderr: string }>((resolve, reject) => {
-    const child = spawn(cmd[0], cmd.slice(1), { cwd, env, stdio: ['ignore', 'ignore', 'pipe'] });
+  const { code, stderr, stdout } = await new Promise<{ code: number; stderr: string; stdout: string }>((resolve, reject) => {
+    const child = spawn(cmd[0], cmd.slice(1), { cwd, env, stdio: ['ignore', 'pipe', 'pipe'] });
     let err = '';
+    let got = '';
     child.stderr.on('data', (d: Buffer) => {
       if (err.length < 20000) err += d.toString();
     });
+    child.stdout.on('data', (d: Buffer) => {
+      if (got.length < 20000) got += d.toString();
+    });
     child.on('error', reject);
-    child.on('close', (c) => resolve({ code: c ?? 1, stderr: err }));
+    child.on('close', (c) => resolve({ code: c ?? 1, stderr: err, stdout: got }));
   });
   const wall = (performance.now() - t0) / 1000;
   let rss = NaN;
@@ -86,5 +92,5 @@ export async function measure(opts: { cwd: string; args: string[]; nodeArgs?: st
     // No usage file: the child died before reporting; the figures stay NaN.
   }
   rmSync(tmp, { recursive: true, force: true });
-  return { wall, rss, user, sys, code, stderr };
+  return { wall, rss, user, sys, code, stderr, stdout };
 }

@@ -5,7 +5,7 @@
  *
  *   npm run bench                        the 1M-row steps, simulate --preset demo, --help
  *   npm run bench -- --big               also ingest the 10M-row sweep (BENCH_BIG=1 works too)
- *   npm run bench -- --only ingest,map   some steps (help, ingest, reingest, map, simulate, ingest10m)
+ *   npm run bench -- --only ingest,map   some steps (help, ingest, reingest, map, simulate, hugeline, ingest10m)
  *   npm run bench -- --profile           also profile (--cpu-prof) each step that misses its target
  *   npm run bench -- --label after       tag the results (bench/out/results-after.json as well)
  *   npm run bench -- --reps 5
@@ -20,7 +20,7 @@
 import { execFileSync } from 'node:child_process';
 import { copyFileSync } from 'node:fs';
 import { cpus, freemem, loadavg, totalmem, platform, release } from 'node:os';
-import { existsSync, mkdirSync, rmSync, writeFileSync } from 'node:fs';
+import { closeSync, existsSync, mkdirSync, openSync, rmSync, statSync, writeFileSync, writeSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { makeSweep, SWEEP_10M, SWEEP_1M } from './makeSweep.js';
@@ -68,6 +68,8 @@ interface Step {
   target: { wall?: number; rss?: number };
   /** Run before every repetition (not timed). */
   before?: () => void;
+  /** The exit code the step must end with (default 0) and what its output must say. */
+  expect?: { code: number; output?: RegExp };
 }
 
 interface StepResult {
@@ -115,7 +117,8 @@ async function runStep(step: Step): Promise<StepResult> {
     step.before?.();
     ensureBuilt(dir);
     const s = await measure({ cwd: root, args: step.args, entry: at });
-    if (s.code !== 0) {
+    const want = step.expect ?? { code: 0 };
+    if (s.code !== want.code || (want.output && !want.output.test(`${s.stdout}\n${s.stderr}`))) {
       failed = `${which}exit ${s.code}: ${s.stderr.trim().split('\n').slice(-3).join(' | ')}`;
       return null;
     }
@@ -160,6 +163,29 @@ async function runStep(step: Step): Promise<StepResult> {
     process.stderr.write(`${step.name} profile:\n${formatSummary(result.profile)}\n`);
   }
   return result;
+}
+
+/** Two CSV files holding one line of `bytes` bytes of `0.5,` (written once, kept under bench/work). */
+function makeHugeLine(dir: string, bytes: number): { header: string; row: string } {
+  mkdirSync(dir, { recursive: true });
+  const header = join(dir, 'huge-header.csv');
+  const row = join(dir, 'huge-row.csv');
+  const block = Buffer.from('0.5,'.repeat(1 << 18)); // 1 MiB
+  const write = (path: string, before: string, after: string) => {
+    const size = Buffer.byteLength(before) + Math.ceil(bytes / block.length) * block.length + 1 + Buffer.byteLength(after);
+    if (existsSync(path) && statSync(path).size === size) return;
+    const fd = openSync(path, 'w');
+    try {
+      writeSync(fd, before);
+      for (let n = 0; n < bytes; n += block.length) writeSync(fd, block);
+      writeSync(fd, `\n${after}`);
+    } finally {
+      closeSync(fd);
+    }
+  };
+  write(header, '', '');
+  write(row, 'run,width,epoch,n,seed,test_error\na,8,1,1000,1,0.5\n', 'a,8,2,1000,1,0.4\n');
+  return { header, row };
 }
 
 async function main(): Promise<void> {
@@ -231,6 +257,23 @@ async function main(): Promise<void> {
   if (want('simulate')) {
     const simOut = join(work, 'sim-demo');
     steps.push({ name: 'simulate', what: 'simulate --preset demo', args: ['simulate', '--preset', 'demo', '--out', simOut, '--quiet'], rows: 0, reps: 1, target: { wall: 30 }, before: fresh(simOut) });
+  }
+  if (want('hugeline')) {
+    // Bad input at scale: one CSV line of 200 MB of `0.5,` fields (50 million fields). As the
+    // header it refuses the file at once; as a row between valid rows it is rejected and the
+    // rows after it are read. Memory must stay bounded by the limits, not by the file.
+    const files = makeHugeLine(join(work, 'hugeline'), 200 * 1000 * 1000);
+    const hugeStore = join(work, 'store-hugeline');
+    steps.push({
+      name: 'hugeline', what: 'ingest a CSV whose header is one 200 MB line of 0.5, fields', args: ['ingest', files.header, '--store', hugeStore, '--json', '--quiet'],
+      rows: 0, reps, target: { wall: 2.0, rss: GiB }, before: fresh(hugeStore),
+      expect: { code: 1, output: /line 1 \(the header\) has more than 10,000 fields/ },
+    });
+    steps.push({
+      name: 'hugerow', what: 'ingest a CSV with a 200 MB line of 0.5, fields between two valid rows', args: ['ingest', files.row, '--store', hugeStore, '--json', '--quiet'],
+      rows: 0, reps, target: { wall: 2.0, rss: GiB }, before: fresh(hugeStore),
+      expect: { code: 0, output: /"read":3,"accepted":2,"duplicates":0,"rejected":1/ },
+    });
   }
   if (big || only?.includes('ingest10m')) {
     const sweep10m = join(work, 'sweep-10m');

@@ -5,6 +5,12 @@
  */
 
 const fmtPath = (p: string) => (p === '-' ? 'stdin' : p);
+/** Counts and limits with thousands separators (8,388,608). */
+const big = (n: number) => n.toLocaleString('en-US');
+/** A number of any size in few characters: 1e15, 5e-324, 0.5. */
+const sci = (x: number) => (x !== 0 && (Math.abs(x) >= 1e6 || Math.abs(x) < 1e-3) ? x.toExponential().replace('e+', 'e') : String(x));
+/** User text quoted inside a message, clipped (a 1 MB name must not become a 1 MB message). */
+const clipText = (t: string) => (t.length > 80 ? `${t.slice(0, 80)}…` : t);
 
 // ── general / CLI ────────────────────────────────────────────────────────────
 export const general = {
@@ -50,7 +56,6 @@ export const ingestText = {
   badSeedFrom: (text: string, why: string) => `--seed-from is not a valid regular expression '${text}': ${why}`,
   badMappingFile: (path: string, why: string) => `--mapping ${path}: ${why}`,
   nothingFound: (paths: string) => `no readable logs found in ${paths}`,
-  nothingRead: 'nothing could be read; see the reasons above',
   strictFailed: (n: number) => `--strict: ${n} row${n === 1 ? '' : 's'} rejected, store left unchanged`,
   summary: (r: { read: number; accepted: number; duplicates: number; rejected: number; pending: number; skipped: number }) =>
     `read ${r.read} rows = ${r.accepted} accepted + ${r.duplicates} duplicates + ${r.rejected} rejected + ${r.pending} pending` +
@@ -94,6 +99,34 @@ export const ingestText = {
   badJsonLineWhy: (why: string) => `not valid JSON: ${why}`,
   mergedRows: (n: number) =>
     `${n} row${n === 1 ? '' : 's'} completed a row of the same run and epoch (metrics logged on separate lines or files); counted as duplicates`,
+  // Limits and odd inputs: each names the line (or file), the limit and the flag that raises it.
+  lineTooLong: (limit: number) => `line longer than the limit of ${big(limit)} characters (raise it with --max-line); rejected, reading resumes on the next line`,
+  tooManyFields: (limit: number) => `more than ${big(limit)} fields, the limit (raise it with --max-fields); rejected, reading resumes on the next line`,
+  headerTooLong: (limit: number) => `line 1 (the header) is longer than the limit of ${big(limit)} characters (raise it with --max-line)`,
+  headerTooManyFields: (limit: number) => `line 1 (the header) has more than ${big(limit)} fields, the limit (raise it with --max-fields)`,
+  textTooLong: (length: number, limit: number) => `text of ${big(length)} characters, over the limit of ${big(limit)} (raise it with --max-text)`,
+  longColumnName: (source: string, column: number, length: number, limit: number) =>
+    `${fmtPath(source)}: the name of column ${column} is ${big(length)} characters, over the limit of ${big(limit)} (--max-text); column left out`,
+  longConstant: (source: string, key: string, length: number, limit: number) =>
+    `${fmtPath(source)}: the value of '${clipText(key)}' is ${big(length)} characters, over the limit of ${big(limit)} (--max-text); left out`,
+  tooDeep: (limit: number) => `nested more than ${limit} levels deep (objects or arrays inside one another), the limit`,
+  skippedSource: (path: string, why: string) => `skipped ${fmtPath(path)}: ${why}`,
+  linkLoop: 'a symbolic link loop (the link leads back to itself)',
+  danglingLink: (target: string) => `a symbolic link to '${clipText(target)}', which does not exist`,
+  specialFile: (kind: string) => `a ${kind}, not a regular file`,
+  namedPipe: (path: string) => `a named pipe (FIFO): reading it could wait forever; pipe it in instead: datlas ingest - < ${path}`,
+  compressedName: (ext: string) => `a ${ext} file (compressed or binary), not a log ingest reads; decompress or convert it first`,
+  notLogName: 'not a log format ingest reads (by its extension)',
+  storeFolder: 'a datlas store (manifest.json and rows.arrow), not logs',
+  folderAgain: (real: string) => `a link to a folder read already (${clipText(real)})`,
+  otherFiles: (n: number, examples: string[]) =>
+    `${n} file${n === 1 ? '' : 's'} of other types passed over (not csv, tsv, txt, log, jsonl, json or arrow), e.g. ${examples.map(fmtPath).join(', ')}; --json lists them under skippedSources`,
+  nothingReadWhy: (failed: number, first: string) =>
+    `nothing could be read: ${failed} source${failed === 1 ? '' : 's'} failed${failed > 1 ? ', the first' : ''}: ${first}`,
+  stdinTerminal: 'reading a log from stdin, which is this terminal: type or paste it, then press Ctrl-D (or pipe a file in: datlas ingest - < FILE)',
+  implausibleAxis: (axis: string, v: number, range: readonly [number, number]) =>
+    `${axis} ${sci(v)} is outside the plausible range ${sci(range[0])} to ${sci(range[1])} (a unit mix-up or a corrupt log?)`,
+  badLimit: (flag: string, text: string) => `${flag} expects a whole number >= 1, got '${text}'`,
 };
 
 // ── store ────────────────────────────────────────────────────────────────────

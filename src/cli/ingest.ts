@@ -6,6 +6,8 @@ import { UserError, usageError } from '../UserError.js';
 import { ingestText } from '../messages.js';
 import type { Target } from '../ingest/synonyms.js';
 import type { Scale } from '../ingest/normalizeRaw.js';
+import { DEFAULT_LIMITS } from '../ingest/ReadLimits.js';
+import type { ReadLimits } from '../ingest/ReadLimits.js';
 
 interface IngestArgs {
   paths: string[];
@@ -17,6 +19,9 @@ interface IngestArgs {
   scale?: string[];
   strict: boolean;
   wait: number;
+  maxLine?: number;
+  maxFields?: number;
+  maxText?: number;
 }
 
 /** Targets --map may name (the canonical columns plus accuracies, converted to error). */
@@ -64,7 +69,10 @@ export const command: CommandSpec<IngestArgs> = {
       .option('seed-from', { type: 'string', describe: 'regular expression taking the seed from the file path (first group)' })
       .option('scale', { type: 'string', array: true, describe: 'column=percent|fraction, overriding the per-column detection' })
       .option('strict', { type: 'boolean', default: false, describe: 'fail (exit 1, store unchanged) on any rejected row' })
-      .option('wait', { type: 'number', default: 30, describe: 'seconds to wait for another ingest holding the store lock' }),
+      .option('wait', { type: 'number', default: 30, describe: 'seconds to wait for another ingest holding the store lock' })
+      .option('max-line', { type: 'number', describe: `characters one line may hold; a longer line is rejected (default ${DEFAULT_LIMITS.maxLine})` })
+      .option('max-fields', { type: 'number', describe: `fields (JSON keys) one line may hold (default ${DEFAULT_LIMITS.maxFields})` })
+      .option('max-text', { type: 'number', describe: `characters one text field (run name, condition value, column name) may hold (default ${DEFAULT_LIMITS.maxText})` }),
   async run(args) {
     // yargs array options swallow the words after them (`--set n=4000 runs/`): give paths back.
     const stray: string[] = [];
@@ -99,9 +107,17 @@ export const command: CommandSpec<IngestArgs> = {
       }
     }
     if (!Number.isFinite(args.wait) || args.wait < 0) throw usageError(`--wait expects seconds >= 0, got '${args.wait}'`);
+    const limits: Partial<ReadLimits> = {};
+    for (const [flag, key, v] of [['--max-line', 'maxLine', args.maxLine], ['--max-fields', 'maxFields', args.maxFields], ['--max-text', 'maxText', args.maxText]] as const) {
+      if (v === undefined) continue;
+      if (!Number.isInteger(v) || v < 1) throw usageError(ingestText.badLimit(flag, String(v)));
+      limits[key] = v;
+    }
     const paths = [...(args.paths ?? []).map(String), ...stray];
     if (paths.length === 0) throw usageError(ingestText.noPaths);
 
+    // Never a silent wait: `-` with nothing piped in reads what is typed.
+    if (paths.includes('-') && process.stdin.isTTY && !args.quiet) process.stderr.write(`${ingestText.stdinTerminal}\n`);
     const { ingestSources } = await import('../ingest/ingestSources.js');
     const r = await ingestSources({
       paths,
@@ -112,13 +128,18 @@ export const command: CommandSpec<IngestArgs> = {
       scale: scale as Partial<Record<Target, Scale>>,
       strict: args.strict,
       wait: args.wait,
+      limits,
       progress: (total) => progressBar({ label: 'ingest', total, quiet: args.quiet, minTotal: 300 }),
     });
     const err = (line: string) => {
       if (!args.quiet) process.stderr.write(`${line}\n`);
     };
     for (const note of r.notes) err(`note: ${note}`);
-    if (r.sources === 0) throw new UserError(r.missing.length ? ingestText.cannotOpen(r.missing[0], 'ENOENT') : ingestText.nothingFound(paths.join(' ')));
+    if (r.sources === 0) {
+      const first = r.skippedSources[0];
+      if (r.missing.length) throw new UserError(ingestText.cannotOpen(first.path, first.reason));
+      throw new UserError(ingestText.nothingFound(paths.join(' ')) + (first ? ` (${ingestText.skippedSource(first.path, first.reason)}${r.skippedSources.length > 1 ? `, and ${r.skippedSources.length - 1} more` : ''})` : ''));
+    }
 
     if (args.json) {
       const { ingestSummary } = await import('../api/ingest.js');
@@ -135,7 +156,11 @@ export const command: CommandSpec<IngestArgs> = {
       process.stdout.write(`${out.join('\n')}\n`);
     }
     if (r.strictFailed) throw new UserError(ingestText.strictFailed(r.rejected));
-    if (r.failed > 0 && r.failed === r.sources - r.unchanged && r.accepted === 0 && r.duplicates === 0) throw new UserError(ingestText.nothingRead);
+    if (r.failed > 0 && r.failed === r.sources - r.unchanged && r.accepted === 0 && r.duplicates === 0) {
+      // Self-contained: under --json or --quiet no reason was printed above it.
+      const first = r.rejects.find((x) => x.line === 0) ?? r.rejects[0];
+      throw new UserError(ingestText.nothingReadWhy(r.failed, first ? `${first.source === '-' ? 'stdin' : first.source}: ${first.reason}` : ''));
+    }
     return 0;
   },
 };

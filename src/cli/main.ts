@@ -3,6 +3,7 @@ import type { Argv } from 'yargs';
 import { UserError, usageError } from '../UserError.js';
 import { general } from '../messages.js';
 import type { CommandSpec } from './CommandSpec.js';
+import { guardOutput } from './terminalSafe.js';
 
 /**
  * Command registry. Each entry loads its module only when that command runs (or its --help is
@@ -58,8 +59,32 @@ function base(args: string[]): Argv {
     .wrap(wantsHelp ? Math.min(100, process.stdout.columns || 100) : null);
 }
 
-/** Runs the CLI and returns the exit code. Never throws. */
-export async function main(args: string[]): Promise<number> {
+/**
+ * `-` (stdin, DESIGN.md §6) as yargs would drop it: its parser reads a lone `-` as an empty group
+ * of short flags, so `ingest -` got no path and `--spec -` an unknown argument. It crosses the
+ * parser as this token (no argument from a shell can hold a NUL) and is given back before the
+ * command runs.
+ */
+const DASH = '\u0000-';
+const restoreDash = (v: unknown): unknown => (v === DASH ? '-' : Array.isArray(v) ? v.map(restoreDash) : v);
+function withDash(argv: Record<string, unknown>): Record<string, unknown> {
+  for (const k of Object.keys(argv)) argv[k] = restoreDash(argv[k]);
+  return argv;
+}
+
+/** Runs the CLI and returns the exit code. Never throws. Text it prints has control characters escaped (terminalSafe). */
+export async function main(argsGiven: string[]): Promise<number> {
+  const unguard = guardOutput();
+  try {
+    return await runMain(argsGiven);
+  } finally {
+    unguard();
+  }
+}
+
+async function runMain(argsGiven: string[]): Promise<number> {
+  const end = argsGiven.indexOf('--');
+  const args = argsGiven.map((a, i) => (a === '-' && (end < 0 || i < end) ? DASH : a));
   const debug = args.includes('--debug');
   const name = args.find((a) => !a.startsWith('-'));
   let failure: { message: string; code: number } | null = null;
@@ -68,8 +93,9 @@ export async function main(args: string[]): Promise<number> {
     // A usage error must stop yargs before any handler runs: returning from fail() lets it go on.
     let y = base(args).fail((msg, err) => {
       if (err) throw err;
-      failure = { message: msg, code: 2 };
-      throw usageError(String(msg).replace(/\s*\n\s*/g, ' '));
+      const text = String(msg).split(DASH).join('-');
+      failure = { message: text, code: 2 };
+      throw usageError(text.replace(/\s*\n\s*/g, ' '));
     });
     if (name && COMMANDS[name]) {
       const { command } = await COMMANDS[name].load();
@@ -78,7 +104,7 @@ export async function main(args: string[]): Promise<number> {
         command.describe,
         (b) => command.builder(b).example(`$0 ${command.example[0]}`, command.example[1]),
         async (argv) => {
-          code = await command.run(argv as never);
+          code = await command.run(withDash(argv) as never);
         },
       );
     } else {

@@ -16,8 +16,12 @@ export async function progressBar(opts: { label: string; total: number; quiet?: 
   const { label, total, quiet = false, minTotal = 1 } = opts;
   if (quiet || !process.stderr.isTTY || total < minTotal) return silent;
   const { default: cliProgress } = await import('cli-progress');
+  // A stream of its own on the terminal: the bar's escape sequences must not go through the
+  // guard that escapes control characters on process.stderr (terminalSafe).
+  const { WriteStream } = await import('node:tty');
+  const stream = new WriteStream(2);
   const bar: SingleBar = new cliProgress.SingleBar(
-    { format: `${label} [{bar}] {value}/{total} {eta_formatted}`, stream: process.stderr, hideCursor: true, clearOnComplete: true },
+    { format: `${label} [{bar}] {value}/{total} {eta_formatted}`, stream, hideCursor: true, clearOnComplete: true },
     cliProgress.Presets.shades_classic,
   );
   bar.start(total, 0);

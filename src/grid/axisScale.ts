@@ -55,10 +55,21 @@ export function cellEdges(scale: AxisScale, values: readonly number[]): number[]
   if (n === 0) return [];
   if (n === 1) {
     const half = scale === 'log2' ? 0.5 : t[0] !== 0 ? Math.abs(t[0]) * 0.05 : 0.5;
-    return [fromScale(scale, t[0] - half), fromScale(scale, t[0] + half)];
+    return [finiteEdge(scale, fromScale(scale, t[0] - half)), finiteEdge(scale, fromScale(scale, t[0] + half))];
   }
-  const edges = [t[0] - (t[1] - t[0]) / 2];
-  for (let k = 1; k < n; k++) edges.push((t[k - 1] + t[k]) / 2);
-  edges.push(t[n - 1] + (t[n - 1] - t[n - 2]) / 2);
-  return edges.map((e) => fromScale(scale, e));
+  // Halves before sums and differences: values near the largest double (1e308) must not overflow.
+  const edges = [t[0] - (t[1] / 2 - t[0] / 2)];
+  for (let k = 1; k < n; k++) edges.push(t[k - 1] / 2 + t[k] / 2);
+  edges.push(t[n - 1] + (t[n - 1] / 2 - t[n - 2] / 2));
+  return edges.map((e) => finiteEdge(scale, fromScale(scale, e)));
+}
+
+/**
+ * An edge kept finite (and, on a log2 axis, above zero): past the largest double the outer edge
+ * of a cell at 1e308 is the largest double; below the smallest one the edge of a cell at 5e-324
+ * is the smallest. Cells at such values are absurd, but the map must still draw, never hold null.
+ */
+function finiteEdge(scale: AxisScale, v: number): number {
+  if (scale === 'log2') return v > Number.MAX_VALUE ? Number.MAX_VALUE : v < Number.MIN_VALUE ? Number.MIN_VALUE : v;
+  return v > Number.MAX_VALUE ? Number.MAX_VALUE : v < -Number.MAX_VALUE ? -Number.MAX_VALUE : v;
 }

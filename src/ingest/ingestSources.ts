@@ -22,6 +22,8 @@ import { walkInputs } from './walkInputs.js';
 import type { InputSource } from './walkInputs.js';
 import type { Target } from './synonyms.js';
 import { ingestText } from '../messages.js';
+import { DEFAULT_LIMITS } from './ReadLimits.js';
+import type { ReadLimits } from './ReadLimits.js';
 
 export interface IngestOptions {
   paths: string[];
@@ -34,6 +36,8 @@ export interface IngestOptions {
   strict?: boolean;
   /** Seconds to wait for another ingest's lock. */
   wait?: number;
+  /** What one line may hold; defaults: DEFAULT_LIMITS (README, "Limits"). */
+  limits?: Partial<ReadLimits>;
   /** Reads stdin when a path is `-`. */
   readStdin?: () => Uint8Array;
   /** Worker threads for parsing (default: by core count, when there is enough to read). */
@@ -69,6 +73,11 @@ export interface IngestResult {
   strictFailed: boolean;
   /** Paths that do not exist. */
   missing: string[];
+  /**
+   * Every input passed over, with the reason: named paths that cannot be opened, link loops,
+   * dangling links, named pipes and other special files, compressed files, other file types.
+   */
+  skippedSources: { path: string; reason: string }[];
   /** This ingest's rejections (all of them; rejected.csv holds the store's). */
   rejects: Reject[];
   notes: string[];
@@ -98,8 +107,12 @@ export async function ingestSources(opts: IngestOptions): Promise<IngestResult> 
     read: 0, accepted: 0, duplicates: 0, rejected: 0, pending: 0, skipped: 0, conflicts: 0, sources: walk.sources.length, unchanged: 0,
     failed: 0, displaced: 0, storeRows: 0, storeSources: 0, wrote: false, strictFailed: false,
     missing: walk.missing.map((m) => m.path), rejects: [], notes: [],
+    skippedSources: [...walk.missing.map((m) => ({ path: m.path, reason: m.reason === 'ENOENT' ? 'no such file or folder' : m.reason })), ...walk.skipped.map((s) => ({ path: s.path, reason: s.reason }))],
   };
   for (const m of walk.missing) result.notes.push(ingestText.cannotOpen(m.path, m.reason));
+  const other = walk.skipped.filter((s) => s.other);
+  for (const s of walk.skipped) if (!s.other) result.notes.push(ingestText.skippedSource(s.path, s.reason));
+  if (other.length > 0) result.notes.push(ingestText.otherFiles(other.length, other.slice(0, 3).map((s) => s.path)));
   if (walk.sources.length === 0) return result;
 
   const lock = await lockStore(store, wait);
@@ -110,6 +123,7 @@ export async function ingestSources(opts: IngestOptions): Promise<IngestResult> 
     const bar = opts.progress ? await opts.progress(walk.sources.length) : null;
     const options: PortableOptions = {
       map, set, scale, seedFrom: seedFrom ? { source: seedFrom.source, flags: seedFrom.flags } : null,
+      limits: { ...DEFAULT_LIMITS, ...opts.limits },
     };
     // Stat first: a source with the stored size and mtime is unchanged (no read, no hash).
     const jobs: FileJob[] = [];
@@ -265,7 +279,7 @@ function readStdinSource(src: InputSource, manifest: Manifest, options: Portable
   let format = '';
   try {
     format = sniffFormat(bytes);
-    const norm = normalizeRaw(rawFromBytes(bytes, format as SourceFormat), {
+    const norm = normalizeRaw(rawFromBytes(bytes, format as SourceFormat, { limits: options.limits, source: '-' }), {
       source: '-', map: options.map, set: options.set, scale: options.scale,
       seedFrom: options.seedFrom ? new RegExp(options.seedFrom.source, options.seedFrom.flags) : undefined,
     });

@@ -8,6 +8,7 @@ import { isFractionTarget, matchTarget, nameKey, TARGETS } from './synonyms.js';
 import type { Target } from './synonyms.js';
 import { ingestText } from '../messages.js';
 import type { Reject } from '../store/Reject.js';
+import { AXIS_RANGE } from './ReadLimits.js';
 
 export type Scale = 'percent' | 'fraction';
 
@@ -333,10 +334,13 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     const trainSize = Vn[i];
     if (Kw[i] === CELL_MISSING) { reject(i, fieldName('width'), ingestText.missing('width')); continue; }
     if (!(width > 0) || width === Infinity) { reject(i, fieldName('width'), ingestText.badAxis('width', width)); continue; }
+    if (!(width >= AXIS_RANGE.width[0] && width <= AXIS_RANGE.width[1])) { reject(i, fieldName('width'), ingestText.implausibleAxis('width', width, AXIS_RANGE.width)); continue; }
     if (Ke[i] === CELL_MISSING) { reject(i, fieldName('epochs'), ingestText.missing('epochs')); continue; }
     if (!(epochs >= 0) || epochs === Infinity) { reject(i, fieldName('epochs'), ingestText.badAxis('epochs', epochs)); continue; }
+    if (!(epochs <= AXIS_RANGE.epochs[1])) { reject(i, fieldName('epochs'), ingestText.implausibleAxis('epochs', epochs, AXIS_RANGE.epochs)); continue; }
     if (Kn[i] === CELL_MISSING) { reject(i, fieldName('train_size'), ingestText.missing('train_size')); continue; }
     if (!(trainSize > 0) || !Number.isInteger(trainSize)) { reject(i, fieldName('train_size'), ingestText.badAxis('train_size', trainSize)); continue; }
+    if (!(trainSize <= AXIS_RANGE.train_size[1])) { reject(i, fieldName('train_size'), ingestText.implausibleAxis('train_size', trainSize, AXIS_RANGE.train_size)); continue; }
     let noise = 0;
     if (Kl[i] !== CELL_MISSING) {
       noise = Vl[i];

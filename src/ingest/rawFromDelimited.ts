@@ -6,17 +6,19 @@ import { tokenizeWhitespace } from './tokenizeWhitespace.js';
 import { tokenizeToColumns } from './tokenizeToColumns.js';
 
 import { ingestText } from '../messages.js';
+import { DEFAULT_LIMITS } from './ReadLimits.js';
+import type { ReadLimits } from './ReadLimits.js';
 
 /**
  * Reads CSV (`,`), TSV (tab) or whitespace-separated text with a header line into columns.
  * Header names are trimmed; a row with a different number of fields than the header is kept
  * as a row error (rejected with its line), never silently padded.
  */
-export function rawFromDelimited(text: string, delimiter: ',' | ';' | '\t' | 'whitespace'): RawTable {
+export function rawFromDelimited(text: string, delimiter: ',' | ';' | '\t' | 'whitespace', limits: ReadLimits = DEFAULT_LIMITS): RawTable {
   const format = delimiter === ',' || delimiter === ';' ? 'csv' : delimiter === '\t' ? 'tsv' : 'text';
   const raw = emptyRaw(format);
   if (delimiter !== 'whitespace') {
-    const t = tokenizeToColumns(text, delimiter);
+    const t = tokenizeToColumns(text, delimiter, limits);
     raw.names = t.names;
     raw.columns = t.columns;
     raw.lines = t.lines;
@@ -28,6 +30,14 @@ export function rawFromDelimited(text: string, delimiter: ',' | ';' | '\t' | 'wh
   }
   let columns: RawValue[][] = [];
   let width = 0;
+  const onReject = (line: number, reason: string) => {
+    if (width === 0) throw new Error(reason === ingestText.lineTooLong(limits.maxLine) ? ingestText.headerTooLong(limits.maxLine) : ingestText.headerTooManyFields(limits.maxFields));
+    const row = raw.length;
+    raw.lines.push(line);
+    raw.length = row + 1;
+    raw.rowErrors.set(row, { field: '', reason });
+    for (let j = 0; j < width; j++) columns[j][row] = '';
+  };
   const end = tokenizeWhitespace(text, (fields, count, line) => {
     if (width === 0) {
       raw.names = fields.slice(0, count);
@@ -40,7 +50,7 @@ export function rawFromDelimited(text: string, delimiter: ',' | ';' | '\t' | 'wh
     raw.length = row + 1;
     if (count !== width) raw.rowErrors.set(row, { field: count < width ? raw.names[count] : '', reason: ingestText.fieldCount(width, count) });
     for (let j = 0; j < width; j++) columns[j][row] = j < count ? fields[j] : '';
-  });
+  }, { limits, onReject });
   raw.columns = columns;
   // A header still being written is not a row; only a data row can be pending.
   raw.pendingLine = width === 0 ? 0 : end.pendingLine;

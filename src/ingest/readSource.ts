@@ -4,8 +4,12 @@ import { createRequire } from 'node:module';
 import { emptyRaw, flattenRecord } from './RawTable.js';
 import type { RawTable, RawValue } from './RawTable.js';
 import { rawFromDelimited } from './rawFromDelimited.js';
-import { rawFromJson, rawFromJsonLines } from './rawFromJson.js';
-import { parseJsonLenient } from './parseJsonLenient.js';
+import { rawFromJson } from './rawFromJson.js';
+import { tokenizeJsonLines } from './tokenizeJsonLines.js';
+import { limitText } from './limitText.js';
+import { DEFAULT_LIMITS, MAX_DEPTH } from './ReadLimits.js';
+import type { ReadLimits } from './ReadLimits.js';
+import { depthOverAt, JsonTooDeep, jsonWhy, parseJsonLenient } from './parseJsonLenient.js';
 import { rawFromArrow } from './rawFromArrow.js';
 import { decodeHead, decodeText } from './decodeText.js';
 import { ingestText } from '../messages.js';
@@ -45,19 +49,32 @@ export function sniffFormat(bytes: Uint8Array): SourceFormat {
   return 'text';
 }
 
-/** Reads bytes of a known format into a RawTable (pure: no file access). Throws on an unreadable file. */
-export function rawFromBytes(bytes: Uint8Array, format: SourceFormat): RawTable {
+/** How to read one source: the limits (ReadLimits) and its path as given (for notes). */
+export interface ReadOptions {
+  limits?: ReadLimits;
+  source?: string;
+}
+
+/**
+ * Reads bytes of a known format into a RawTable (pure: no file access), within the limits (a
+ * row over one is a rejected row, a header over one refuses the file). Throws on an unreadable file.
+ */
+export function rawFromBytes(bytes: Uint8Array, format: SourceFormat, opts: ReadOptions = {}): RawTable {
   if (bytes.byteLength === 0) return emptyRaw(format);
+  const limits = opts.limits ?? DEFAULT_LIMITS;
+  let raw: RawTable;
   if (format === 'arrow') {
     try {
-      return rawFromArrow(bytes);
+      raw = rawFromArrow(bytes);
     } catch (err) {
       throw new Error(ingestText.badArrow((err as Error).message.split('\n')[0]));
     }
+  } else {
+    const decoded = decodeText(bytes);
+    raw = rawFromText(decoded.text, format, limits);
+    if (decoded.guessed) raw.encoding = decoded.encoding;
   }
-  const decoded = decodeText(bytes);
-  const raw = rawFromText(decoded.text, format);
-  if (decoded.guessed) raw.encoding = decoded.encoding;
+  limitText(raw, { maxText: limits.maxText, source: opts.source ?? '' });
   return raw;
 }
 
@@ -68,16 +85,16 @@ function csvDelimiter(text: string): ',' | ';' {
   return header.includes(';') && !header.includes(',') ? ';' : ',';
 }
 
-export function rawFromText(text: string, format: Exclude<SourceFormat, 'arrow'>): RawTable {
+export function rawFromText(text: string, format: Exclude<SourceFormat, 'arrow'>, limits: ReadLimits = DEFAULT_LIMITS): RawTable {
   switch (format) {
     case 'csv':
-      return rawFromDelimited(text, csvDelimiter(text));
+      return rawFromDelimited(text, csvDelimiter(text), limits);
     case 'tsv':
-      return rawFromDelimited(text, '\t');
+      return rawFromDelimited(text, '\t', limits);
     case 'text':
-      return rawFromDelimited(text, 'whitespace');
+      return rawFromDelimited(text, 'whitespace', limits);
     case 'jsonl':
-      return rawFromJsonLines(text);
+      return tokenizeJsonLines(text, limits);
     case 'json':
       return rawFromJson(text);
   }
@@ -113,15 +130,36 @@ const requireHere = createRequire(import.meta.url);
 let yamlParse: ((text: string) => unknown) | null = null;
 const parseYaml = (text: string): unknown => (yamlParse ??= (requireHere('yaml') as typeof import('yaml')).parse)(text);
 
+/** Whether a parsed value nests objects and arrays more than `max` levels (walked without recursion). */
+function deeperThan(value: unknown, max: number): boolean {
+  const stack: [unknown, number][] = [[value, 1]];
+  const seen = new Set<unknown>(); // YAML anchors can make a value refer to itself
+  while (stack.length > 0) {
+    const [v, d] = stack.pop()!;
+    if (d > max) return true;
+    if (seen.has(v)) continue;
+    seen.add(v);
+    for (const x of Object.values(v as object)) if (x !== null && typeof x === 'object') stack.push([x, d + 1]);
+  }
+  return false;
+}
+
 /** Reads a run directory's config file (JSON or YAML) into flat constants. */
 export function readConfigFile(path: string): Record<string, RawValue> {
   const text = readFileSync(path, 'utf8');
   let value: unknown;
   try {
-    value = /\.ya?ml$/i.test(path) ? parseYaml(text) : parseJsonLenient(text);
+    const yaml = /\.ya?ml$/i.test(path);
+    // YAML's flow collections (`[[[...`) nest like JSON's, and its parser recurses into them.
+    if (yaml && depthOverAt(text, MAX_DEPTH) >= 0) throw new JsonTooDeep(0, MAX_DEPTH);
+    value = yaml ? parseYaml(text) : parseJsonLenient(text);
   } catch (err) {
-    throw new Error(ingestText.badConfig((err as Error).message.split('\n')[0]));
+    // The YAML parser recurses into flow collections (`[[[...`): a stack overflow there is depth.
+    if (err instanceof RangeError || err instanceof JsonTooDeep) throw new Error(ingestText.badConfig(ingestText.tooDeep(MAX_DEPTH)));
+    throw new Error(ingestText.badConfig(jsonWhy(err)));
   }
   if (value === null || typeof value !== 'object' || Array.isArray(value)) throw new Error(ingestText.badConfig('not a mapping of keys to values'));
+  // YAML is parsed without a depth check of its own; flattening recurses.
+  if (deeperThan(value, MAX_DEPTH)) throw new Error(ingestText.badConfig(ingestText.tooDeep(MAX_DEPTH)));
   return flattenRecord(value as Record<string, unknown>);
 }

@@ -3,6 +3,7 @@ import { createRequire } from 'node:module';
 import type { FileStamp } from '../store/Manifest.js';
 import { formatOfBytes, rawFromBytes, readConfigFile } from './readSource.js';
 import type { SourceFormat } from './readSource.js';
+import type { ReadLimits } from './ReadLimits.js';
 import { normalizeRaw } from './normalizeRaw.js';
 import type { Normalized, Scale } from './normalizeRaw.js';
 import type { Target } from './synonyms.js';
@@ -18,6 +19,8 @@ export interface PortableOptions {
   set: Record<string, string>;
   seedFrom: { source: string; flags: string } | null;
   scale: Partial<Record<Target, Scale>>;
+  /** What one line may hold (ReadLimits; plain numbers, so it crosses threads as is). */
+  limits?: ReadLimits;
 }
 
 /** One file to read: its path as given, a run directory's config, and what the store has for it. */
@@ -97,7 +100,7 @@ export function readSourceFile(job: FileJob): FileOutcome {
   let format = '';
   try {
     format = formatOfBytes(job.given, bytes);
-    const raw = rawFromBytes(bytes, format as SourceFormat);
+    const raw = rawFromBytes(bytes, format as SourceFormat, { limits: job.options.limits, source: job.given });
     if (job.config) raw.constants = { ...readConfigFile(job.config), ...raw.constants };
     const o = job.options;
     const norm = normalizeRaw(raw, {

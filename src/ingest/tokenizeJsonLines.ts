@@ -1,8 +1,10 @@
 import { NumTextColumn, POW10 } from './NumTextColumn.js';
 import { emptyRaw, flattenRecord } from './RawTable.js';
 import type { RawTable, RawValue } from './RawTable.js';
-import { jsonWhy, parseJsonLenient } from './parseJsonLenient.js';
+import { JsonTooDeep, jsonWhy, parseJsonLenient } from './parseJsonLenient.js';
 import { ingestText } from '../messages.js';
+import { DEFAULT_LIMITS } from './ReadLimits.js';
+import type { ReadLimits } from './ReadLimits.js';
 
 const QUOTE = 34;
 const BACKSLASH = 92;
@@ -24,6 +26,13 @@ const isDigit = (c: number) => c >= 48 && c <= 57;
 const unusualKey = (k: string) => k === '__proto__' || /^(0|[1-9]\d*)$/.test(k);
 /** A key that can be matched against the raw characters of a line (nothing escaped or special). */
 const plainKey = (k: string) => !/["\\\u0000-\u001f]/.test(k);
+
+/** Keys of a record, counted up to one past `max`. */
+function keyCount(o: Record<string, unknown>, max: number): number {
+  let k = 0;
+  for (const _ in o) if (++k > max) break;
+  return k;
+}
 
 /** The value of the number readNumber last read (a variable, not an object per number). */
 let numberValue = 0;
@@ -87,8 +96,12 @@ function readNumber(text: string, i: number): number {
  * object per line. Any other line (nested objects, escapes, NaN, not JSON at all) goes through
  * JSON.parse as a whole, so what a line means never depends on which path read it.
  * Cells: numbers as numbers; strings, `true` and `false` as text; null and absent keys as "".
+ * Limits (ReadLimits): a line longer than `maxLine` is rejected unread, one with more than
+ * `maxFields` keys is rejected when the scan passes the limit, one nested deeper than MAX_DEPTH
+ * is rejected before it is parsed; each is one rejected row naming its line, the rest are read.
  */
-export function tokenizeJsonLines(text: string): RawTable {
+export function tokenizeJsonLines(text: string, limits: ReadLimits = DEFAULT_LIMITS): RawTable {
+  const { maxLine, maxFields } = limits;
   const raw = emptyRaw('jsonl');
   const columns: NumTextColumn[] = [];
   const index = new Map<string, number>();
@@ -149,7 +162,7 @@ export function tokenizeJsonLines(text: string): RawTable {
     else setText(j, row, v === null || v === undefined ? '' : String(v));
   };
 
-  /** Scans the record on text[start, end); the number of fields, or -1 when the line needs JSON.parse. */
+  /** Scans the record on text[start, end); the number of fields, -1 when the line needs JSON.parse, -2 when it has more than maxFields. */
   const scan = (start: number, end: number): number => {
     let i = start;
     while (i < end && isSpace(text.charCodeAt(i))) i++;
@@ -169,6 +182,7 @@ export function tokenizeJsonLines(text: string): RawTable {
         }
         if (i >= end) return -1;
         const ke = i++;
+        if (nf === maxFields) return -2;
         if (nf === cap) growFields();
         // The column of this key: the one at this position last time when the characters match.
         const prev = seenName[nf];
@@ -335,6 +349,15 @@ export function tokenizeJsonLines(text: string): RawTable {
       break;
     }
     const row = raw.length;
+    if (end - start > maxLine) {
+      // Not looked into: the limit bounds what one line may cost.
+      raw.rowErrors.set(row, { field: '', reason: ingestText.lineTooLong(maxLine) });
+      lines.push(line);
+      raw.length++;
+      line++;
+      start = end + 1;
+      continue;
+    }
     if (readShaped(start, end, row)) {
       lines.push(line);
       raw.length++;
@@ -343,7 +366,11 @@ export function tokenizeJsonLines(text: string): RawTable {
       continue;
     }
     const nf = scan(start, end);
-    if (nf >= 0) {
+    if (nf === -2) {
+      raw.rowErrors.set(row, { field: '', reason: ingestText.tooManyFields(maxFields) });
+      lines.push(line);
+      raw.length++;
+    } else if (nf >= 0) {
       store(nf, row);
       learnShape(nf);
       lines.push(line);
@@ -356,12 +383,13 @@ export function tokenizeJsonLines(text: string): RawTable {
         try {
           rec = parseJsonLenient(body);
         } catch (err) {
-          why = ingestText.badJsonLineWhy(jsonWhy(err));
+          why = err instanceof JsonTooDeep ? ingestText.tooDeep(err.limit) : ingestText.badJsonLineWhy(jsonWhy(err));
         }
         if (why === null && (rec === null || typeof rec !== 'object' || Array.isArray(rec))) why = ingestText.notARecord;
-        if (why !== null) raw.rowErrors.set(row, { field: '', reason: why });
+        const flat = why === null ? flattenRecord(rec as Record<string, unknown>) : null;
+        if (flat !== null && keyCount(flat, maxFields) > maxFields) why = ingestText.tooManyFields(maxFields);
+        if (why !== null || flat === null) raw.rowErrors.set(row, { field: '', reason: why ?? ingestText.notARecord });
         else {
-          const flat = flattenRecord(rec as Record<string, unknown>);
           let f = 0;
           for (const key in flat) {
             const j = columnOf(key);

@@ -1,7 +1,8 @@
-import { existsSync, readdirSync, realpathSync, statSync } from 'node:fs';
-import type { Dirent } from 'node:fs';
-import { join, resolve, sep } from 'node:path';
+import { lstatSync, readdirSync, readlinkSync, realpathSync, statSync } from 'node:fs';
+import type { Dirent, Stats } from 'node:fs';
+import { extname, join, resolve, sep } from 'node:path';
 import { formatOfName, runDirectoryFiles } from './readSource.js';
+import { ingestText } from '../messages.js';
 
 /** One thing to ingest: a file, a run directory (config + metrics), or stdin. */
 export interface InputSource {
@@ -21,6 +22,49 @@ export interface WalkResult {
   sources: InputSource[];
   /** Paths that do not exist or cannot be listed: path → reason. */
   missing: { path: string; reason: string }[];
+  /**
+   * Entries passed over, each with the reason in words: link loops, dangling links, named pipes
+   * and other special files, compressed or binary files, files of formats ingest does not read.
+   * `other` marks the last kind (summed up in one note rather than one per file).
+   */
+  skipped: { path: string; reason: string; other?: boolean }[];
+}
+
+/** Extensions of files that are often logs packed up (or binary dumps): each gets a note of its own. */
+const PACKED = new Set(['.gz', '.bz2', '.xz', '.zst', '.zip', '.tgz', '.tar', '.7z', '.bin']);
+
+/** What kind of special file a stat describes ('' for a regular file or folder). */
+function specialKind(st: Stats): string {
+  if (st.isFIFO()) return 'named pipe (FIFO)';
+  if (st.isSocket()) return 'socket';
+  if (st.isCharacterDevice()) return 'character device';
+  if (st.isBlockDevice()) return 'block device';
+  return '';
+}
+
+/**
+ * A path's stat through links; on failure the reason in words (a loop, a dangling link, or the
+ * system's code).
+ */
+function statOrWhy(path: string): { st: Stats } | { why: string } {
+  try {
+    const st = statSync(path, { throwIfNoEntry: false });
+    if (st) return { st };
+    const link = lstatSync(path, { throwIfNoEntry: false });
+    if (link?.isSymbolicLink()) {
+      let target = '';
+      try {
+        target = readlinkSync(path);
+      } catch {
+        // Gone between the two calls: still a link to nothing.
+      }
+      return { why: ingestText.danglingLink(target) };
+    }
+    return { why: 'ENOENT' };
+  } catch (err) {
+    const code = (err as NodeJS.ErrnoException).code;
+    return { why: code === 'ELOOP' ? ingestText.linkLoop : (code ?? (err as Error).message) };
+  }
 }
 
 /**
@@ -32,6 +76,7 @@ export function walkInputs(paths: readonly string[], opts: { skip?: readonly str
   const skip = new Set((opts.skip ?? []).map((p) => resolve(p)));
   const sources: InputSource[] = [];
   const missing: WalkResult['missing'] = [];
+  const skipped: WalkResult['skipped'] = [];
   const seen = new Set<string>();
   const add = (s: InputSource) => {
     if (seen.has(s.key)) return;
@@ -50,7 +95,10 @@ export function walkInputs(paths: readonly string[], opts: { skip?: readonly str
       missing.push({ path: dir, reason: (err as NodeJS.ErrnoException).code ?? (err as Error).message });
       return;
     }
-    if (visited.has(real)) return;
+    if (visited.has(real)) {
+      skipped.push({ path: dir, reason: ingestText.folderAgain(real) });
+      return;
+    }
     visited.add(real);
     let entries: Dirent[];
     try {
@@ -62,7 +110,10 @@ export function walkInputs(paths: readonly string[], opts: { skip?: readonly str
     entries.sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
     // A store, not logs (commit.json alone: a first write cut short before its renames).
     const has = (n: string) => entries.some((e) => e.name === n);
-    if ((has('manifest.json') && has('rows.arrow')) || has('commit.json')) return;
+    if ((has('manifest.json') && has('rows.arrow')) || has('commit.json')) {
+      skipped.push({ path: dir, reason: ingestText.storeFolder });
+      return;
+    }
     // Paths are built by concatenation below one normalised prefix: join and resolve per file
     // were most of the cost of walking thousands of logs (re-ingest of unchanged files is this walk).
     const base = join(dir);
@@ -78,16 +129,24 @@ export function walkInputs(paths: readonly string[], opts: { skip?: readonly str
         dirs.push(name);
         continue;
       }
-      // Only files of a known format (or a run folder's config) need their size and mtime;
-      // symbolic links are followed by the stat.
-      if (!e.isFile() && !e.isSymbolicLink()) continue;
-      const st = statSync(prefix + name, { throwIfNoEntry: false });
-      if (!st) continue;
+      // Files of a known format (or a run folder's config) need their size and mtime; symbolic
+      // links are followed by the stat. Anything else passed over is said so (skipped).
+      if (!e.isFile() && !e.isSymbolicLink()) {
+        const st = lstatSync(prefix + name, { throwIfNoEntry: false });
+        skipped.push({ path: prefix + name, reason: ingestText.specialFile(st ? specialKind(st) || 'special file' : 'special file') });
+        continue;
+      }
+      const got = statOrWhy(prefix + name);
+      if ('why' in got) {
+        skipped.push({ path: prefix + name, reason: got.why });
+        continue;
+      }
+      const st = got.st;
       if (st.isDirectory()) dirs.push(name);
       else if (st.isFile()) {
         files.push(name);
         stats.set(name, st);
-      }
+      } else skipped.push({ path: prefix + name, reason: ingestText.specialFile(specialKind(st) || 'special file') });
     }
     const rd = runDirectoryFiles(files);
     if (rd) {
@@ -96,7 +155,12 @@ export function walkInputs(paths: readonly string[], opts: { skip?: readonly str
       return;
     }
     for (const name of files) {
-      if (formatOfName(name) === null) continue;
+      if (formatOfName(name) === null) {
+        const ext = extname(name).toLowerCase();
+        if (PACKED.has(ext)) skipped.push({ path: prefix + name, reason: ingestText.compressedName(ext) });
+        else skipped.push({ path: prefix + name, reason: ingestText.notLogName, other: true });
+        continue;
+      }
       const st = stats.get(name)!;
       add({ key: absPrefix + name, given: prefix + name, kind: 'file', size: st.size, mtime: st.mtimeMs });
     }
@@ -107,12 +171,16 @@ export function walkInputs(paths: readonly string[], opts: { skip?: readonly str
       sources.push({ key: '-', given: '-', kind: 'stdin' });
       continue;
     }
-    if (!existsSync(p)) {
-      missing.push({ path: p, reason: 'ENOENT' });
+    const got = statOrWhy(p);
+    if ('why' in got) {
+      missing.push({ path: p, reason: got.why });
       continue;
     }
-    if (statSync(p).isDirectory()) walkDir(p);
-    else add({ key: resolve(p), given: p, kind: 'file' });
+    if (got.st.isDirectory()) walkDir(p);
+    else if (got.st.isFile()) add({ key: resolve(p), given: p, kind: 'file' });
+    // Named on purpose, yet reading a pipe nobody writes to waits forever: never a silent wait.
+    else if (got.st.isFIFO()) skipped.push({ path: p, reason: ingestText.namedPipe(p) });
+    else skipped.push({ path: p, reason: ingestText.specialFile(specialKind(got.st) || 'special file') });
   }
-  return { sources, missing };
+  return { sources, missing, skipped };
 }

@@ -1,4 +1,5 @@
 import type { TopLevelSpec } from 'vega-lite';
+import { escapeControls } from '../escapeControls.js';
 
 export type ImageFormat = 'png' | 'svg' | 'pdf';
 export const IMAGE_FORMATS: readonly ImageFormat[] = ['png', 'svg', 'pdf'];
@@ -33,6 +34,21 @@ export async function compileSpec(spec: TopLevelSpec): Promise<CompiledSpec> {
 }
 
 /**
+ * The spec with control characters in its text (titles naming a condition, axis and legend
+ * titles) written as visible escapes, as on the terminal: they would draw as boxes in PNG and PDF
+ * and make the SVG invalid XML. Data rows are left as they are (their values are not drawn as
+ * text, and walking them would cost on large maps).
+ */
+function escapeSpecText<T>(v: T): T {
+  if (typeof v === 'string') return escapeControls(v) as T;
+  if (Array.isArray(v)) return v.map(escapeSpecText) as T;
+  if (v === null || typeof v !== 'object') return v;
+  const out: Record<string, unknown> = {};
+  for (const [k, x] of Object.entries(v as Record<string, unknown>)) out[k] = k === 'values' || k === 'datasets' ? x : escapeSpecText(x);
+  return out as T;
+}
+
+/**
  * Renders a vega-lite spec headless: SVG as text, PNG and PDF through node-canvas.
  * PDF text is drawn as glyphs so it stays selectable.
  */
@@ -48,7 +64,7 @@ export async function renderFormats(
 ): Promise<Partial<Record<ImageFormat, Buffer | string>>> {
   const { formats, scale = 2 } = opts;
   const vega = await import('vega');
-  const { vega: vgSpec } = await compileSpec(spec);
+  const { vega: vgSpec } = await compileSpec(escapeSpecText(spec));
   const view = new vega.View(vega.parse(vgSpec as never), { renderer: 'none' });
   const out: Partial<Record<ImageFormat, Buffer | string>> = {};
   try {

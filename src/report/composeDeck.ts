@@ -3,6 +3,7 @@
  * (textDrawingMode 'glyph') so every word on a page can be selected and searched; charts are
  * embedded as PNG images.
  */
+import { escapeControls } from '../escapeControls.js';
 
 export type DeckBlock =
   | { kind: 'heading'; text: string }
@@ -266,6 +267,12 @@ export async function composeDeck(opts: DeckOptions): Promise<Buffer> {
   const canvas = createCanvas(width, height, 'pdf');
   const ctx = canvas.getContext('2d') as unknown as Ctx;
   ctx.textDrawingMode = 'glyph';
+  // Run names, conditions and titles come from the user's logs: control characters are drawn as
+  // visible escapes (as on the terminal), and measured the way they are drawn.
+  const fill = ctx.fillText.bind(ctx);
+  const measureRaw = ctx.measureText.bind(ctx);
+  ctx.fillText = (t, x, y) => fill(escapeControls(t), x, y);
+  ctx.measureText = (t) => measureRaw(escapeControls(t));
 
   const images = new Map<Buffer, Image>();
   for (const p of pages) for (const col of p.columns) for (const b of col) if (b.kind === 'image' && !images.has(b.png)) images.set(b.png, (await loadImage(b.png)) as unknown as Image);

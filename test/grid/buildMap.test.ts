@@ -187,3 +187,23 @@ describe('buildMap with condition keys (ingest writes conditions as sorted key=v
     expect(() => buildMap(t, { at: { weight_decay: 0.5 } })).toThrow(/no rows with weight_decay=0.5/);
   });
 });
+
+describe('buildMap at absurd axis values', () => {
+  // Widths of 1e308 (next to the largest double) and 5e-324 (the smallest): the cell edges, and
+  // the map's JSON, stay finite (an overflowed edge used to print as null).
+  for (const widths of [[1e306, 1e307, 1e308], [5e-324, 1e-323, 4, 8]]) {
+    it(`widths ${widths.join(', ')}: finite cell edges on both axes`, () => {
+      const rows: Partial<RowRecord>[] = [];
+      let r = 0;
+      for (const w of widths)
+        for (let s = 0; s < 2; s++) {
+          r++;
+          for (const e of [1, 10, 100]) rows.push({ run: `r${r}`, seed: s, width: w, epochs: e, train_size: 100, label_noise: 0, test_error: 0.3 + 0.01 * s + 0.001 * e, train_error: 0.1 });
+        }
+      const map = buildMap(tableFromRows(rows), { kind: 'model', method: 'linear', raster: { nx: 8, ny: 4 } });
+      for (const v of [...map.x.edges, ...map.y.edges]) expect(Number.isFinite(v)).toBe(true);
+      const json = JSON.parse(mapToJson(map)) as { x: { edges: unknown[] }; y: { edges: unknown[] } };
+      for (const v of [...json.x.edges, ...json.y.edges]) expect(typeof v).toBe('number');
+    });
+  }
+});

@@ -4,6 +4,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { runCli } from '../helpers/runCli.js';
+import { readStore } from '../../src/store/readStore.js';
+import { tableToRows } from '../../src/store/tableFromRows.js';
 
 const FIXTURE = fileURLToPath(new URL('../fixtures/ingest/messy', import.meta.url));
 let dir = '';
@@ -40,9 +42,38 @@ describe('datlas ingest', () => {
   it('exits 1 with one line when nothing could be read', () => {
     const r = runCli(['ingest', 'garbage.json', '--store', 's3'], { cwd: dir });
     expect(r.code).toBe(1);
-    expect(r.stderr.trim().split('\n').at(-1)).toBe('datlas: nothing could be read; see the reasons above');
+    // The reason is in the message itself: under --json or --quiet nothing is printed above it.
+    expect(r.stderr.trim().split('\n').at(-1)).toMatch(/^datlas: nothing could be read: 1 source failed: garbage.json: not valid JSON/);
     expect(r.stdout).toContain('garbage.json: not valid JSON');
     noStack(r.stderr);
+    const quiet = runCli(['ingest', 'garbage.json', '--store', 's3', '--json', '--quiet'], { cwd: dir });
+    expect(quiet.code).toBe(1);
+    expect(quiet.stderr).not.toMatch(/above/);
+    expect(quiet.stderr).toMatch(/garbage.json: not valid JSON/);
+  });
+
+  it('reads stdin as a source named -, alone and beside paths, its rows counted', async () => {
+    const csv = 'run,width,epoch,n,seed,test_error\nfromstdin,8,1,100,1,0.5\nfromstdin,8,2,100,1,0.4\n';
+    const alone = runCli(['ingest', '-', '--store', 'st1', '--json', '--quiet'], { cwd: dir, input: csv });
+    expect(alone.code).toBe(0);
+    expect(JSON.parse(alone.stdout)).toMatchObject({ read: 2, accepted: 2, sources: 1 });
+    const beside = runCli(['ingest', 'messy', '-', '--store', 'st2', '--json', '--quiet'], { cwd: dir, input: csv });
+    expect(beside.code).toBe(0);
+    const j = JSON.parse(beside.stdout);
+    expect(j).toMatchObject({ read: 16, sources: 3 });
+    expect(j.read).toBe(j.accepted + j.duplicates + j.rejected + j.pending + j.skipped);
+    const rows = tableToRows((await readStore(join(dir, 'st1'))).table);
+    expect(rows.map((x) => [x.run, x.source, x.source_line])).toEqual([['fromstdin', '-', 2], ['fromstdin', '-', 3]]);
+  });
+
+  it('escapes control characters of user text it prints (run names, values, paths)', () => {
+    const name = 'esc\u001b]0;title\u0007.csv';
+    writeFileSync(join(dir, name), 'run,width,epoch,n,test_error\nr,8,1,100,\u001b[31mbad\n');
+    const r = runCli(['ingest', name, '--store', 'se'], { cwd: dir });
+    expect(r.code).toBe(0);
+    for (const text of [r.stdout, r.stderr]) expect(text).not.toMatch(/[\u0000-\u0008\u000b-\u001f\u007f-\u009f]/);
+    expect(r.stdout).toContain("not a number: '\\u001b[31mbad'");
+    expect(r.stdout).toContain('esc\\u001b]0;title\\u0007.csv');
   });
 
   it('exits 1 for a missing path, and under --strict with any rejection (store untouched)', () => {

@@ -71,6 +71,19 @@ describe('walkInputs', () => {
     expect(sources.map((s) => s.given)).toEqual([f, join(top, 'b', 'w16.jsonl'), join(top, 'b', 'w8.csv')]);
   });
 
+  it('says what it passed over and why: another store, a link back to a folder read, other file types; hidden entries silently', () => {
+    const { skipped } = walkInputs([top]);
+    expect(skipped).toEqual([
+      { path: join(top, 'b', 'notes.md'), reason: 'not a log format ingest reads (by its extension)', other: true },
+      { path: join(top, 'b', 'loop'), reason: `a link to a folder read already (${join(top, 'b')})` },
+      { path: join(top, 'old-store'), reason: 'a datlas store (manifest.json and rows.arrow), not logs' },
+    ]);
+  });
+
+  it('reads stdin for -, beside paths too', () => {
+    expect(walkInputs(['-', join(top, 'top.csv')]).sources.map((s) => s.kind)).toEqual(['stdin', 'file']);
+  });
+
   it('reads stdin for -', () => {
     expect(walkInputs(['-']).sources).toEqual([{ key: '-', given: '-', kind: 'stdin' }]);
   });

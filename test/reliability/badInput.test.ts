@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mkdirSync, mkdtempSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
+import { execFileSync } from 'node:child_process';
 import { join } from 'node:path';
 import { tableFromArrays, tableToIPC } from '@uwdata/flechette';
 import { ingestSources } from '../../src/ingest/ingestSources.js';
@@ -64,9 +65,23 @@ const CASES: Case[] = [
   { name: 'a different header mid-file fences the rows below it', file: 'joined2.csv', body: `${H}\n${row('a', 1)}\nepoch,width,n,test_error\n1,8,1000,0.5\n2,8,1000,0.4\n${H}\n${row('c', 1)}\n`, accepted: 2, rejects: [[3, '', /a header with different columns/], [4, '', /below a different header \(line 3\)/], [5, '', /below a different header/]], notes: [/repeats the header/] },
   // ── huge lines
   { name: 'a 4 MB line with an extra field', file: 'huge.csv', body: `${H}\n${row('a', 1)},${'x'.repeat(4_000_000)}\n${row('a', 2)}\n`, accepted: 1, rejects: [[2, '', /expected 7 fields/]] },
-  { name: 'a 4 MB run id (kept whole)', file: 'hugeid.csv', body: `${H}\n${row('r'.repeat(4_000_000), 1)}\n`, accepted: 1, rows: (r) => expect(r[0].run.length).toBe(4_000_000) },
-  { name: 'a 1 MB column name: messages clip it', file: 'hugename.csv', body: `width,epoch,n,test_error,${'c'.repeat(1_000_000)}\n8,1,100,0.5,abc\n8,2,100,0.4,abc\n`, accepted: 2, rows: (r) => expect(r[0].condition.length).toBeGreaterThan(1_000_000) },
-  { name: 'a 3 MB JSON line', file: 'huge.jsonl', body: `{"width":8,"epoch":1,"n":100,"test_error":0.5,"blob":"${'z'.repeat(3_000_000)}"}\n`, accepted: 1 },
+  // ── limits (ReadLimits; README "Limits"): each names line, field and limit; the rest is read
+  { name: 'a 4 MB run id: rejected by the text limit, the next row read', file: 'hugeid.csv', body: `${H}\n${row('r'.repeat(4_000_000), 1)}\n${row('a', 1)}\n`, accepted: 1, rejects: [[2, 'run', /text of 4,000,000 characters, over the limit of 65,536 \(raise it with --max-text\)/]] },
+  { name: 'a 1 MB column name: the column left out (noted, clipped), the rows read', file: 'hugename.csv', body: `width,epoch,n,test_error,${'c'.repeat(1_000_000)}\n8,1,100,0.5,abc\n8,2,100,0.4,abc\n`, accepted: 2, notes: [/the name of column 5 is 1,000,000 characters, over the limit of 65,536 \(--max-text\); column left out/], rows: (r) => expect(r[0].condition).toBe('') },
+  { name: 'a 3 MB string in a JSON line: that line rejected by the text limit', file: 'huge.jsonl', body: `{"width":8,"epoch":1,"n":100,"test_error":0.5,"blob":"${'z'.repeat(3_000_000)}"}\n{"width":8,"epoch":2,"n":100,"test_error":0.4}\n`, accepted: 1, rejects: [[1, 'blob', /text of 3,000,000 characters, over the limit of 65,536/]] },
+  { name: 'a CSV row of 100,000 fields: rejected at the field limit, the rows after it read', file: 'wide.csv', body: `${H}\n${row('a', 1)}\n${'0.5,'.repeat(100_000)}\n${row('a', 2)}\n`, accepted: 2, rejects: [[3, '', /more than 10,000 fields, the limit \(raise it with --max-fields\)/]] },
+  { name: 'a 9 MB CSV line without a delimiter: rejected at the line limit, the rows after it read', file: 'long.csv', body: `${H}\n${'x'.repeat(9_000_000)}\n${row('a', 2)}\n`, accepted: 1, rejects: [[2, '', /line longer than the limit of 8,388,608 characters \(raise it with --max-line\)/]] },
+  { name: 'a 9 MB quoted field holding line breaks: rejected, line numbers after it still right', file: 'longq.csv', body: `${H}\n${row('a', 1)}\n"${'x\n'.repeat(4_500_000)}",8,1,100,1,0.5,0.1\n${row('a', 2)}\n`, accepted: 2, rejects: [[3, '', /line longer than the limit/]], rows: (r) => expect(r.map((x) => x.source_line)).toEqual([2, 4_500_004]) },
+  { name: 'a 10 MB quoted field of doubled quotes: rejected at the line limit (no value built), the next row read', file: 'quotes.csv', body: `${H}\n"${'""'.repeat(5_000_000)}",8,1,1000,1,0.5,0.1\n${row('a', 2)}\n`, accepted: 1, rejects: [[2, '', /line longer than the limit/]] },
+  { name: 'a header of 20,000 fields: the file refused naming line 1 and the limit', file: 'wideheader.csv', body: `${Array.from({ length: 20_000 }, (_, k) => `c${k}`).join(',')}\n1,2\n`, accepted: 0, rejects: [[0, '', /line 1 \(the header\) has more than 10,000 fields, the limit \(raise it with --max-fields\)/]] },
+  { name: 'a whitespace-text line of 9 MB: rejected, the rest read', file: 'long.txt', body: `width epoch n test_error\n8 1 100 0.5\n${'y'.repeat(9_000_000)}\n8 2 100 0.4\n`, accepted: 2, rejects: [[3, '', /line longer than the limit of 8,388,608/]] },
+  { name: 'a JSON line of 9 MB: rejected unread, the rest read', file: 'long.jsonl', body: `{"width":8,"epoch":1,"n":100,"test_error":0.5}\n{"width":8,"pad":[${'0,'.repeat(4_500_000)}0]}\n{"width":8,"epoch":2,"n":100,"test_error":0.4}\n`, accepted: 2, rejects: [[2, '', /line longer than the limit/]] },
+  { name: 'a JSON line of 20,000 keys: rejected at the field limit', file: 'wide.jsonl', body: `{${Array.from({ length: 20_000 }, (_, k) => `"k${k}":1`).join(',')}}\n{"width":8,"epoch":2,"n":100,"test_error":0.4}\n`, accepted: 1, rejects: [[1, '', /more than 10,000 fields/]] },
+  { name: 'a JSON line nested 100,000 levels deep: that line rejected, the next read', file: 'deep.jsonl', body: `{"width":8,"epoch":1,"n":100,"test_error":0.5}\n${'{"a":'.repeat(100_000)}1${'}'.repeat(100_000)}\n{"width":8,"epoch":2,"n":100,"test_error":0.4}\n`, accepted: 2, rejects: [[2, '', /nested more than 64 levels deep/]] },
+  { name: 'a deep array in JSON Lines: rejected as too deep (not "no width column")', file: 'deeparr.jsonl', body: `${'['.repeat(100_000)}${']'.repeat(100_000)}\n{"width":8,"epoch":2,"n":100,"test_error":0.4}\n`, accepted: 1, rejects: [[1, '', /nested more than 64 levels deep/]] },
+  { name: 'a JSON document nested 100,000 levels deep: refused naming its line', file: 'deep.json', body: `[\n{"width":8,"epoch":1,"n":100,"test_error":0.5},\n${'['.repeat(100_000)}${']'.repeat(100_000)}\n]\n`, accepted: 0, rejects: [[0, '', /at line 3: nested more than 64 levels deep/]] },
+  { name: 'a 100 KB run name in a JSON document: that record rejected by the text limit', file: 'longname.json', body: `[{"run":"${'n'.repeat(100_000)}","width":8,"epoch":1,"n":100,"test_error":0.5},{"run":"b","width":8,"epoch":1,"n":100,"test_error":0.4}]`, accepted: 1, rejects: [[1, 'run', /text of 100,000 characters, over the limit of 65,536/]] },
+  { name: 'terminal escape sequences in run and condition names: stored as given', file: 'esc.csv', body: `run,width,epoch,n,test_error,opt\n\u001b[31mred\u001b]0;title\u0007,8,1,100,0.5,\u001b[2Jx\n${Array.from({ length: 20 }, (_, e) => `plain,8,${e + 2},100,0.5,sgd`).join('\n')}\n`, accepted: 21, rows: (r) => expect([r[0].run, r[0].condition]).toEqual(['\u001b[31mred\u001b]0;title\u0007', 'opt=\u001b[2Jx']) },
   // ── numbers written for people
   { name: 'thousands separators ("4,000") read, noted', file: 'thousands.csv', body: 'width,epoch,n,test_error\n"1,024",1,"4,000",0.5\n8,2,"12,000",0.4\n', accepted: 2, notes: [/column 'width' has thousands separators \('1,024' read as 1024\)/, /column 'n' has thousands separators/], rows: (r) => expect(r.map((x) => [x.width, x.train_size])).toEqual([[1024, 4000], [8, 12000]]) },
   { name: 'percent signs ("12%") read as fractions', file: 'pct.csv', body: 'width,epoch,n,test_error\n8,1,100,12%\n8,2,100,9.5%\n', accepted: 2, rows: (r) => expect(r.map((x) => x.test_error)).toEqual([0.12, 0.095]) },
@@ -93,6 +108,7 @@ const CASES: Case[] = [
   { name: 'accuracy logged under an error name: kept, noted (it rises over training)', file: 'accaserr.csv', body: `${H}\n${[1, 2, 4, 8].map((e, i) => row('a', e, String(0.1 + 0.25 * i))).join('\n')}\n${[1, 2, 4, 8].map((e, i) => row('b', e, String(0.12 + 0.25 * i))).join('\n')}\n`, accepted: 8, notes: [/column 'test_error' \(read as test_error\) rises by more than 0.3 over training in 2 of 2 runs; if it is an accuracy, map it with --map test_accuracy=test_error/] },
   { name: 'error logged under an accuracy name: noted the other way', file: 'erraacc.csv', body: `width,epoch,n,run,accuracy\n${[1, 2, 4, 8].map((e, i) => `8,${e},100,a,${(0.9 - 0.25 * i).toFixed(2)}`).join('\n')}\n`, accepted: 4, notes: [/column 'accuracy' \(read as test_error\) rises .*if it is an error, map it with --map test_error=accuracy/] },
   { name: 'width 0 and negative width: rejected', file: 'width0.csv', body: `run,width,epoch,n,test_error\na,0,1,100,0.5\nb,-4,1,100,0.5\nc,8,1,100,0.5\n`, accepted: 1, rejects: [[2, 'width', /width must be > 0, got 0/], [3, 'width', /width must be > 0, got -4/]] },
+  { name: 'width 1e308 or 5e-324, epochs 1e300, train size 1e20: rejected as implausible (they overflowed the map)', file: 'absurd.csv', body: 'run,width,epoch,n,test_error\na,1e308,1,100,0.5\nb,5e-324,1,100,0.5\nc,8,1e300,100,0.5\nd,8,1,1e20,0.5\ne,1e15,1,100,0.5\n', accepted: 1, rejects: [[2, 'width', /width 1e308 is outside the plausible range 1e-9 to 1e15 \(a unit mix-up or a corrupt log\?\)/], [3, 'width', /width 5e-324 is outside/], [4, 'epoch', /epochs 1e300 is outside the plausible range 0 to 1e12/], [5, 'n', /train_size 1e20 is outside/]] },
   { name: 'fractional train size: rejected', file: 'n.csv', body: 'width,epoch,n,test_error\n8,1,100.5,0.5\n', accepted: 0, rejects: [[2, 'n', /train_size must be a whole number > 0, got 100.5/]] },
   { name: 'label noise above 1: rejected', file: 'noise.csv', body: 'width,epoch,n,label_noise,test_error\n8,1,100,1.5,0.5\n8,1,100,0.2,0.5\n16,1,100,0.2,0.5\n32,1,100,0,0.5\n64,1,100,0.1,0.5\n', accepted: 4, rejects: [[2, 'label_noise', /label_noise must be between 0 and 1/]] },
   { name: 'duplicate epoch in one run: equal = duplicate, different = conflict (later line kept)', file: 'dup.csv', body: `${H}\n${row('a', 1)}\n${row('a', 1)}\n${row('a', 1, '0.6')}\n`, accepted: 1, duplicates: 1, rejects: [[2, 'run', /conflict: run 'a' epoch 1 has different values in .*dup.csv line 4, which is newer and was kept/]], rows: (r) => expect(r[0].test_error).toBe(0.6) },
@@ -140,6 +156,66 @@ describe('folders', () => {
     symlinkSync('..', join(root, 'runs', 'up'));
     const r = await ingestSources({ paths: [root], store: join(root, 'store') });
     expect({ sources: r.sources, accepted: r.accepted, duplicates: r.duplicates }).toEqual({ sources: 1, accepted: 1, duplicates: 0 });
+  });
+
+  it('link loops, dangling links, a named pipe, compressed and binary files: each skipped with a note (and in skippedSources), the valid files read', async () => {
+    const root = join(dir, 'odd');
+    mkdirSync(root, { recursive: true });
+    writeFileSync(join(root, 'a.csv'), `${H}\n${row('a', 1)}\n`);
+    writeFileSync(join(root, 'z.csv'), `${H}\n${row('z', 1)}\n`);
+    symlinkSync('loop2.csv', join(root, 'loop1.csv'));
+    symlinkSync('loop1.csv', join(root, 'loop2.csv'));
+    symlinkSync('nowhere.csv', join(root, 'dangling.csv'));
+    execFileSync('mkfifo', [join(root, 'pipe.csv')]);
+    writeFileSync(join(root, 'log.csv.gz'), Uint8Array.from([0x1f, 0x8b, 8, 0]));
+    writeFileSync(join(root, 'dump.bin'), Uint8Array.from([0, 1, 2, 3]));
+    writeFileSync(join(root, 'README.md'), 'notes\n');
+    const r = await ingestSources({ paths: [root], store: join(dir, 'odd-store') });
+    expect({ sources: r.sources, accepted: r.accepted, rejected: r.rejected }).toEqual({ sources: 2, accepted: 2, rejected: 0 });
+    const why = Object.fromEntries(r.skippedSources.map((x) => [x.path.slice(root.length + 1), x.reason]));
+    expect(why).toEqual({
+      'loop1.csv': expect.stringMatching(/symbolic link loop/),
+      'loop2.csv': expect.stringMatching(/symbolic link loop/),
+      'dangling.csv': expect.stringMatching(/symbolic link to 'nowhere.csv', which does not exist/),
+      'pipe.csv': expect.stringMatching(/named pipe \(FIFO\), not a regular file/),
+      'log.csv.gz': expect.stringMatching(/a .gz file \(compressed or binary\)/),
+      'dump.bin': expect.stringMatching(/a .bin file/),
+      'README.md': expect.stringMatching(/not a log format/),
+    });
+    for (const name of ['loop1.csv', 'loop2.csv', 'dangling.csv', 'pipe.csv', 'log.csv.gz', 'dump.bin']) expect(r.notes.some((n) => n.includes(join(root, name))), name).toBe(true);
+    expect(r.notes.some((n) => /1 file of other types passed over.*README.md/.test(n))).toBe(true);
+  });
+
+  it('a named pipe or a link loop named directly: skipped with a note at once, never a wait; the other paths read', async () => {
+    const root = join(dir, 'named');
+    mkdirSync(root, { recursive: true });
+    writeFileSync(join(root, 'a.csv'), `${H}\n${row('a', 1)}\n`);
+    execFileSync('mkfifo', [join(root, 'fifo.csv')]);
+    symlinkSync('self.csv', join(root, 'self.csv'));
+    const r = await ingestSources({ paths: [join(root, 'fifo.csv'), join(root, 'self.csv'), join(root, 'a.csv')], store: join(dir, 'named-store') });
+    expect({ sources: r.sources, accepted: r.accepted }).toEqual({ sources: 1, accepted: 1 });
+    expect(r.skippedSources.map((x) => x.reason)).toEqual([expect.stringMatching(/symbolic link loop/), expect.stringMatching(/named pipe \(FIFO\): reading it could wait forever; pipe it in instead: datlas ingest - </)]);
+    expect(r.notes.some((n) => /cannot open .*self.csv: a symbolic link loop/.test(n))).toBe(true);
+  });
+
+  it('run folders whose config nests 100 or 20,000 levels deep (block and flow YAML, JSON): refused as too deep, never a stack overflow', async () => {
+    const root = join(dir, 'deepcfg');
+    const configs: [string, string][] = [
+      ['config.yaml', `a:\n${Array.from({ length: 100 }, (_, i) => `${' '.repeat(2 * (i + 1))}b:`).join('\n')} 1\n`],
+      ['config.yaml', `a: ${'['.repeat(20_000)}${']'.repeat(20_000)}\n`],
+      ['config.json', `{"a":${'['.repeat(20_000)}${']'.repeat(20_000)}}`],
+    ];
+    configs.forEach(([name, body], k) => {
+      mkdirSync(join(root, `r${k}`), { recursive: true });
+      writeFileSync(join(root, `r${k}`, name), body);
+      writeFileSync(join(root, `r${k}`, 'metrics.csv'), 'epoch,width,n,test_error\n1,8,100,0.5\n');
+    });
+    mkdirSync(join(root, 'ok'), { recursive: true });
+    writeFileSync(join(root, 'ok', 'config.json'), '{"width": 16, "n": 100}');
+    writeFileSync(join(root, 'ok', 'metrics.csv'), 'epoch,test_error\n1,0.5\n');
+    const r = await ingestSources({ paths: [root], store: join(root, 'store') });
+    expect({ accepted: r.accepted, failed: r.failed }).toEqual({ accepted: 1, failed: 3 });
+    for (const x of r.rejects) expect(x.reason).toBe('run directory config is not readable: nested more than 64 levels deep (objects or arrays inside one another), the limit');
   });
 
   it('a run folder with a broken config: one rejection naming the reason, other folders read', async () => {

@@ -19,6 +19,14 @@ describe('renderSpec', () => {
     expect((await compileSpec(bad)).warnings.length).toBeGreaterThan(0);
   });
 
+  it('draws control characters of user text in titles as visible escapes (SVG stays valid XML)', async () => {
+    // XML 1.0 §2.2: the Char production allows no C0 control other than tab, LF and CR.
+    const spec = { ...bars, title: 'map at condition opt=\u001b[31mred\u0007' } as TopLevelSpec;
+    const svg = (await renderSpec(spec, { format: 'svg' })) as string;
+    expect(svg).toContain('opt=\\u001b[31mred\\u0007');
+    expect(svg).not.toMatch(/[\u0000-\u0008\u000b\u000c\u000e-\u001f]/);
+  });
+
   it('writes PNG, SVG and PDF with their format signatures', async () => {
     // PNG signature: ISO/IEC 15948 §5.2; PDF header: ISO 32000-1 §7.5.2.
     const png = (await renderSpec(bars, { format: 'png' })) as Buffer;

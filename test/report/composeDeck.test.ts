@@ -42,6 +42,17 @@ describe.skipIf(!hasPoppler && !process.env.CI)('composeDeck', () => {
     expect(images.length).toBe(1);
   });
 
+  it('draws control characters of user text (run and condition names) as visible escapes', async () => {
+    const evil = 'opt=\u001b[31mred\u001b]0;title\u0007';
+    const pdf = await composeDeck({ pages: [{ title: `Sweep ${evil}`, columns: [[{ kind: 'bullets', items: [`condition ${evil}`] }], [{ kind: 'table', columns: ['run'], rows: [[`\u001b[2Jrun-1`]] }]] }] });
+    const file = join(dir, 'escapes.pdf');
+    writeFileSync(file, pdf);
+    const text = run('pdftotext', ['-layout', file, '-']);
+    expect(text).toContain('opt=\\u001b[31mred\\u001b]0;title\\u0007');
+    expect(text).toContain('\\u001b[2Jrun-1');
+    expect(text).not.toMatch(/[\u0000-\u0008\u000b\u000e-\u001f\u007f-\u009f]/);
+  });
+
   it('cuts a table that does not fit and says how many rows are left out', async () => {
     const rows = Array.from({ length: 80 }, (_, i) => [String(i), `run-${i}`]);
     const pdf = await composeDeck({ pages: [{ title: 'Long table', columns: [[{ kind: 'table', columns: ['#', 'run'], rows }]] }] });
