@@ -5,8 +5,7 @@ import type { MapOptions as GridMapOptions } from '../grid/buildMap.js';
 import { jsonReplacer, mapFileObject } from '../grid/mapJson.js';
 import type { MapFile } from '../grid/mapJson.js';
 import type { SweepMap } from '../grid/SweepMap.js';
-import { ridgeJson } from './findRidge.js';
-import type { RidgeJson } from './findRidge.js';
+import type { RidgeResult } from '../analysis/Ridge.js';
 import { rowsOf } from './rowsOf.js';
 import { Store } from './Store.js';
 import type { RowsInput } from './rowsOf.js';
@@ -25,10 +24,10 @@ export interface MapOptions extends GridMapOptions {
  * missing values are NaN; `JSON.stringify(map)` gives the file's text (typed arrays as arrays,
  * NaN as null), and a map file read back with JSON.parse is accepted wherever a map is.
  */
-export type MapObject = MapFile & { ridge: RidgeJson | null; store?: string; toJSON(): unknown };
+export type MapObject = MapFile & { ridge: RidgeResult | null; store?: string; toJSON(): unknown };
 
 /** Adds the non-enumerable toJSON that writes typed arrays as arrays and NaN as null (the file's text). */
-export function asMapObject(map: SweepMap, extra: { ridge: RidgeJson | null; store?: string }): MapObject {
+export function asMapObject(map: SweepMap, extra: { ridge: RidgeResult | null; store?: string }): MapObject {
   const obj = mapFileObject(map, extra) as MapObject;
   Object.defineProperty(obj, 'toJSON', {
     enumerable: false,
@@ -50,45 +49,6 @@ export async function buildMap(rows: RowsInput, opts: MapOptions = {}): Promise<
   // A map of an opened store records that store, as the map file of `datlas map --store DIR` does.
   const store = given ?? (rows instanceof Store ? rows.dir : undefined);
   const map = mapOfRows(rowsOf(rows), mapOpts);
-  const r = ridge === false ? null : ridgeJson(ridgeOfMap(map, ridge === true ? {} : ridge), map);
+  const r = ridge === false ? null : ridgeOfMap(map, ridge === true ? {} : ridge);
   return asMapObject(map, { ridge: r, ...(store !== undefined && { store }) });
-}
-
-/** What `datlas map --json` prints (docs/schemas/map-summary.schema.json): the map's axes, choices, fit and counts, and the files written. */
-export interface MapSummary {
-  map: SweepMap['kind'];
-  x: { name: string; scale: SweepMap['x']['scale']; values: number[] };
-  y: { name: string; scale: SweepMap['y']['scale']; values: number[] };
-  metric: SweepMap['metric'];
-  fixed: SweepMap['fixed'];
-  picked: string[];
-  method: SweepMap['method'];
-  loo: SweepMap['loo'];
-  cells: { measured: number; missing: number; diverged: number };
-  /** Seeds per measured cell. */
-  seeds: { min: number; median: number; max: number } | null;
-  /** Rows of the ridge, and how many hold a peak; null when the ridge was not located. */
-  ridge: { total: number; withPeak: number } | null;
-  notes: string[];
-  files: string[];
-}
-
-export function mapSummary(map: SweepMap & { ridge?: RidgeJson | null }, files: string[]): MapSummary {
-  const measured = map.cells.filter((c) => c.cell.stats.n > 0).map((c) => c.cell.stats.n).sort((a, b) => a - b);
-  const ridge = map.ridge ?? null;
-  return {
-    map: map.kind,
-    x: { name: map.x.name, scale: map.x.scale, values: map.x.values },
-    y: { name: map.y.name, scale: map.y.scale, values: map.y.values },
-    metric: map.metric,
-    fixed: map.fixed,
-    picked: map.picked,
-    method: map.method,
-    loo: map.loo,
-    cells: { measured: measured.length, missing: map.missing.length, diverged: map.diverged.length },
-    seeds: measured.length ? { min: measured[0], median: measured[Math.floor(measured.length / 2)], max: measured[measured.length - 1] } : null,
-    ridge: ridge ? { total: ridge.rows.length, withPeak: ridge.rows.filter((r) => r.peak).length } : null,
-    notes: map.notes ?? [],
-    files,
-  };
 }

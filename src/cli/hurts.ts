@@ -2,6 +2,7 @@ import type { Argv } from 'yargs';
 import type { HurtsResult } from '../analysis/Hurts.js';
 import { analysisText as t } from '../messages.js';
 import type { Metric } from '../store/RowTable.js';
+import { UserError } from '../UserError.js';
 import type { CommandSpec } from './CommandSpec.js';
 import { parseAt } from './parseAt.js';
 import { checkNumber } from './ridge.js';
@@ -48,9 +49,16 @@ export const command: CommandSpec<HurtsArgs> = {
     checkNumber('--limit', args.limit, (v) => v >= 0 && Number.isInteger(v), 'a whole number >= 0');
     const at = parseAt(args.at);
     const { readStore } = await import('../store/readStore.js');
-    const { findHurts } = await import('../api/findHurts.js');
+    const { buildCells } = await import('../cells/buildCells.js');
+    const { findHurts } = await import('../analysis/findHurts.js');
+    const { defaultMetric } = await import('../store/RowTable.js');
     const { table } = await readStore(args.store);
-    const result = findHurts(table, { metric: args.metric, at, alpha: args.alpha, boot: args.boot, seed: args.seed });
+    const metric = args.metric ?? defaultMetric(table);
+    // A fixed epoch budget need not be logged exactly: runs are aligned to it along their own curves.
+    const epochs = typeof at.epochs === 'number' ? [at.epochs] : undefined;
+    const cells = buildCells(table, { metric, epochs });
+    const result = findHurts(cells, { at, alpha: args.alpha, boot: args.boot, seed: args.seed });
+    if (result.slices === 0) throw new UserError(result.singleSize ? t.hurtsOneSize(result.singleSize) : t.noCells(at));
     if (args.json) process.stdout.write(`${JSON.stringify(result)}\n`);
     else process.stdout.write(`${hurtsText(result, args.limit)}\n`);
     return 0;

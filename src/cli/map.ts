@@ -116,18 +116,22 @@ export const command: CommandSpec<MapArgs> = {
     const scales = parseScales(args.scale);
     const { readStore } = await import('../store/readStore.js');
     const { buildMap } = await import('../grid/buildMap.js');
-    const api = await import('../api/buildMap.js');
+    const { mapToJson } = await import('../grid/mapJson.js');
     const { table } = await readStore(args.store);
-    // The library's buildMap: the object it returns is the map file (ridge and provenance included).
-    const map = await api.buildMap(table, { kind: args.kind, x: args.x, y: args.y, at, metric: args.metric, method: args.method, raster, scales, ridge: args.ridge, store: args.store });
-    const ridge = map.ridge;
+    const map = buildMap(table, { kind: args.kind, x: args.x, y: args.y, at, metric: args.metric, method: args.method, raster, scales });
+
+    let ridge = null;
+    if (args.ridge) {
+      const { findRidge } = await import('../analysis/findRidge.js');
+      ridge = findRidge(map);
+    }
 
     mkdirSync(args.out, { recursive: true });
     const base = map.kind === 'custom' ? `map-${map.x.name}-${map.y.name}` : `map-${map.kind}`;
     const files: string[] = [];
     if (formats.includes('json')) {
       const path = join(args.out, `${base}.json`);
-      writeFileSync(path, `${JSON.stringify(map)}\n`);
+      writeFileSync(path, `${mapToJson(map, { ridge, store: args.store })}\n`);
       files.push(path);
     }
     const imageFormats = formats.filter((f): f is 'png' | 'svg' | 'pdf' => f !== 'json');
@@ -156,8 +160,9 @@ export const command: CommandSpec<MapArgs> = {
 
     const ridgeRows = ridge ? { total: ridge.rows.length, withPeak: ridge.rows.filter((r) => r.peak).length } : null;
     if (args.json) {
-      const { mapSummary } = await import('../api/buildMap.js');
-      process.stdout.write(`${JSON.stringify(mapSummary(map, files), (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v))}\n`);
+      const { mapSummary } = await import('../api/mapSummary.js');
+      const out = mapSummary(map, ridgeRows, files);
+      process.stdout.write(`${JSON.stringify(out, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v))}\n`);
     } else {
       process.stdout.write(`${summary(map, ridgeRows, files).join('\n')}\n`);
     }

@@ -6,6 +6,8 @@ import type { Metric } from '../store/RowTable.js';
 import { usageError } from '../UserError.js';
 import type { CommandSpec } from './CommandSpec.js';
 import { parseAt } from './parseAt.js';
+// The --json object is the library's (findRidge in src/api), so the two cannot drift.
+import { ridgeJson } from '../api/ridgeJson.js';
 
 interface RidgeArgs {
   kind: MapKind;
@@ -69,7 +71,7 @@ export const command: CommandSpec<RidgeArgs> = {
     const at = parseAt(args.at);
     const { readStore } = await import('../store/readStore.js');
     const { buildMap } = await import('../grid/buildMap.js');
-    const { findRidge } = await import('../api/findRidge.js');
+    const { findRidge } = await import('../analysis/findRidge.js');
     const { table } = await readStore(args.store);
     // The ridge reads the measured cells only: the cheapest interpolator on a small raster suffices.
     const map = buildMap(table, { kind: args.kind, at, metric: args.metric, method: 'linear', raster: { nx: 16, ny: 16 } });
@@ -78,7 +80,7 @@ export const command: CommandSpec<RidgeArgs> = {
       if (map.picked.length) process.stderr.write(`${t.picked(map.picked, map.fixed)}\n`);
       for (const note of map.notes ?? []) process.stderr.write(`${note}\n`);
     }
-    if (args.json) process.stdout.write(`${JSON.stringify(ridge)}\n`);
+    if (args.json) process.stdout.write(`${JSON.stringify(ridgeJson(ridge, map))}\n`);
     else process.stdout.write(`${ridgeText(ridge)}\n`);
     return 0;
   },
