@@ -23,6 +23,7 @@ import { cpus, freemem, loadavg, totalmem, platform, release } from 'node:os';
 import { closeSync, existsSync, mkdirSync, openSync, rmSync, statSync, writeFileSync, writeSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { makeNested } from './makeNested.js';
 import { makeSweep, SWEEP_10M, SWEEP_1M } from './makeSweep.js';
 import { haveGnuTime, measure } from './measure.js';
 import type { Sample } from './measure.js';
@@ -257,6 +258,14 @@ async function main(): Promise<void> {
   if (want('simulate')) {
     const simOut = join(work, 'sim-demo');
     steps.push({ name: 'simulate', what: 'simulate --preset demo', args: ['simulate', '--preset', 'demo', '--out', simOut, '--quiet'], rows: 0, reps: 1, target: { wall: 30 }, before: fresh(simOut) });
+  }
+  if (only?.includes('nested') || only?.includes('nestedjsonl')) {
+    // A nested JSON document (~100 MB) against the same rows as one JSON Lines file.
+    const n = makeNested(join(work, 'nested'));
+    console.log(`nested workload: ${n.rows.toLocaleString('en')} rows, ${(n.jsonBytes / 1e6).toFixed(0)} MB nested JSON, ${(n.jsonlBytes / 1e6).toFixed(0)} MB JSON Lines`);
+    const sn = join(work, 'store-nested');
+    if (want('nested')) steps.push({ name: 'nested', what: 'ingest one nested JSON document (per_seed → w=.. keys → history)', args: ['ingest', n.json, '--store', sn, '--quiet', '--keys', 'seed'], rows: n.rows, reps, target: {}, before: fresh(sn) });
+    if (want('nestedjsonl')) steps.push({ name: 'nestedjsonl', what: 'ingest the same rows as one JSON Lines file', args: ['ingest', n.jsonl, '--store', sn, '--quiet'], rows: n.rows, reps, target: {}, before: fresh(sn) });
   }
   if (want('hugeline')) {
     // Bad input at scale: one CSV line of 200 MB of `0.5,` fields (50 million fields). As the

@@ -443,3 +443,44 @@ export const report = {
   demoNext: (html: string, store: string, spec: string) =>
     `next: open ${html} in a browser; try datlas map --store ${store} --kind model --at label_noise=0.1, or datlas plan --store ${store} --spec ${spec} --budget 100`,
 };
+
+// ── reading result files: layouts, key levels, curves, describe ─────────────
+const at = (source: string) => (source === '' ? '' : `${fmtPath(source)}: `);
+const list = (values: string[], more: number) => `${values.join(', ')}${more > 0 ? `, … (${more} more)` : ''}`;
+export const layoutText = {
+  notEvaluated: 'curve point with every metric NaN or empty (not evaluated at this epoch)',
+  valuesWithoutNames: "a list of values without column names: write records (pandas orient='records' or 'split')",
+  levelNamed: (source: string, path: string, column: string, parent: string) =>
+    `${at(source)}keys under '${path}' read as ${column} (named by '${parent}'; rename with --keys)`,
+  levelUnnamed: (source: string, path: string, column: string, values: string[], more: number) =>
+    `${at(source)}keys under '${path}' are values (${list(values, more)}), kept as column ${column}; name them with --keys NAME[,NAME...] (outermost first)`,
+  levelKeys: (source: string, path: string, column: string) => `${at(source)}keys under '${path}' read as ${column} (--keys)`,
+  levelPairs: (source: string, path: string, column: string) => `${at(source)}'${column}' read from the name=value keys under '${path}'`,
+  levelRuns: (source: string, path: string, n: number, values: string[]) =>
+    `${at(source)}${n} keys under '${path}' name runs (${list(values.slice(0, 4), n - Math.min(4, values.length))})`,
+  curves: (source: string, path: string, key: string, records: number, rows: number) =>
+    `${at(source)}curve '${key}' at ${(path || '(top)').replace(/\*/g, '<key>')} expanded: ${records} record${records === 1 ? '' : 's'} → ${rows} rows`,
+  unread: (source: string, path: string, length: number, what: string, times: number) =>
+    `${at(source)}array '${path}' (${times > 1 ? `in ${times} records, up to ` : ''}${length} ${what === 'lists' ? 'lists' : 'values'}) not read: not records and not a column of a block of equal-length arrays`,
+  summaries: (source: string, path: string, rows: number, reason: string) =>
+    `${at(source)}${rows} record${rows === 1 ? '' : 's'} under '${path}' skipped: ${reason === 'key' ? 'a block of summaries' : 'metrics are all means or spreads over seeds'}, not runs`,
+  paramsAsWidth: (source: string, column: string) =>
+    `${at(source)}no width column; parameter count '${column}' serves as the model-size axis (width)`,
+  outcomeMetric: (source: string, column: string, target: string) =>
+    `${at(source)}no ${target} curve; run-level '${column}' read as ${target} at the run's epochs`,
+  bestCaution: (source: string, column: string) =>
+    `${at(source)}'${column}' is a best-over-training value: an early-stopped minimum hides epoch-wise double descent; read its maps with care`,
+  mappingLine: (target: string, from: string, passed: string[]) => `  ${target} ← ${from}${passed.length ? ` (passed over: ${passed.join(', ')})` : ''}`,
+  layoutHead: (sources: number, example: string) => `layout of ${sources} source${sources === 1 ? '' : 's'} (e.g. ${fmtPath(example)}):`,
+  conditionsLine: (n: number, shown: string) => `  conditions: ${n} (${shown})`,
+  conditionRuns: (condition: string, runs: number) => `${condition === '' ? '(none)' : condition}: ${runs} run${runs === 1 ? '' : 's'}`,
+  numbered: (source: string, path: string, curves: number) =>
+    `${at(source)}${curves} curve${curves === 1 ? '' : 's'} at ${path} without an epoch or step key: points numbered 1, 2, … as epochs (one per epoch); map another column with --map epochs=COLUMN`,
+  unusedKeys: (source: string, names: string[]) =>
+    `${at(source)}--keys ${names.join(',')}: no level of value keys left to name (the document has fewer levels)`,
+  moreLayouts: (n: number) => `… ${n} more layout${n === 1 ? '' : 's'} (ingest --json lists them all)`,
+  badKeys: (text: string) => `--keys expects NAME[,NAME...] (outermost level first, e.g. --keys seed,label_noise), got '${text}'`,
+  describeHead: (store: string, rows: number, runs: number) => `store ${store}: ${rows} rows, ${runs} runs`,
+  describeColumn: (canonical: string, source: string) => `  ${canonical} ← ${source}`,
+  describeAxis: (axis: string, values: string) => `  ${axis}: ${values}`,
+};

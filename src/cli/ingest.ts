@@ -3,8 +3,9 @@ import type { Argv } from 'yargs';
 import type { CommandSpec } from './CommandSpec.js';
 import { progressBar } from './progress.js';
 import { UserError, usageError } from '../UserError.js';
-import { ingestText } from '../messages.js';
+import { ingestText, layoutText } from '../messages.js';
 import type { Target } from '../ingest/synonyms.js';
+import { TARGETS } from '../ingest/synonyms.js';
 import type { Scale } from '../ingest/normalizeRaw.js';
 import { DEFAULT_LIMITS } from '../ingest/ReadLimits.js';
 import type { ReadLimits } from '../ingest/ReadLimits.js';
@@ -19,6 +20,8 @@ interface IngestArgs {
   scale?: string[];
   strict: boolean;
   wait: number;
+  keys?: string;
+  condition?: string[];
   maxLine?: number;
   maxFields?: number;
   maxText?: number;
@@ -26,8 +29,8 @@ interface IngestArgs {
 
 /** Targets --map may name (the canonical columns plus accuracies, converted to error). */
 const MAP_TARGETS = ['run', 'seed', 'width', 'epochs', 'train_size', 'label_noise', 'test_error', 'train_error', 'test_loss',
-  'train_loss', 'test_accuracy', 'train_accuracy', 'wall_seconds', 'status', 'condition'];
-const NUMERIC_SET = ['seed', 'width', 'epochs', 'train_size', 'label_noise', 'wall_seconds'];
+  'train_loss', 'test_accuracy', 'train_accuracy', 'wall_seconds', 'status', 'condition', 'params'];
+const NUMERIC_SET = ['seed', 'width', 'epochs', 'train_size', 'label_noise', 'wall_seconds', 'params'];
 const SCALE_TARGETS = ['test_error', 'train_error', 'test_accuracy', 'train_accuracy', 'label_noise'];
 
 function pairs(values: string[] | undefined, bad: (t: string) => string): [string, string][] {
@@ -68,6 +71,8 @@ export const command: CommandSpec<IngestArgs> = {
       .option('set', { type: 'string', array: true, describe: 'axis=value for logs that lack it; other keys join the condition' })
       .option('seed-from', { type: 'string', describe: 'regular expression taking the seed from the file path (first group)' })
       .option('scale', { type: 'string', array: true, describe: 'column=percent|fraction, overriding the per-column detection' })
+      .option('keys', { type: 'string', describe: 'names of the value-key levels of nested JSON, outermost first (e.g. seed,label_noise)' })
+      .option('condition', { type: 'string', array: true, describe: 'column that splits the sweep into conditions (repeatable)' })
       .option('strict', { type: 'boolean', default: false, describe: 'fail (exit 1, store unchanged) on any rejected row' })
       .option('wait', { type: 'number', default: 30, describe: 'seconds to wait for another ingest holding the store lock' })
       .option('max-line', { type: 'number', describe: `characters one line may hold; a longer line is rejected (default ${DEFAULT_LIMITS.maxLine})` })
@@ -76,6 +81,16 @@ export const command: CommandSpec<IngestArgs> = {
   async run(args) {
     // yargs array options swallow the words after them (`--set n=4000 runs/`): give paths back.
     const stray: string[] = [];
+    if (args.condition) {
+      // Like --map, the array option swallows paths after it: an existing path is given back.
+      args.condition = args.condition.flatMap((v) => String(v).split(',')).filter((v) => {
+        if (v !== '-' && existsSync(v) && /[/.]/.test(v)) {
+          stray.push(v);
+          return false;
+        }
+        return v.trim() !== '';
+      });
+    }
     for (const key of ['map', 'set', 'scale'] as const) {
       const vals = args[key];
       if (!vals) continue;
@@ -113,6 +128,11 @@ export const command: CommandSpec<IngestArgs> = {
       if (!Number.isInteger(v) || v < 1) throw usageError(ingestText.badLimit(flag, String(v)));
       limits[key] = v;
     }
+    let keys: string[] | undefined;
+    if (args.keys !== undefined) {
+      keys = String(args.keys).split(',').map((k) => k.trim());
+      if (keys.some((k) => k === '' || /[=\s]/.test(k))) throw usageError(layoutText.badKeys(String(args.keys)));
+    }
     const paths = [...(args.paths ?? []).map(String), ...stray];
     if (paths.length === 0) throw usageError(ingestText.noPaths);
 
@@ -128,6 +148,8 @@ export const command: CommandSpec<IngestArgs> = {
       scale: scale as Partial<Record<Target, Scale>>,
       strict: args.strict,
       wait: args.wait,
+      keys,
+      condition: args.condition,
       limits,
       progress: (total) => progressBar({ label: 'ingest', total, quiet: args.quiet, minTotal: 300 }),
     });
@@ -153,6 +175,7 @@ export const command: CommandSpec<IngestArgs> = {
       for (const x of shown) out.push(ingestText.rejectedLine(x));
       if (r.rejects.length > shown.length) out.push(ingestText.moreRejected(r.rejects.length - shown.length, `${args.store}/rejected.csv`));
       out.push(ingestText.storeLine(args.store, r.storeRows, r.storeSources));
+      out.push(...layoutLines(r.layouts));
       process.stdout.write(`${out.join('\n')}\n`);
     }
     if (r.strictFailed) throw new UserError(ingestText.strictFailed(r.rejected));
@@ -164,3 +187,20 @@ export const command: CommandSpec<IngestArgs> = {
     return 0;
   },
 };
+
+/** Per distinct layout: canonical ← source (alternatives passed over), structure, conditions with run counts. */
+function layoutLines(groups: import('../ingest/groupLayouts.js').LayoutGroup[]): string[] {
+  const out: string[] = [];
+  for (const g of groups.slice(0, 8)) {
+    out.push(layoutText.layoutHead(g.sources, g.example));
+    const order = (t: string) => { const i = (TARGETS as readonly string[]).indexOf(t); return i < 0 ? 99 : i; };
+    const targets = Object.keys(g.mapping).sort((a, b) => order(a) - order(b));
+    for (const t of targets) out.push(layoutText.mappingLine(t, g.mapping[t], g.passedOver[t] ?? []));
+    for (const s of g.structure) out.push(`  ${s}`);
+    const conds = Object.entries(g.conditions);
+    const shown = conds.slice(0, 6).map(([c, n]) => layoutText.conditionRuns(c, n)).join('; ');
+    out.push(layoutText.conditionsLine(conds.length, conds.length > 6 ? `${shown}; …` : shown));
+  }
+  if (groups.length > 8) out.push(layoutText.moreLayouts(groups.length - 8));
+  return out;
+}

@@ -14,6 +14,7 @@ import { guardOutput } from './terminalSafe.js';
 const COMMANDS: Record<string, { describe: string; load: () => Promise<{ command: CommandSpec<any> }> }> = {
   // registry:start (one line per command, keep alphabetical)
   coverage: { describe: 'which planned runs are complete, partial, missing or diverged', load: () => import('./coverage.js') },
+  describe: { describe: 'what the store holds: axes, seeds, conditions, metrics, column sources', load: () => import('./describe.js') },
   demo: { describe: 'the whole pipeline on the built-in demo sweep: ingest, spec with gaps, report, plan', load: () => import('./demo.js') },
   hurts: { describe: 'train-size ranges where more data raises test error', load: () => import('./hurts.js') },
   ingest: { describe: 'merge run logs into the store', load: () => import('./ingest.js') },

@@ -117,8 +117,14 @@ export const command: CommandSpec<MapArgs> = {
     const { readStore } = await import('../store/readStore.js');
     const { buildMap } = await import('../grid/buildMap.js');
     const { mapToJson } = await import('../grid/mapJson.js');
-    const { table } = await readStore(args.store);
-    const map = buildMap(table, { kind: args.kind, x: args.x, y: args.y, at, metric: args.metric, method: args.method, raster, scales });
+    const { axisSource } = await import('../ingest/axisSource.js');
+    const { table, manifest } = await readStore(args.store);
+    const named = <M extends { x: { name: string; source?: string }; y: { name: string; source?: string } }>(m: M): M => {
+      m.x.source = axisSource(manifest, m.x.name);
+      m.y.source = axisSource(manifest, m.y.name);
+      return m;
+    };
+    const map = named(buildMap(table, { kind: args.kind, x: args.x, y: args.y, at, metric: args.metric, method: args.method, raster, scales }));
 
     let ridge = null;
     if (args.ridge) {
@@ -146,7 +152,7 @@ export const command: CommandSpec<MapArgs> = {
         const col = args.facet === 'condition' ? table.condition : Array.from(table.label_noise);
         const levels = [...new Set<number | string>(col)].filter((v) => v === v).sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
         const panels = levels.map((v) => {
-          const m = v === map.fixed[args.facet!] ? map : buildMap(table, { kind: args.kind, x: args.x, y: args.y, at: { ...at, [args.facet!]: v }, metric: args.metric, method: args.method, raster, scales });
+          const m = v === map.fixed[args.facet!] ? map : named(buildMap(table, { kind: args.kind, x: args.x, y: args.y, at: { ...at, [args.facet!]: v }, metric: args.metric, method: args.method, raster, scales }));
           return { map: m, ridge: m === map ? ridge : args.ridge ? findRidge(m) : null, label: fixedValueText(args.facet!, v) };
         });
         facets = { panels };

@@ -72,7 +72,8 @@ export const command: CommandSpec<RidgeArgs> = {
     const { readStore } = await import('../store/readStore.js');
     const { buildMap } = await import('../grid/buildMap.js');
     const { findRidge } = await import('../analysis/findRidge.js');
-    const { table } = await readStore(args.store);
+    const { axisSource } = await import('../ingest/axisSource.js');
+    const { table, manifest } = await readStore(args.store);
     // The ridge reads the measured cells only: the cheapest interpolator on a small raster suffices.
     const map = buildMap(table, { kind: args.kind, at, metric: args.metric, method: 'linear', raster: { nx: 16, ny: 16 } });
     const ridge = findRidge(map, { minProminence: args.minProminence, boot: args.boot, seed: args.seed, epsilon: args.epsilon, alpha: args.alpha });
@@ -81,7 +82,14 @@ export const command: CommandSpec<RidgeArgs> = {
       for (const note of map.notes ?? []) process.stderr.write(`${note}\n`);
     }
     if (args.json) process.stdout.write(`${JSON.stringify(ridgeJson(ridge, map))}\n`);
-    else process.stdout.write(`${ridgeText(ridge)}\n`);
+    else {
+      // Axes read from another column say so: `width (p_over_n) ≈ 1.02`.
+      const label = (name: string) => {
+        const from = axisSource(manifest, name);
+        return from === undefined ? name : `${name} (${from})`;
+      };
+      process.stdout.write(`${ridgeText({ ...ridge, x: label(ridge.x), y: label(ridge.y) })}\n`);
+    }
     return 0;
   },
 };

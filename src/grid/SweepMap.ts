@@ -20,6 +20,8 @@ export interface MapAxis {
   values: number[];
   /** values.length + 1 cell edges in data units (geometric midpoints on log2 axes, arithmetic on linear). */
   edges: number[];
+  /** The logs' own column behind the axis when it is not the axis's name (`p_over_n`): titles say so. */
+  source?: string;
 }
 
 /** A measured cell placed on the map. */

@@ -1,3 +1,4 @@
+import { parseCondition } from '../store/conditionText.js';
 import type { Cell } from '../cells/Cell.js';
 import { buildCells } from '../cells/buildCells.js';
 import { mapMessages as msg } from '../messages.js';
@@ -41,17 +42,7 @@ const PICK_ORDER = ['condition', 'label_noise', 'train_size', 'width', 'epochs']
 
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
-/** Key=value pairs of a condition as ingest writes it (`optimizer=adam,weight_decay=0.01`); empty for a plain name. */
-export function parseCondition(condition: string): Map<string, string> {
-  const out = new Map<string, string>();
-  if (condition === '') return out;
-  for (const part of condition.split(/,(?=[^,=]+=)/)) {
-    const eq = part.indexOf('=');
-    if (eq <= 0) return new Map();
-    out.set(part.slice(0, eq).trim(), part.slice(eq + 1).trim());
-  }
-  return out;
-}
+export { parseCondition };
 
 const sameNumber = (a: number, b: number) => a === b || Math.abs(a - b) <= 1e-9 * Math.max(Math.abs(a), Math.abs(b));
 

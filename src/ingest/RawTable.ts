@@ -41,6 +41,31 @@ export interface RawTable {
   skipped?: number;
   /** What the reader wants the user to know about this source (blocks skipped, key levels named). */
   notes?: string[];
+  /** Per row: the keys naming its run on its path in a JSON document (`r1`, `w=4 (p=4,146)`), or ''. */
+  runKeys?: string[];
+  /** Columns holding run-level values (inherited from an enclosing record or key): ranked after a row's own. */
+  runLevel?: Set<string>;
+  /**
+   * Columns that are settings of a run: key levels (`key1`, `--keys` names) and the scalars of a
+   * record that holds a curve. They join the condition unless they are axes or outcomes.
+   */
+  settingColumns?: Set<string>;
+  /** Run-level columns that are outcomes whatever their names (a run folder's metrics-file scalars): extras, never conditions. */
+  outcomeColumns?: Set<string>;
+  /** How a JSON document was read: key levels, curves expanded, arrays not read, summary blocks. */
+  jsonLayout?: JsonLayout;
+}
+
+export interface JsonLayout {
+  levels: { column: string; path: string; how: 'keys' | 'parent' | 'unnamed' | 'pairs' | 'run'; values: string[]; count: number; distinct?: number }[];
+  curves: { path: string; key: string; records: number; rows: number }[];
+  /** `length`: the longest of them; `times`: how many records repeat it (absent = once). */
+  unread: { path: string; length: number; what: 'values' | 'lists' | 'mixed'; times?: number }[];
+  summaries: { path: string; rows: number; reason: 'key' | 'names' }[];
+  /** Curves without an epoch key whose points were numbered 1..n as epochs. */
+  numbered?: { path: string; curves: number }[];
+  /** Names of --keys past the deepest level of value keys the document has. */
+  unusedKeys?: string[];
 }
 
 export function emptyRaw(format: string): RawTable {
@@ -73,9 +98,60 @@ export class RecordColumns {
     raw.length = row + 1;
   }
 
+  // The last inherited-fields object and the last own key order, with their columns: a curve's
+  // points share both, so a million points cost no key lookups.
+  private lastBase: object | null = null;
+  private baseKeys: string[] = [];
+  private baseCols: number[] = [];
+  private readonly ownKeys: string[] = [];
+  private readonly ownCols: number[] = [];
+
+  /** Adds one row made of inherited fields and its own (own win where both have a key): no merged object. */
+  addMerged(base: Record<string, RawValue>, own: Record<string, RawValue>, line: number): void {
+    const raw = this.raw;
+    const row = raw.length;
+    const cols = raw.columns as RawValue[][];
+    if (base !== this.lastBase) {
+      this.lastBase = base;
+      this.baseKeys = Object.keys(base);
+      this.baseCols = this.baseKeys.map((k) => this.col(k, row));
+    }
+    const bk = this.baseKeys;
+    const bc = this.baseCols;
+    for (let i = 0; i < bk.length; i++) cols[bc[i]][row] = base[bk[i]];
+    const ok = this.ownKeys;
+    const oc = this.ownCols;
+    let i = 0;
+    for (const key in own) {
+      let j: number;
+      if (i < ok.length && ok[i] === key) j = oc[i];
+      else {
+        j = this.col(key, row);
+        ok[i] = key;
+        oc[i] = j;
+      }
+      cols[j][row] = own[key];
+      i++;
+    }
+    raw.lines.push(line);
+    raw.length = row + 1;
+  }
+
+  /** The column of a key, made (padded to `row` rows) when new. */
+  private col(key: string, row: number): number {
+    let j = this.index.get(key);
+    if (j === undefined) {
+      j = this.raw.names.length;
+      this.index.set(key, j);
+      this.raw.names.push(key);
+      this.raw.columns.push(new Array<RawValue>(row));
+    }
+    return j;
+  }
+
   /** Adds a row that could not be read at all (it still counts as read, and is rejected). */
-  addError(line: number, reason: string): void {
-    this.raw.rowErrors.set(this.raw.length, { field: '', reason });
+  addError(line: number, reason: string, field = ''): void {
+    this.raw.rowErrors.set(this.raw.length, { field, reason });
     this.raw.lines.push(line);
     this.raw.length++;
   }

@@ -22,6 +22,8 @@ import { walkInputs } from './walkInputs.js';
 import type { InputSource } from './walkInputs.js';
 import type { Target } from './synonyms.js';
 import { ingestText } from '../messages.js';
+import { groupLayouts, mergedMapping } from './groupLayouts.js';
+import type { LayoutGroup } from './groupLayouts.js';
 import { DEFAULT_LIMITS } from './ReadLimits.js';
 import type { ReadLimits } from './ReadLimits.js';
 
@@ -32,6 +34,10 @@ export interface IngestOptions {
   set?: Record<string, string>;
   seedFrom?: RegExp;
   scale?: Partial<Record<Target, Scale>>;
+  /** Names of a JSON document's value-key levels, outermost first (`--keys seed,label_noise`). */
+  keys?: string[];
+  /** Columns that join the condition whatever they hold (`--condition COL`). */
+  condition?: string[];
   /** Any rejection fails the ingest and leaves the store untouched. */
   strict?: boolean;
   /** Seconds to wait for another ingest's lock. */
@@ -81,6 +87,10 @@ export interface IngestResult {
   /** This ingest's rejections (all of them; rejected.csv holds the store's). */
   rejects: Reject[];
   notes: string[];
+  /** canonical → source column(s) this ingest read. */
+  mapping: Record<string, string>;
+  /** Sources grouped by how they were read. */
+  layouts: LayoutGroup[];
 }
 
 
@@ -106,7 +116,7 @@ export async function ingestSources(opts: IngestOptions): Promise<IngestResult> 
   const result: IngestResult = {
     read: 0, accepted: 0, duplicates: 0, rejected: 0, pending: 0, skipped: 0, conflicts: 0, sources: walk.sources.length, unchanged: 0,
     failed: 0, displaced: 0, storeRows: 0, storeSources: 0, wrote: false, strictFailed: false,
-    missing: walk.missing.map((m) => m.path), rejects: [], notes: [],
+    missing: walk.missing.map((m) => m.path), rejects: [], notes: [], mapping: {}, layouts: [],
     skippedSources: [...walk.missing.map((m) => ({ path: m.path, reason: m.reason === 'ENOENT' ? 'no such file or folder' : m.reason })), ...walk.skipped.map((s) => ({ path: s.path, reason: s.reason }))],
   };
   for (const m of walk.missing) result.notes.push(ingestText.cannotOpen(m.path, m.reason));
@@ -122,7 +132,7 @@ export async function ingestSources(opts: IngestOptions): Promise<IngestResult> 
     const touched = { value: false };
     const bar = opts.progress ? await opts.progress(walk.sources.length) : null;
     const options: PortableOptions = {
-      map, set, scale, seedFrom: seedFrom ? { source: seedFrom.source, flags: seedFrom.flags } : null,
+      map, set, scale, seedFrom: seedFrom ? { source: seedFrom.source, flags: seedFrom.flags } : null, keys: opts.keys, condition: opts.condition,
       limits: { ...DEFAULT_LIMITS, ...opts.limits },
     };
     // Stat first: a source with the stored size and mtime is unchanged (no read, no hash).
@@ -198,6 +208,8 @@ export async function ingestSources(opts: IngestOptions): Promise<IngestResult> 
     const oldRejects = existsSync(files.rejected) ? parseRejected(readFileSync(files.rejected, 'utf8')).filter((r) => !replaced.has(r.source)) : [];
 
     const ok = todo.filter((p) => p.norm);
+    result.layouts = groupLayouts(ok.filter((p) => p.norm!.layout).map((p) => ({ source: p.given, layout: p.norm!.layout! })));
+    result.mapping = mergedMapping(result.layouts);
     const mtimeBySource = new Map<string, number>();
     for (const e of Object.values(manifest.sources)) mtimeBySource.set(e.path, e.mtime);
     const merged = mergeTables({
@@ -225,6 +237,7 @@ export async function ingestSources(opts: IngestOptions): Promise<IngestResult> 
         path: p.given, size: p.stamp.size, mtime: p.stamp.mtime, sha256: p.stamp.sha256, format: p.format, mapping: n.mapping, ingestedAt: now,
         read: n.read, accepted: merged.accepted[k], duplicates: merged.duplicates[k], rejected, pending: n.pending, skipped: n.skipped,
       };
+      if (n.layout && Object.keys(n.layout.passedOver).length > 0) entry.passedOver = n.layout.passedOver;
       if (p.config) entry.config = p.config;
       manifest.sources[p.key] = entry;
     });
@@ -279,8 +292,8 @@ function readStdinSource(src: InputSource, manifest: Manifest, options: Portable
   let format = '';
   try {
     format = sniffFormat(bytes);
-    const norm = normalizeRaw(rawFromBytes(bytes, format as SourceFormat, { limits: options.limits, source: '-' }), {
-      source: '-', map: options.map, set: options.set, scale: options.scale,
+    const norm = normalizeRaw(rawFromBytes(bytes, format as SourceFormat, { limits: options.limits, source: '-', keys: options.keys }), {
+      source: '-', map: options.map, set: options.set, scale: options.scale, condition: options.condition,
       seedFrom: options.seedFrom ? new RegExp(options.seedFrom.source, options.seedFrom.flags) : undefined,
     });
     return { src, key, given: '-', stamp, format, norm, failure: null };

@@ -4,10 +4,12 @@ import { cellAt } from './RawTable.js';
 import type { RawColumn, RawTable, RawValue } from './RawTable.js';
 import { CELL_BAD, CELL_MISSING, CELL_NONFINITE, isNumericColumn, notNumberHint, parseColumn } from './parseNumbers.js';
 import type { ParsedColumn } from './parseNumbers.js';
-import { isFractionTarget, matchTarget, nameKey, TARGETS } from './synonyms.js';
+import { isFractionTarget, matchTarget, nameKey, nameWords, TARGETS } from './synonyms.js';
+import { conditionKey, hasConfigPrefix, isDerived, isNotCondition, isOutcome, outcomeMetric } from './fieldKinds.js';
 import type { Target } from './synonyms.js';
-import { ingestText } from '../messages.js';
+import { ingestText, layoutText } from '../messages.js';
 import type { Reject } from '../store/Reject.js';
+import { formatCondition } from '../store/conditionText.js';
 import { AXIS_RANGE } from './ReadLimits.js';
 
 export type Scale = 'percent' | 'fraction';
@@ -23,6 +25,20 @@ export interface NormalizeOptions {
   seedFrom?: RegExp;
   /** Forces percent (÷100) or fraction for an error/accuracy/noise column; default: detected. */
   scale?: Partial<Record<Target, Scale>>;
+  /** Columns that join the condition whatever they hold (`--condition COL`). */
+  condition?: string[];
+}
+
+/** What was read from one source: where each canonical column came from, and how. */
+export interface SourceLayout {
+  /** canonical → source column (or `config key`, `--set`, `key of 'per_seed'`). */
+  mapping: Record<string, string>;
+  /** canonical → other columns that could have served, passed over. */
+  passedOver: Record<string, string[]>;
+  /** Key levels named, curves expanded, arrays not read, summary blocks skipped (one line each). */
+  structure: string[];
+  /** condition → runs. */
+  conditions: Record<string, number>;
 }
 
 export type { Reject };
@@ -40,24 +56,12 @@ export interface Normalized {
   mapping: Record<string, string>;
   /** Things the user should know (a column read as percent, a skipped label column). */
   notes: string[];
+  layout?: SourceLayout;
 }
 
 const DEFAULT_SEED_FROM = /seed[_\-=]?(\d+)/i;
-/** Config prefixes whose keys describe the run (condition), not a per-row measurement. */
-const CONFIG_PREFIXES = new Set(['config', 'cfg', 'hparams', 'hyperparameters', 'args', 'params', 'settings', 'conf']);
-/** Keys that identify or time-stamp a run; they never split the sweep into conditions. */
-const NOT_CONDITION = new Set(['name', 'id', 'runname', 'experiment', 'exp', 'expname', 'path', 'dir', 'outdir', 'outputdir',
-  'logdir', 'output', 'date', 'timestamp', 'datetime', 'host', 'hostname', 'node', 'commit', 'gitcommit', 'githash', 'git', 'user',
-  'created', 'createdat', 'started', 'startedat', 'finished', 'finishedat', 'device', 'gpu', 'version', 'pid', 'jobname', 'slurmjobid']);
 /** A per-row text column with more distinct values than this is an identifier, not a condition. */
 const MAX_CONDITION_LEVELS = 64;
-
-const conditionKey = (name: string): string => {
-  const parts = name.split('.');
-  while (parts.length > 1 && CONFIG_PREFIXES.has(nameKey(parts[0]))) parts.shift();
-  return parts.join('.');
-};
-const hasConfigPrefix = (name: string): boolean => name.includes('.') && CONFIG_PREFIXES.has(nameKey(name.split('.')[0]));
 
 function findName(names: readonly string[], wanted: string): number {
   let j = names.indexOf(wanted);
@@ -74,19 +78,26 @@ function numberOf(v: RawValue): { value: number; kind: number } {
   return { value: p.values[0], kind: p.kind[0] };
 }
 
-/** Maps, converts and validates the rows of one source; every row read ends accepted, rejected or pending. */
-export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized {
-  const { source, map = {}, set = {}, seedFrom, scale = {} } = opts;
+/** The columns a source's stages read: targets found, constants, conditions and extras. */
+interface ColumnPlan {
+  mapping: Record<string, string>;
+  colOf: Partial<Record<Target, number>>;
+  constOf: Partial<Record<Target, RawValue>>;
+  passedOver: Record<string, string[]>;
+  condFixed: Map<string, string>;
+  constExtras: { name: string; value: number }[];
+  extraCols: { name: string; j: number }[];
+  condCols: { key: string; j: number }[];
+}
+
+/**
+ * Stages 1–4 of normalisation: explicit mapping and synonyms (with final_/last_ outcomes standing
+ * in for a missing metric), constants (config keys, --set), params, and the columns left over
+ * (extra measurements, or conditions when they are settings).
+ */
+function mapColumns(raw: RawTable, o: { source: string; map: Partial<Record<Target, string>>; set: Record<string, string>; conditionNames: string[]; notes: string[] }): ColumnPlan {
+  const { source, map, set, conditionNames, notes } = o;
   const n = raw.length;
-  const notes: string[] = [];
-  if (raw.encoding) notes.push(ingestText.encodingNote(source, raw.encoding));
-  if (raw.headerRepeats) notes.push(ingestText.headerRepeated(source, raw.headerRepeats.line, raw.headerRepeats.count));
-  if (raw.notes) notes.push(...raw.notes);
-  const summaries = raw.skipped ?? 0;
-  if (n === 0 && !raw.pendingLine) {
-    if (summaries === 0) notes.push(ingestText.noRows(source, raw.names.length > 0));
-    return { table: emptyTable(0), rejects: [], read: summaries, pending: 0, skipped: summaries, mapping: {}, notes };
-  }
   const mapping: Record<string, string> = {};
   const colOf: Partial<Record<Target, number>> = {};
   const constOf: Partial<Record<Target, RawValue>> = {};
@@ -109,15 +120,40 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     }
   }
   const bestRank: Partial<Record<Target, number>> = {};
+  const candidates: Partial<Record<Target, string[]>> = {};
+  const runLevel = raw.runLevel;
+  const forcedCondition = new Set(conditionNames.map((c) => findName(raw.names, c)).filter((j) => j >= 0));
   raw.names.forEach((name, j) => {
-    if (used.has(j) || hasConfigPrefix(name)) return;
-    const m = matchTarget(name);
+    if (used.has(j) || forcedCondition.has(j)) return;
+    // A row's own key beats one its record or a key above it gave (a curve point's `epoch` beats
+    // the run's planned `epochs`); a config key (`config.width` of a JSON Lines row) comes last.
+    const inConfig = hasConfigPrefix(name);
+    const m = matchTarget(inConfig ? conditionKey(name) : name);
     if (!m || m.target in map) return;
-    if (bestRank[m.target] === undefined || m.rank < bestRank[m.target]!) {
-      bestRank[m.target] = m.rank;
+    const rank = m.rank + (inConfig ? 300 : 0) + (runLevel?.has(name) ? 50 : 0);
+    (candidates[m.target] ??= []).push(name);
+    if (bestRank[m.target] === undefined || rank < bestRank[m.target]!) {
+      bestRank[m.target] = rank;
       colOf[m.target] = j;
     }
   });
+  // A run-level final_/last_ metric stands for the metric when no curve holds it (never best_).
+  const outcomeNotes: string[] = [];
+  for (const [metric, acc] of [['test_error', 'test_accuracy'], ['test_loss', null], ['train_error', 'train_accuracy'], ['train_loss', null]] as const) {
+    if (colOf[metric] !== undefined || (acc && colOf[acc] !== undefined) || metric in map || (acc && acc in map)) continue;
+    const j = raw.names.findIndex((name, jj) => {
+      if (used.has(jj)) return false;
+      const o = outcomeMetric(name);
+      return o !== null && o.prefix !== 'best' && (o.target === metric || o.target === acc);
+    });
+    if (j < 0) continue;
+    const o = outcomeMetric(raw.names[j])!;
+    colOf[o.target] = j;
+    outcomeNotes.push(layoutText.outcomeMetric(source, raw.names[j], o.target));
+  }
+  for (const [t, src] of Object.entries(map) as [Target, string][]) {
+    if (/^(best|min|max|peak)[_\- ]/i.test(conditionKey(src))) notes.push(layoutText.bestCaution(source, src));
+  }
   for (const t of TARGETS) {
     const j = colOf[t];
     if (j !== undefined) {
@@ -125,9 +161,21 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
       mapping[t] ??= raw.names[j];
     }
   }
+  const passedOver: Record<string, string[]> = {};
+  for (const [t, names] of Object.entries(candidates) as [Target, string[]][]) {
+    const others = names.filter((n) => n !== mapping[t]);
+    if (others.length > 0) passedOver[t] = others;
+  }
+  notes.push(...outcomeNotes);
+  // A column made from object keys says so: `label_noise (keys under 'per_seed.*')`.
+  for (const lv of raw.jsonLayout?.levels ?? []) {
+    if (lv.how === 'run') continue;
+    for (const t of TARGETS) if (colOf[t] !== undefined && raw.names[colOf[t]!] === lv.column && mapping[t] === lv.column) mapping[t] = `${lv.column} (keys under '${lv.path}')`;
+  }
 
   // 2. Constants: canonical ones fill targets without a column, others become the condition.
   const condFixed = new Map<string, string>();
+  const outcomeConsts: { name: string; value: number }[] = [];
   for (const key of constNames) {
     const v = raw.constants[key];
     if (Object.values(mapping).includes(`config ${key}`)) continue;
@@ -140,7 +188,12 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
       continue; // a column of the same meaning wins (e.g. config `epochs` = planned total)
     }
     const ck = conditionKey(key);
-    if (NOT_CONDITION.has(nameKey(ck)) || v === undefined || v === null) continue;
+    if (v === undefined || v === null || isNotCondition(ck, v)) continue;
+    if (isOutcome(ck) || isDerived(ck)) {
+      // A run-level outcome (best_test_acc, wallclock_sec, effective_rank): an extra column, never a condition.
+      if (typeof v === 'number' || (typeof v === 'string' && Number.isFinite(Number(v)) && v.trim() !== '')) outcomeConsts.push({ name: ck, value: Number(v) });
+      continue;
+    }
     condFixed.set(ck, text(v));
   }
   // 3. --set: constants for targets the source lacks; other keys always join the condition.
@@ -153,32 +206,70 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
       }
     } else condFixed.set(key, v);
   }
+  // params: a column of its own; the model-size axis only when the sweep has no width.
+  const constExtras = outcomeConsts.slice();
+  if ((colOf.params !== undefined || constOf.params !== undefined) && colOf.width === undefined && constOf.width === undefined && !('width' in map)) {
+    if (colOf.params !== undefined) colOf.width = colOf.params;
+    else constOf.width = constOf.params;
+    mapping.width = mapping.params;
+    notes.push(layoutText.paramsAsWidth(source, mapping.params));
+  }
+  if (constOf.params !== undefined) {
+    const v = numberOf(constOf.params);
+    if (v.kind === 0) constExtras.push({ name: 'params', value: v.value });
+  }
 
   // 4. Columns left over: numbers are extra measurements, labels with few levels are conditions.
   const extraCols: { name: string; j: number }[] = [];
   const condCols: { key: string; j: number }[] = [];
+  const settings = raw.settingColumns;
+  if (colOf.params !== undefined) extraCols.push({ name: 'params', j: colOf.params });
   raw.names.forEach((name, j) => {
     if (used.has(j) || name === '') return; // an unnamed column (a trailing delimiter in the header)
     const col = raw.columns[j];
-    if (hasConfigPrefix(name)) {
+    if (forcedCondition.has(j)) {
+      condCols.push({ key: conditionKey(name), j });
+      return;
+    }
+    if (raw.outcomeColumns?.has(name)) {
+      if (isNumericColumn(col, n)) extraCols.push({ name, j });
+      return;
+    }
+    if (hasConfigPrefix(name) || settings?.has(name)) {
+      // Settings (a config key, a record's scalar above its curve, a key level) split conditions;
+      // outcomes and values derived from the axes (p_over_n) stay extra columns.
       const ck = conditionKey(name);
-      if (!NOT_CONDITION.has(nameKey(ck))) condCols.push({ key: ck, j });
+      const numeric = isNumericColumn(col, n);
+      if (matchTarget(ck) !== null || isOutcome(ck) || isDerived(ck)) {
+        if (numeric) extraCols.push({ name, j });
+        return;
+      }
+      if (!isNotCondition(ck, cellAt(col, 0))) condCols.push({ key: ck, j });
       return;
     }
     if (isNumericColumn(col, n)) {
       extraCols.push({ name, j });
       return;
     }
-    if (NOT_CONDITION.has(nameKey(name))) return;
+    if (isNotCondition(name, cellAt(col, 0))) return;
     const levels = new Set<string>();
     for (let i = 0; i < n && levels.size <= MAX_CONDITION_LEVELS; i++) levels.add(text(cellAt(col, i)));
     if (levels.size <= MAX_CONDITION_LEVELS) condCols.push({ key: name, j });
     else notes.push(ingestText.skippedColumn(source, name));
   });
 
+  return { mapping, colOf, constOf, passedOver, condFixed, constExtras, extraCols, condCols };
+}
+
+const NUMERIC_TARGETS: Target[] = ['seed', 'width', 'epochs', 'train_size', 'label_noise', 'test_error', 'train_error', 'test_loss',
+  'train_loss', 'test_accuracy', 'train_accuracy', 'wall_seconds'];
+
+/** Stage 5: the numeric targets parsed column by column, percent scales found and undone. */
+function parseTargets(raw: RawTable, o: { colOf: Partial<Record<Target, number>>; constOf: Partial<Record<Target, RawValue>>; scale: Partial<Record<Target, Scale>>; source: string; notes: string[] }) {
+  const { colOf, constOf, scale, source, notes } = o;
+  const n = raw.length;
   // 5. Parse numeric targets column by column.
-  const numericTargets: Target[] = ['seed', 'width', 'epochs', 'train_size', 'label_noise', 'test_error', 'train_error', 'test_loss',
-    'train_loss', 'test_accuracy', 'train_accuracy', 'wall_seconds'];
+  const numericTargets = NUMERIC_TARGETS;
   const parsed: Partial<Record<Target, ParsedColumn>> = {};
   const constNum: Partial<Record<Target, { value: number; kind: number }>> = {};
   for (const t of numericTargets) {
@@ -221,11 +312,34 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     if (ex !== undefined) notes.push(ingestText.thousandsColumn(source, clip(raw.names[colOf[t]!]), ex));
   }
 
+  return { parsed, constNum };
+}
+
+/** Maps, converts and validates the rows of one source; every row read ends accepted, rejected or pending. */
+export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized {
+  const { source, map = {}, set = {}, seedFrom, scale = {}, condition: conditionNames = [] } = opts;
+  const n = raw.length;
+  const notes: string[] = [];
+  if (raw.encoding) notes.push(ingestText.encodingNote(source, raw.encoding));
+  if (raw.headerRepeats) notes.push(ingestText.headerRepeated(source, raw.headerRepeats.line, raw.headerRepeats.count));
+  if (raw.notes) notes.push(...raw.notes);
+  const summaries = raw.skipped ?? 0;
+  if (n === 0 && !raw.pendingLine) {
+    if (summaries === 0) notes.push(ingestText.noRows(source, raw.names.length > 0));
+    const layout: SourceLayout = { mapping: {}, passedOver: {}, structure: structureNotes(raw, ''), conditions: {} };
+    return { table: emptyTable(0), rejects: [], read: summaries, pending: 0, skipped: summaries, mapping: {}, notes, layout };
+  }
+  const { mapping, colOf, constOf, passedOver, condFixed, constExtras, extraCols, condCols } = mapColumns(raw, { source, map, set, conditionNames, notes });
+
+  const { parsed, constNum } = parseTargets(raw, { colOf, constOf, scale, source, notes });
+  const numericTargets = NUMERIC_TARGETS;
+
   // 6. Per-row checks and output, column arrays only (no per-row objects on this path).
   // (Most logs have no extra or condition columns: those steps are skipped outright then, so the
   // compiled code of this function meets one kind of empty array, not several, and stays.)
-  const extraNames = extraCols.length === 0 ? [] : extraCols.map((e) => e.name).filter((x) => !(NUMERIC_COLUMNS as readonly string[]).includes(x));
-  const extraParsed = extraNames.length === 0 ? [] : extraCols.filter((e) => extraNames.includes(e.name)).map((e) => ({ name: e.name, j: e.j, p: parseColumn(raw.columns[e.j], n) }));
+  for (const c of constExtras) if (extraCols.some((e) => e.name === c.name)) c.name = `${c.name}_config`;
+  const extraNames = extraCols.length === 0 && constExtras.length === 0 ? [] : [...extraCols.map((e) => e.name), ...constExtras.map((c) => c.name)].filter((x) => !(NUMERIC_COLUMNS as readonly string[]).includes(x));
+  const extraParsed = extraCols.length === 0 ? [] : extraCols.filter((e) => extraNames.includes(e.name)).map((e) => ({ name: e.name, j: e.j, p: parseColumn(raw.columns[e.j], n) }));
   // Every column of every kept row is written below: no need to fill first.
   const out = allocTable(n, extraNames);
   const rejects: Reject[] = [];
@@ -310,8 +424,9 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     extraOut.push(out.extra[extraParsed[x].name]);
     extraIn.push(extraParsed[x].p.values);
   }
+  const runKeys = raw.runKeys;
   let k = 0;
-  const last = { run: '', width: NaN, train_size: NaN, label_noise: NaN, seed: NaN, condition: '' };
+  const last = { run: '', width: NaN, train_size: NaN, label_noise: NaN, seed: NaN, condition: '', key: '' };
   const reject = (i: number, field: string, reason: string) => rejects.push({ source, line: raw.lines[i], field: clip(field), reason });
   let skipped = 0;
   rows: for (let i = 0; i < n; i++) {
@@ -441,15 +556,19 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     let run = runCol ? text(cellAt(runCol, i)) : runConst;
     if (run === '') {
       // Rows of one run are usually contiguous: reuse the id while the configuration repeats.
+      // Keys naming the run in a document (`r1`, `w=4 (p=4,146)`) lead it.
+      const key = runKeys === undefined ? '' : runKeys[i];
       if (width !== last.width || trainSize !== last.train_size || noise !== last.label_noise ||
-          !(seed === last.seed || (seed !== seed && last.seed !== last.seed)) || condition !== last.condition || last.run === '') {
-        last.run = `${condition === '' ? '' : `${condition},`}width=${width},train_size=${trainSize},label_noise=${noise}` +
-          (Number.isFinite(seed) ? `,seed=${seed}` : `,source=${source}`);
+          !(seed === last.seed || (seed !== seed && last.seed !== last.seed)) || condition !== last.condition || key !== last.key || last.run === '') {
+        last.run = key === ''
+          ? `${condition === '' ? '' : `${condition},`}width=${width},train_size=${trainSize},label_noise=${noise}` + (Number.isFinite(seed) ? `,seed=${seed}` : `,source=${source}`)
+          : `${key}${condition === '' ? '' : `,${condition}`},width=${width},train_size=${trainSize},label_noise=${noise}${Number.isFinite(seed) ? `,seed=${seed}` : ''}`;
         last.width = width;
         last.train_size = trainSize;
         last.label_noise = noise;
         last.seed = seed;
         last.condition = condition;
+        last.key = key;
       }
       run = last.run;
     }
@@ -472,9 +591,55 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     for (let x = 0; x < nExtra; x++) extraOut[x][k] = extraIn[x][i];
     k++;
   }
+  for (const c of constExtras) if (out.extra[c.name]) out.extra[c.name].fill(c.value, 0, k);
   const table = sliceTable(out, k);
   curveNotes(table, { source, notes, mapping });
-  return { table, rejects, read: n - skipped + (raw.pendingLine ? 1 : 0) + summaries, pending: raw.pendingLine ? 1 : 0, skipped: summaries, mapping, notes };
+  const layout: SourceLayout = { mapping, passedOver, structure: structureNotes(raw, ''), conditions: runsPerCondition(table) };
+  return { table, rejects, read: n - skipped + (raw.pendingLine ? 1 : 0) + summaries, pending: raw.pendingLine ? 1 : 0, skipped: summaries, mapping, notes, layout };
+}
+
+/** One line per key level named, curve expanded, array not read and summary block skipped. */
+function structureNotes(raw: RawTable, source: string): string[] {
+  const l = raw.jsonLayout;
+  if (!l) return [];
+  const out: string[] = [];
+  const runLevels = new Map<string, string[]>();
+  for (const v of l.levels) {
+    if (v.how === 'run') {
+      runLevels.set(v.path, v.values);
+      continue;
+    }
+    if (v.how === 'unnamed') out.push(layoutText.levelUnnamed(source, v.path, v.column, v.values, Math.max(0, distinctCount(v) - v.values.length)));
+    else if (v.how === 'parent') out.push(layoutText.levelNamed(source, v.path, v.column, v.path.split('.').pop() ?? v.path));
+    else if (v.how === 'keys') out.push(layoutText.levelKeys(source, v.path, v.column));
+    else out.push(layoutText.levelPairs(source, v.path, v.column));
+  }
+  for (const [path, values] of runLevels) {
+    const lv = l.levels.find((x) => x.how === 'run' && x.path === path)!;
+    out.push(layoutText.levelRuns(source, path, distinctCount(lv), values));
+  }
+  for (const c of l.curves) out.push(layoutText.curves(source, c.path, c.key, c.records, c.rows));
+  for (const u of l.unread) out.push(layoutText.unread(source, u.path, u.length, u.what, u.times ?? 1));
+  for (const s of l.summaries) out.push(layoutText.summaries(source, s.path, s.rows, s.reason));
+  for (const c of l.numbered ?? []) out.push(layoutText.numbered(source, c.path, c.curves));
+  if (l.unusedKeys) out.push(layoutText.unusedKeys(source, l.unusedKeys));
+  return out;
+}
+
+/** Distinct values of a level (at most its first 64 are kept). */
+const distinctCount = (v: { values: string[]; distinct?: number }) => v.distinct ?? v.values.length;
+
+/** Runs per condition of a source's accepted rows. */
+function runsPerCondition(t: RowTable): Record<string, number> {
+  const seen = new Map<string, Set<string>>();
+  for (let i = 0; i < t.length; i++) {
+    let s = seen.get(t.condition[i]);
+    if (!s) seen.set(t.condition[i], (s = new Set()));
+    s.add(t.run[i]);
+  }
+  const out: Record<string, number> = {};
+  for (const [c, s] of seen) out[c] = s.size;
+  return out;
 }
 
 /** Column names in messages: a header can hold a megabyte-long "name" (or line breaks, when quoted). */
@@ -546,12 +711,7 @@ function absentColumns(n: number): { values: Float64Array; kind: Uint8Array } {
   return absent;
 }
 
-export function formatCondition(pairs: [string, string][]): string {
-  return pairs
-    .sort((a, b) => (a[0] < b[0] ? -1 : a[0] > b[0] ? 1 : 0))
-    .map(([k, v]) => `${k}=${v}`)
-    .join(',');
-}
+export { formatCondition };
 
 /** The first `k` rows of a table (copies, so the rest can be freed). */
 export function sliceTable(t: RowTable, k: number): RowTable {

@@ -4,8 +4,8 @@ import { createRequire } from 'node:module';
 import { emptyRaw, flattenRecord } from './RawTable.js';
 import type { RawTable, RawValue } from './RawTable.js';
 import { rawFromDelimited } from './rawFromDelimited.js';
-import { rawFromJson } from './rawFromJson.js';
-import { tokenizeJsonLines } from './tokenizeJsonLines.js';
+import { rawFromJson, rawFromJsonLines } from './rawFromJson.js';
+import type { JsonReadOptions } from './rawFromJson.js';
 import { limitText } from './limitText.js';
 import { DEFAULT_LIMITS, MAX_DEPTH } from './ReadLimits.js';
 import type { ReadLimits } from './ReadLimits.js';
@@ -49,10 +49,12 @@ export function sniffFormat(bytes: Uint8Array): SourceFormat {
   return 'text';
 }
 
-/** How to read one source: the limits (ReadLimits) and its path as given (for notes). */
+/** How to read one source: the limits (ReadLimits), its path as given (for notes), and --keys for nested JSON. */
 export interface ReadOptions {
   limits?: ReadLimits;
   source?: string;
+  /** Names of a JSON document's value-key levels, outermost first (`--keys`). */
+  keys?: string[];
 }
 
 /**
@@ -71,7 +73,7 @@ export function rawFromBytes(bytes: Uint8Array, format: SourceFormat, opts: Read
     }
   } else {
     const decoded = decodeText(bytes);
-    raw = rawFromText(decoded.text, format, limits);
+    raw = rawFromText(decoded.text, format, limits, { keys: opts.keys });
     if (decoded.guessed) raw.encoding = decoded.encoding;
   }
   limitText(raw, { maxText: limits.maxText, source: opts.source ?? '' });
@@ -85,7 +87,7 @@ function csvDelimiter(text: string): ',' | ';' {
   return header.includes(';') && !header.includes(',') ? ';' : ',';
 }
 
-export function rawFromText(text: string, format: Exclude<SourceFormat, 'arrow'>, limits: ReadLimits = DEFAULT_LIMITS): RawTable {
+export function rawFromText(text: string, format: Exclude<SourceFormat, 'arrow'>, limits: ReadLimits = DEFAULT_LIMITS, json: JsonReadOptions = {}): RawTable {
   switch (format) {
     case 'csv':
       return rawFromDelimited(text, csvDelimiter(text), limits);
@@ -94,9 +96,9 @@ export function rawFromText(text: string, format: Exclude<SourceFormat, 'arrow'>
     case 'text':
       return rawFromDelimited(text, 'whitespace', limits);
     case 'jsonl':
-      return tokenizeJsonLines(text, limits);
+      return rawFromJsonLines(text, { ...json, limits });
     case 'json':
-      return rawFromJson(text);
+      return rawFromJson(text, json);
   }
 }
 

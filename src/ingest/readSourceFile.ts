@@ -5,6 +5,7 @@ import { formatOfBytes, rawFromBytes, readConfigFile } from './readSource.js';
 import type { SourceFormat } from './readSource.js';
 import type { ReadLimits } from './ReadLimits.js';
 import { normalizeRaw } from './normalizeRaw.js';
+import { hasConfigPrefix } from './fieldKinds.js';
 import type { Normalized, Scale } from './normalizeRaw.js';
 import type { Target } from './synonyms.js';
 import { NUMERIC_COLUMNS } from '../store/RowTable.js';
@@ -19,6 +20,10 @@ export interface PortableOptions {
   set: Record<string, string>;
   seedFrom: { source: string; flags: string } | null;
   scale: Partial<Record<Target, Scale>>;
+  /** Names of a JSON document's value-key levels (`--keys`). */
+  keys?: string[];
+  /** Columns that join the condition (`--condition`). */
+  condition?: string[];
   /** What one line may hold (ReadLimits; plain numbers, so it crosses threads as is). */
   limits?: ReadLimits;
 }
@@ -100,14 +105,25 @@ export function readSourceFile(job: FileJob): FileOutcome {
   let format = '';
   try {
     format = formatOfBytes(job.given, bytes);
-    const raw = rawFromBytes(bytes, format as SourceFormat, { limits: job.options.limits, source: job.given });
-    if (job.config) raw.constants = { ...readConfigFile(job.config), ...raw.constants };
     const o = job.options;
+    const raw = rawFromBytes(bytes, format as SourceFormat, { limits: o.limits, source: job.given, keys: o.keys });
+    if (job.config) {
+      raw.constants = { ...readConfigFile(job.config), ...raw.constants };
+      // Beside a config file the metrics file holds outcomes: its scalars never split conditions
+      // (key levels and config-like blocks inside it still do).
+      if (raw.settingColumns) {
+        const levels = new Set((raw.jsonLayout?.levels ?? []).map((l) => l.column));
+        const keep = (c: string) => levels.has(c) || hasConfigPrefix(c);
+        raw.outcomeColumns = new Set([...raw.settingColumns].filter((c) => !keep(c)));
+        raw.settingColumns = new Set([...raw.settingColumns].filter(keep));
+      }
+    }
     const norm = normalizeRaw(raw, {
       source: job.given,
       map: o.map,
       set: o.set,
       scale: o.scale,
+      condition: o.condition,
       seedFrom: o.seedFrom ? new RegExp(o.seedFrom.source, o.seedFrom.flags) : undefined,
     });
     return { kind: 'parsed', stamp, config, format, norm };

@@ -25,8 +25,9 @@ export function metricLabel(metric: Metric): string {
 }
 
 /** An axis title with its unit and scale, e.g. "train size (samples, log scale)". */
-export function axisTitle(axis: Pick<MapAxis, 'name' | 'scale'>): string {
-  const parts = [AXIS_UNIT[axis.name], axis.scale === 'log2' ? 'log scale' : null].filter(Boolean);
+export function axisTitle(axis: Pick<MapAxis, 'name' | 'scale' | 'source'>): string {
+  // Read from another column (a ratio p/n, a feature count D): that name, not the generic unit.
+  const parts = [axis.source ?? AXIS_UNIT[axis.name], axis.scale === 'log2' ? 'log scale' : null].filter(Boolean);
   return parts.length ? `${axisLabel(axis.name)} (${parts.join(', ')})` : axisLabel(axis.name);
 }
 

@@ -25,8 +25,10 @@ export interface SourceEntry extends FileStamp, IngestCounts {
   format: string;
   /** A run directory's config file, when the source is one. */
   config?: FileStamp;
-  /** canonical column → where it came from in this source. */
+  /** canonical column → where it came from in this source (what `describe` shows). */
   mapping: Record<string, string>;
+  /** canonical column → other columns of this source that could have served, passed over. */
+  passedOver?: Record<string, string[]>;
   ingestedAt: string;
 }
 
