@@ -8,6 +8,7 @@ import type { SweepMap } from '../grid/SweepMap.js';
 import type { RidgeResult } from '../analysis/Ridge.js';
 import { rowsOf } from './rowsOf.js';
 import { Store } from './Store.js';
+import { axisSource } from '../ingest/axisSource.js';
 import type { RowsInput } from './rowsOf.js';
 
 export interface MapOptions extends GridMapOptions {
@@ -49,6 +50,11 @@ export async function buildMap(rows: RowsInput, opts: MapOptions = {}): Promise<
   // A map of an opened store records that store, as the map file of `datlas map --store DIR` does.
   const store = given ?? (rows instanceof Store ? rows.dir : undefined);
   const map = mapOfRows(rowsOf(rows), mapOpts);
+  if (rows instanceof Store) {
+    // Axes read from another column say so (`width (p_over_n)`), as in `datlas map`.
+    map.x.source = axisSource(rows.manifest, map.x.name);
+    map.y.source = axisSource(rows.manifest, map.y.name);
+  }
   const r = ridge === false ? null : ridgeOfMap(map, ridge === true ? {} : ridge);
   return asMapObject(map, { ridge: r, ...(store !== undefined && { store }) });
 }

@@ -2,8 +2,6 @@ import { ingestSources } from '../ingest/ingestSources.js';
 import type { IngestOptions as SourcesOptions, IngestResult } from '../ingest/ingestSources.js';
 import type { Scale } from '../ingest/normalizeRaw.js';
 import type { Target } from '../ingest/synonyms.js';
-import { sourceColumns } from '../store/sourceColumns.js';
-import { readManifest } from '../store/readStore.js';
 import { ingestText } from '../messages.js';
 import { UserError } from '../UserError.js';
 
@@ -48,8 +46,10 @@ export interface IngestSummary {
   storeSources: number;
   wrote: boolean;
   strictFailed: boolean;
-  /** canonical column → where it came from, over the store's sources. */
-  mapping: Record<string, string>;
+  /** canonical column → where it came from in this ingest's sources (several joined by ' | '). */
+  mapping: IngestResult['mapping'];
+  /** The layouts read (one per distinct shape of source), with their column mappings. */
+  layouts: IngestResult['layouts'];
   store: string;
   missing: string[];
   rejectedFile: string;
@@ -59,8 +59,7 @@ export interface IngestSummary {
 /** The JSON form of an ingest's result (shared by the CLI's --json and `ingest()`). */
 export function ingestSummary(r: IngestResult, store: string): IngestSummary {
   const { rejects: _rejects, notes, missing, ...counts } = r;
-  const manifest = readManifest(store);
-  return { ...counts, mapping: manifest ? sourceColumns(manifest) : {}, store, missing, rejectedFile: `${store}/rejected.csv`, notes };
+  return { ...counts, store, missing, rejectedFile: `${store}/rejected.csv`, notes };
 }
 
 /**

@@ -6,7 +6,7 @@ import type { DescribeResult, IngestSummary, MapObject, RidgeJson, Store } from 
 import type { ColumnTable } from 'arquero';
 
 export async function pipeline(): Promise<number> {
-  const counts: IngestSummary = await ingest(['runs/'], { store: 'st', set: { label_noise: 0.2 }, quiet: true });
+  const counts: IngestSummary = await ingest(['runs/'], { store: 'st', set: { label_noise: 0.2 }, keys: ['seed', 'label_noise'], quiet: true });
   const n: number = counts.read - counts.accepted - counts.duplicates - counts.rejected - counts.pending - counts.skipped;
   const store: Store = await openStore('st');
   const table: ColumnTable = store.toArquero();
