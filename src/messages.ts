@@ -163,6 +163,8 @@ export const simulateMessages = {
   ridgeNeedsLinear: (preset: string) => `--ridge applies to --preset linear only (preset is ${preset})`,
   noiseNeedsFeatures: '--label-noise applies to the random-features presets, not --preset linear (its noise is sigma2)',
   epochsNeedFeatures: '--epochs applies to the random-features presets; --preset linear logs one closed-form fit per run',
+  evalNoiseNeedsFeatures: '--eval-noise applies to the random-features presets, which log a curve over epochs; --preset linear logs one fit per run',
+  badEvalNoise: (text: string) => `--eval-noise expects a standard deviation of test error in [0, 1), e.g. 0.01, got '${text}'`,
   badValues: (flag: string, what: string) => `${flag}: ${what}`,
   outNotEmpty: (dir: string) => `${dir} is not empty; choose another --out or pass --force (files of the same name are overwritten, nothing is deleted)`,
   wrote: (runs: number, rows: number, files: number, dir: string, seconds: number, shape: string) =>
@@ -251,6 +253,18 @@ export const analysisText = {
         ? `    train error is already <= ${epsilon} at the sweep's edge (${x} ${fmtNum(t)}): the threshold lies at or beyond it`
         : `    interpolation threshold (train error <= ${epsilon}) at ${x} ≈ ${fmtApprox(t)}` + (ratio === null ? '' : `; peak/threshold ${fmtNum(ratio)}`),
   ridgeSummary: (withPeak: number, rows: number) => `${withPeak} of ${rows} rows have a significant peak`,
+  ridgeSummaryCorrected: (withPeak: number, rows: number, alpha: number) =>
+    `${withPeak} of ${rows} rows have a significant peak, after Benjamini–Hochberg correction across the ${rows} rows scanned (false discovery rate ${alpha})`,
+  ridgeP: (p: number | undefined, pAdjusted: number | undefined) =>
+    p === undefined ? '' : `    search-wide ${fmtP(p)}` + (pAdjusted === undefined ? '' : `, adjusted for the rows scanned ${fmtP(pAdjusted).replace('p ', 'p_adj ')}`),
+  ridgeSmoothed: (bandwidth: number, rise: number, fall: number) =>
+    `    one value per point: peak of the curve smoothed on the log axis (bandwidth ${fmtNum(bandwidth)} octave, cross-validated), ` +
+    `rising over ${fmtNum(rise)} and falling over ${fmtNum(fall)} octaves at half height; interval from a bootstrap along the curve`,
+  ridgeCorrectedAway: (x: string, cx: number, z: number, p: number, pAdjusted: number, alpha: number) =>
+    ` (a bump at ${x} ${fmtNum(cx)}, ${fmtNum(z)} SE, search-wide ${fmtP(p)}, is not significant after correction for the rows scanned: ${fmtP(pAdjusted).replace('p ', 'p_adj ')} >= ${alpha})`,
+  ridgeCurveModel: (rows: number, minExtent: number) =>
+    `${rows} row${rows === 1 ? ' holds' : 's hold'} one value per point (one seed, or means without seed spread): their peaks are found on the smoothed curve, ` +
+    `and a peak must rise and fall over at least ${fmtNum(minExtent)} octave each (--min-extent), so a one-epoch spike is never a peak`,
   hurtsSegment: (o: { onset: number; peak: number; recovery: number | null; rise: number; p: number; metric: string; last: number; pSearch?: number }) =>
     `from n = ${fmtNum(o.onset)} to n = ${fmtNum(o.peak)} extra data raises ${metricName(o.metric)} by ${fmtNum(o.rise)} ` +
     `(${fmtP(o.p)}${o.pSearch === undefined ? '' : `, search-wide ${fmtP(o.pSearch)}`}); ` +
@@ -267,6 +281,9 @@ export const analysisText = {
   hurtsOneSize: (slices: number) =>
     `each of the ${slices} width/epochs/label-noise slice${slices === 1 ? '' : 's'} holds a single train size: hurts needs runs over two or more train sizes`,
   hurtsMore: (n: number) => `... and ${n} more segment${n === 1 ? '' : 's'} (all in --json)`,
+  hurtsAdjusted: (pAdjusted: number) => `    adjusted for the slices scanned (Benjamini–Hochberg): ${fmtP(pAdjusted).replace('p ', 'p_adj ')}`,
+  hurtsSummary: (withRise: number, slices: number, alpha: number) =>
+    `${withRise} of ${slices} slices show a significant rise, after Benjamini–Hochberg correction across the ${slices} slices scanned (false discovery rate ${alpha})`,
 };
 
 // ── render ───────────────────────────────────────────────────────────────────
@@ -287,6 +304,9 @@ export const render = {
   warnNoRidge: 'ridge not computed: no peak or threshold drawn',
   warnNoPeak: (k: number) => `no significant peak in any row (prominence ≥ ${k} standard errors): no ridge drawn`,
   warnWeakPeaks: (where: string, k: number) => `not significant (prominence < ${k} standard errors): peak at ${where}`,
+  keySmoothed: 'thick pale line: the curve smoothed on the log axis, on which the peak was found (points: logged values)',
+  warnSmoothed: (where: string) =>
+    `peak rests on one seed and a smoothed curve (${where}): its interval is a bootstrap along the curve; run more seeds before trusting it`,
   warnCurveNoise: (where: string) =>
     `one seed per cell: peak interval from curve noise, not seeds (${where}); run more seeds before trusting it`,
   badColors: (name: string, allowed: readonly string[]) =>
@@ -394,6 +414,12 @@ export const report = {
     `More data hurts at ${fixed}: ${m} rises by ${rise} from train size ${onset} to ${peak}${ratio ? ` (${ratio} × the width)` : ''} (p ${p}), ` +
     `${recovery ? `and falls back to the onset level at ${recovery}` : 'and does not fall back to the onset level inside the sweep'}` +
     `${others ? `; ${others} more slice${others === 1 ? ' shows' : 's show'} a significant rise` : ''}.`,
+  hurtsOf: (m: string, fixed: string, onset: string, peak: string, rise: string, p: string, ratio: string | null, recovery: string | null, withRise: number, slices: number) =>
+    `More data hurts in ${withRise} of ${slices} train-size slices, after Benjamini–Hochberg correction. Worst at ${fixed}: ${m} rises by ${rise} from train size ${onset} to ${peak}` +
+    `${ratio ? ` (${ratio} × the width)` : ''} (adjusted p ${p}), ` +
+    `${recovery ? `and falls back to the onset level at ${recovery}` : 'and does not fall back to the onset level inside the sweep'}.`,
+  smoothedPeaks: (kind: string, label: string, y: string, ys: string) =>
+    `${kind}-wise map (${label}): the peak at ${y} ${ys} rests on one value per point (one seed, or a mean without seed spread) and a smoothed curve; its interval is a bootstrap along the curve, not over seeds.`,
   hurtsNone: (slices: number, epochs: string) => `More data never significantly hurts at ${epochs} (${slices} train-size slices scanned).`,
   epochPeak: (m: string, parts: string, fixed: string) =>
     `Epoch-wise: ${m} rises and falls again with training time at ${parts}${fixed ? ` (${fixed})` : ''}.`,
@@ -418,6 +444,8 @@ export const report = {
     `The static map images colour the plane between measured cells by ${method} interpolation (leave-one-out rmse ${rmse}); hatched areas were not measured. The interactive maps show measured cells only.`,
   hurtsMultiple: (slices: number, alpha: string) =>
     `${slices} train-size slices were each tested at α = ${alpha}: about ${alpha} × ${slices} rises could be significant by chance alone.`,
+  hurtsCorrected: (slices: number, alpha: string) =>
+    `${slices} train-size slices were scanned; rises are listed when significant after Benjamini–Hochberg correction across them (false discovery rate ${alpha}), so about ${alpha} of the listed rises may still be chance.`,
   interpolatedPage:
     'Colours between measured cells are interpolated, not measured: a feature that lies between cells (a narrow peak, an edge) can be missed or invented. Check the measured-cells page and the hatching before quoting a value from here.',
   skipAxis: (axis: string, n: number, need: number) => `the sweep has ${n} value${n === 1 ? '' : 's'} of ${axis}; this map needs at least ${need}`,

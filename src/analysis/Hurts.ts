@@ -6,6 +6,9 @@ export interface HurtsSegment {
   fixed: Record<string, number | string>;
   /** Last train size before the rise. */
   onset: number;
+  /** Bootstrap interval of the onset (train sizes of cells), at the result's level. */
+  onsetLow?: number;
+  onsetHigh?: number;
   /** Train size at the top of the rise. */
   peak: number;
   /** Train size where the error falls back to the onset level (interpolated in log size); null when not reached. */
@@ -20,6 +23,11 @@ export interface HurtsSegment {
    * this tall (in pair standard errors) anywhere. A segment needs both p and pSearch below alpha.
    */
   pSearch?: number;
+  /**
+   * The larger of p and pSearch, adjusted for the slices scanned (Benjamini–Hochberg); the
+   * segment is listed when this is below alpha.
+   */
+  pAdjusted?: number;
   /** Mean metric at the onset and at the peak, and the seeds behind each. */
   onsetError?: number;
   peakError?: number;
@@ -40,4 +48,7 @@ export interface HurtsResult {
   slices?: number;
   /** Slices matching `at` that hold a single train size (nothing to scan). */
   singleSize?: number;
+  /** Correction across slices, and how many slices hold a rise after it. */
+  correction?: 'benjamini-hochberg' | 'none';
+  slicesWithRise?: number;
 }

@@ -22,6 +22,16 @@ export interface Peak {
    * bump at least this many SE tall anywhere. Absent when the check was not run.
    */
   p?: number;
+  /** p adjusted for the rows scanned (Benjamini–Hochberg); the peak counts when this is below alpha. */
+  pAdjusted?: number;
+  /**
+   * True when the peak was found on a smoothed single-value curve (one seed, or means with no
+   * seed spread): error and prominence are those of the smooth, the interval a residual bootstrap.
+   */
+  smoothed?: boolean;
+  /** Octaves of rise before the peak and of fall after it, along the smooth. */
+  rise?: number;
+  fall?: number;
 }
 
 export interface RidgeRow {
@@ -47,6 +57,12 @@ export interface RidgeRow {
    * bar (a bump inside seed noise); its low/high are its cell x. Null when the row has no local maximum.
    */
   insideNoise?: Peak | null;
+  /** cells: peaks of the cell means; smoothed-curve: peaks of the smoothed single-value curve. */
+  model?: 'cells' | 'smoothed-curve';
+  /** Smoothing bandwidth (kernel sd, octaves) of a smoothed-curve row. */
+  bandwidth?: number;
+  /** The smooth of a smoothed-curve row, at its bins (x in data units). */
+  smooth?: { x: number[]; y: number[] };
 }
 
 export interface RidgeResult {
@@ -63,5 +79,10 @@ export interface RidgeResult {
   level?: number;
   /** Search-wide significance level of a peak. */
   alpha?: number;
+  /** Multiple-testing correction across rows, and the rows in its family. */
+  correction?: 'benjamini-hochberg' | 'none';
+  rowsScanned?: number;
+  /** Smallest rise and fall of a smoothed-curve peak, octaves. */
+  minExtent?: number;
   rows: RidgeRow[];
 }

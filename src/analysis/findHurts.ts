@@ -1,12 +1,14 @@
 import type { Cell } from '../cells/Cell.js';
 import { analysisText } from '../messages.js';
 import { usageError } from '../UserError.js';
+import { adjustedAs } from './benjaminiHochberg.js';
 import type { HurtsResult, HurtsSegment } from './Hurts.js';
 import { localPeaks } from './localPeaks.js';
 import { searchWideP } from './searchWideP.js';
 import { deriveSeed, seededRng } from './seededRng.js';
+import type { Rng } from './seededRng.js';
 import { seriesNoise } from './seriesNoise.js';
-import type { SeriesView } from './seriesNoise.js';
+import type { SeriesNoise, SeriesView } from './seriesNoise.js';
 import { welchTest } from './welchTest.js';
 
 export interface HurtsOptions {
@@ -23,6 +25,41 @@ export interface HurtsOptions {
    * must also be taller, in SE, than the tallest rise noise alone produces anywhere along the slice.
    */
   nullRounds?: number;
+  /**
+   * Correction across the slices scanned (default Benjamini–Hochberg 1995: false discovery rate
+   * at `alpha`); 'none' judges each slice alone.
+   */
+  correction?: 'benjamini-hochberg' | 'none';
+  /** Coverage of the onset interval (default 0.95). */
+  level?: number;
+}
+
+/**
+ * Onset interval by bootstrap: in each replicate of the series, the onset is the lowest point
+ * between the peak and the nearest point to its left that the observed series has higher than
+ * the peak; the interval runs between the (1 − level)/2 and (1 + level)/2 order statistics of
+ * those cells (nearest rank, outward, so a discrete interval never claims less than `level`),
+ * widened to hold the observed onset.
+ */
+function onsetInterval(noise: SeriesNoise, m: readonly number[], i1: number, boot: number, level: number, rng: Rng): { low: number; high: number } {
+  let start = i1 - 1;
+  while (start >= 0 && m[start] <= m[i1]) start--;
+  start++;
+  let i0 = start;
+  for (let k = start; k < i1; k++) if (m[k] < m[i0]) i0 = k;
+  if (boot <= 0 || start >= i1) return { low: i0, high: i0 };
+  const rep = new Float64Array(m.length);
+  const at = new Int32Array(boot);
+  for (let b = 0; b < boot; b++) {
+    noise.replicate(rng, rep);
+    let k0 = start;
+    for (let k = start; k < i1; k++) if (rep[k] < rep[k0]) k0 = k;
+    at[b] = k0;
+  }
+  at.sort();
+  const lo = at[Math.max(0, Math.floor(((1 - level) / 2) * boot))];
+  const hi = at[Math.min(boot - 1, Math.ceil(((1 + level) / 2) * boot) - 1)];
+  return { low: Math.min(lo, i0), high: Math.max(hi, i0) };
 }
 
 /** The axes a hurts slice is fixed on; train_size runs along it. */
@@ -56,6 +93,8 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
   const boot = Math.max(1, Math.floor(opts.boot ?? 1000));
   const seed = opts.seed ?? 1;
   const nullRounds = Math.max(0, Math.floor(opts.nullRounds ?? 1000));
+  const correction = opts.correction ?? 'benjamini-hochberg';
+  const level = opts.level ?? 0.95;
   for (const k of Object.keys(at)) {
     if (!(HURTS_SLICE_KEYS as readonly string[]).includes(k)) throw usageError(analysisText.badHurtsAt(k));
   }
@@ -72,7 +111,7 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
   }
   const keys = [...slices.keys()].sort();
 
-  const segments: HurtsSegment[] = [];
+  const candidates: (HurtsSegment & { q: number })[][] = [];
   let scanned = 0;
   keys.forEach((key, sliceIndex) => {
     const series = slices.get(key)!.sort((a, b) => a.train_size - b.train_size);
@@ -138,6 +177,7 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
         pSearch = pSearchOf(zOf(noise, i0, i1));
         if (!(pSearch < alpha)) continue;
       }
+      const onsetCi = onsetInterval(noise, m, i1, boot, level, rng);
       let recovery: number | null = null;
       for (let k = i1 + 1; k < m.length; k++) {
         if (m[k] <= m[i0]) {
@@ -161,6 +201,8 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
         peakSeeds: pk.stats.n,
         noiseFrom: noise.from,
         lastSize: series[series.length - 1].train_size,
+        onsetLow: series[onsetCi.low].train_size,
+        onsetHigh: series[onsetCi.high].train_size,
         i0,
         i1,
       });
@@ -169,8 +211,24 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
     found.sort((a, b) => b.rise - a.rise);
     const kept: typeof found = [];
     for (const s of found) if (!kept.some((k) => s.i0 >= k.i0 && s.i1 <= k.i1)) kept.push(s);
-    for (const { i0: _i0, i1: _i1, ...s } of kept) segments.push(s);
+    // A rise counts only when both tests pass: its p for the correction is the larger of the two.
+    candidates.push(kept.map(({ i0: _i0, i1: _i1, ...s }) => ({ ...s, q: Math.max(s.p, s.pSearch ?? s.p) })));
   });
+  // Benjamini–Hochberg across the slices scanned, on each slice's smallest p; slices without a
+  // candidate rise count as p = 1. Every rise is then judged by its BH-adjusted p.
+  const sliceP = candidates.map((c) => Math.min(1, ...c.map((s) => s.q)));
+  const segments: HurtsSegment[] = [];
+  let withRise = 0;
+  for (const [at, slice] of candidates.entries()) {
+    let any = false;
+    for (const { q, ...s } of slice) {
+      const pAdjusted = correction === 'none' ? q : adjustedAs(q, sliceP, at);
+      if (!(pAdjusted < alpha)) continue;
+      segments.push({ ...s, pAdjusted });
+      any = true;
+    }
+    if (any) withRise++;
+  }
   segments.sort((a, b) => b.rise - a.rise || a.p - b.p);
-  return { metric, fixed: { ...at }, segments, alpha, slices: scanned, singleSize: keys.length - scanned };
+  return { metric, fixed: { ...at }, segments, alpha, slices: scanned, singleSize: keys.length - scanned, correction, slicesWithRise: withRise };
 }

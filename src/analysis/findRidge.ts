@@ -5,7 +5,8 @@ import { thresholdCrossing } from './findThreshold.js';
 import { localPeaks } from './localPeaks.js';
 import type { LocalPeak } from './localPeaks.js';
 import { parabolaVertex } from './parabolaVertex.js';
-import { quantileSorted } from './quantile.js';
+import { adjustedAs } from './benjaminiHochberg.js';
+import { curveLocationDraws, curveModel, curveSearchP, percentileInterval } from './curvePeaks.js';
 import { searchWideP } from './searchWideP.js';
 import type { Peak, RidgeResult, RidgeRow } from './Ridge.js';
 import { deriveSeed, seededRng } from './seededRng.js';
@@ -30,7 +31,24 @@ export interface RidgeOptions {
   alpha?: number;
   /** Simulated pure-noise rows for that check (default 1000). */
   nullRounds?: number;
+  /**
+   * Single-value curves (one seed, or means with no spread): smallest rise and smallest fall of
+   * a peak along the smoothed curve, in octaves of x, measured at half the prominence (default 0.25).
+   */
+  minExtent?: number;
+  /** Fixed smoothing bandwidth (octaves) for single-value curves; cross-validated when absent. */
+  bandwidth?: number;
+  /**
+   * Correction across the rows scanned (default Benjamini–Hochberg 1995, false discovery rate at
+   * `alpha`); 'none' judges each row alone.
+   */
+  correction?: 'benjamini-hochberg' | 'none';
 }
+
+/** Default smallest rise and fall of a curve peak, in octaves. */
+export const DEFAULT_MIN_EXTENT = 0.25;
+/** Fewest points for the smoothed-curve model (fewer: the cells' own peak rule with curve noise). */
+const CURVE_MIN_POINTS = 8;
 
 type RidgeMap = Pick<SweepMap, 'kind' | 'x' | 'y' | 'cells' | 'fixed' | 'metric'>;
 
@@ -76,6 +94,12 @@ function locateIn(u: readonly number[], m: ArrayLike<number>, lo: number, hi: nu
  * small models often sits at the left edge. Its location is refined by a parabola in transformed
  * x, and its interval is a percentile bootstrap over seeds. Rows without a significant peak get
  * `peak: null`. The threshold is where mean train error first reaches `epsilon`.
+ *
+ * A row with one value per point (one seed, or means with no seed spread) and at least 8 points
+ * takes the smoothed-curve model instead (curveModel: peaks of the curve smoothed on the log
+ * axis whose rise and fall each span `minExtent` octaves at half prominence, significance
+ * against the same procedure on resampled noise, interval by residual block bootstrap).
+ * Significance is corrected across the rows scanned (Benjamini–Hochberg, `correction`).
  */
 export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
   const minProminence = opts.minProminence ?? 2;
@@ -85,6 +109,8 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
   const level = opts.level ?? 0.95;
   const alpha = opts.alpha ?? 0.05;
   const nullRounds = Math.max(0, Math.floor(opts.nullRounds ?? 1000));
+  const minExtent = opts.minExtent ?? DEFAULT_MIN_EXTENT;
+  const correction = opts.correction ?? 'benjamini-hochberg';
   const tx = axisTransform(map.x.scale);
   const direction = map.x.name === 'train_size' ? 'last-below' : 'first-below';
 
@@ -110,7 +136,25 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
     return pOf;
   };
 
-  const rows: RidgeRow[] = ys.map((y, rowIndex) => {
+  // Pass 1: per row, the candidate peaks with their prominence in SE and search-wide p.
+  interface Candidate {
+    z: number;
+    p: number;
+    prominence: number;
+    /** The peak with the given location interval (transformed units of the row's model). */
+    toPeak(low: number, high: number, p: number, pAdjusted?: number): Peak;
+    /** Sorted bootstrap locations, and the estimate they are centred on. */
+    draws(): { est: number; d: Float64Array };
+  }
+  interface RowWork {
+    row: RidgeRow;
+    candidates: Candidate[];
+    /** Data units of the model's location axis. */
+    from: (u: number) => number;
+    /** The row had enough points to look for a peak (a member of the multiple-testing family). */
+    scanned: boolean;
+  }
+  const work: RowWork[] = ys.map((y, rowIndex) => {
     const all = (byY.get(y) ?? []).filter((p) => Number.isFinite(tx.to(p.x))).sort((a, b) => a.x - b.x);
     const crossing = thresholdCrossing(
       all.map((p) => tx.to(p.x)),
@@ -123,14 +167,16 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
     const cells = pts.map((p) => p.cell);
     const means = cells.map((c) => c.stats.mean);
     const noise = seriesNoise(cells, u);
-    const row: RidgeRow = { y, peak: null, others: [], threshold, thresholdAtEdge: crossing?.atEdge ?? false, ratio: null, noiseFrom: noise.from, noiseSd: noise.sd, insideNoise: null };
-    if (pts.length < 3) return row;
+    const row: RidgeRow = { y, peak: null, others: [], threshold, thresholdAtEdge: crossing?.atEdge ?? false, ratio: null, noiseFrom: noise.from, noiseSd: noise.sd, insideNoise: null, model: 'cells' };
+    // One bootstrap stream per row: the same seed gives the same answer whatever other rows exist.
+    const rng = seededRng(deriveSeed(seed, rowIndex));
+    if (pts.length < 3) return { row, candidates: [], from: tx.from, scanned: false };
+
+    const onLog = pts.filter((p) => p.x > 0);
+    if (noise.from === 'curve' && onLog.length >= CURVE_MIN_POINTS) return curveRow(row, onLog, rng);
 
     const zOf = (lp: LocalPeak) => zIn(noise, lp);
     const scored = localPeaks(means).map((lp) => ({ lp, z: zOf(lp), p: NaN }));
-    // One bootstrap stream per row: the same seed gives the same answer whatever other rows exist.
-    const rng = seededRng(deriveSeed(seed, rowIndex));
-    const rep = new Float64Array(means.length);
     const tall = scored.filter((s) => s.z >= minProminence);
     if (tall.length > 0 && alpha < 1 && nullRounds > 0 && Number.isFinite(noise.sd)) {
       // Look-elsewhere check: the tallest of a row's several noise bumps clears 2 SE far more
@@ -138,48 +184,111 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
       const pOf = searchWide(noise);
       for (const s of tall) s.p = pOf(s.z);
     }
-    const passes = (s: { z: number; p: number }) => s.z >= minProminence && !(s.p >= alpha);
-    const significant = scored.filter(passes).sort((a, b) => b.lp.prominence - a.lp.prominence);
-    const toPeak = (lp: LocalPeak, z: number, p: number, low: number, high: number): Peak => ({
-      x: tx.from(refine(u, means, lp.index)),
-      low: tx.from(low),
-      high: tx.from(high),
-      error: means[lp.index],
-      prominence: lp.prominence,
-      prominenceSe: z,
-      cellX: pts[lp.index].x,
-      seeds: cells[lp.index].stats.n,
-      ...(Number.isNaN(p) ? {} : { p }),
-    });
+    const rep = new Float64Array(means.length);
+    const candidates: Candidate[] = scored.map((s) => ({
+      z: s.z,
+      p: s.p,
+      prominence: s.lp.prominence,
+      toPeak: (low, high, p, pAdjusted) => ({
+        x: tx.from(refine(u, means, s.lp.index)),
+        low: tx.from(low),
+        high: tx.from(high),
+        error: means[s.lp.index],
+        prominence: s.lp.prominence,
+        prominenceSe: s.z,
+        cellX: pts[s.lp.index].x,
+        seeds: cells[s.lp.index].stats.n,
+        ...(Number.isNaN(p) ? {} : { p }),
+        ...(pAdjusted === undefined || Number.isNaN(pAdjusted) ? {} : { pAdjusted }),
+      }),
+      draws: () => {
+        const d = new Float64Array(boot);
+        const hi = s.lp.rightBase >= 0 ? s.lp.rightBase : means.length - 1;
+        for (let b = 0; b < boot; b++) {
+          noise.replicate(rng, rep);
+          d[b] = locateIn(u, rep, s.lp.leftBase, hi);
+        }
+        return { est: refine(u, means, s.lp.index), d: d.sort() };
+      },
+    }));
+    return { row, candidates, from: tx.from, scanned: true };
+  });
+
+  /** A single-value curve (one seed, or means with no spread): the smoothed-curve model on the log axis. */
+  function curveRow(row: RidgeRow, pts: { x: number; cell: Cell }[], rng: ReturnType<typeof seededRng>): RowWork {
+    const u = pts.map((p) => Math.log2(p.x));
+    const y = pts.map((p) => p.cell.stats.mean);
+    const model = curveModel(u, y, { minExtent, bandwidth: opts.bandwidth });
+    row.model = 'smoothed-curve';
+    row.noiseSd = model.sd;
+    row.bandwidth = model.smoother.bandwidth;
+    row.smooth = { x: Array.from(model.smoother.u, (v) => 2 ** v), y: Array.from(model.fit) };
+    const ps = model.peaks.map(() => NaN);
+    if (model.peaks.some((pk) => pk.z >= minProminence) && alpha < 1 && nullRounds > 0 && Number.isFinite(model.sd)) {
+      const pOf = curveSearchP(model, { rounds: nullRounds, rng, minExtent });
+      model.peaks.forEach((pk, i) => (ps[i] = pOf(pk.z)));
+    }
+    const nearest = (v: number) => pts.reduce((a, b) => (Math.abs(Math.log2(b.x) - v) < Math.abs(Math.log2(a.x) - v) ? b : a));
+    const candidates: Candidate[] = model.peaks.map((pk, i) => ({
+      z: pk.z,
+      p: ps[i],
+      prominence: pk.prominence,
+      toPeak: (low, high, p, pAdjusted) => {
+        const cell = nearest(pk.u);
+        return {
+          x: 2 ** pk.u,
+          low: 2 ** low,
+          high: 2 ** high,
+          error: pk.fitted,
+          prominence: pk.prominence,
+          prominenceSe: pk.z,
+          cellX: cell.x,
+          seeds: cell.cell.stats.n,
+          smoothed: true,
+          rise: pk.rise,
+          fall: pk.fall,
+          ...(Number.isNaN(p) ? {} : { p }),
+          ...(pAdjusted === undefined || Number.isNaN(pAdjusted) ? {} : { pAdjusted }),
+        };
+      },
+      draws: () => ({ est: pk.u, d: curveLocationDraws(model, pk, { boot, rng }) }),
+    }));
+    return { row, candidates, from: (v) => 2 ** v, scanned: true };
+  }
+
+  // Multiple testing across the rows scanned: Benjamini–Hochberg on each row's smallest p (the
+  // search-wide p of its tallest bump); rows that were scanned but had nothing to test count as p = 1.
+  const scanned = work.filter((w) => w.scanned);
+  const scannedRows = scanned.length;
+  const family = scanned.map((w) => Math.min(1, ...w.candidates.filter((c) => c.z >= minProminence && Number.isFinite(c.p)).map((c) => c.p)));
+  const adjust = (p: number, at: number) => (correction === 'none' || Number.isNaN(p) || at < 0 ? p : adjustedAs(p, family, at));
+
+  const rows: RidgeRow[] = work.map((w) => {
+    const { row, candidates } = w;
+    const at = scanned.indexOf(w);
+    const scored = candidates.map((c) => ({ c, pAdj: adjust(c.p, at) }));
+    const passes = (s: { c: Candidate; pAdj: number }) => s.c.z >= minProminence && !(s.pAdj >= alpha);
+    const significant = scored.filter(passes).sort((a, b) => b.c.prominence - a.c.prominence);
     if (significant.length === 0) {
-      const best = scored.sort((a, b) => b.z - a.z)[0];
+      const best = [...scored].sort((a, b) => b.c.z - a.c.z)[0];
       if (best) {
-        const k = best.lp.index;
-        row.insideNoise = toPeak(best.lp, best.z, best.p, u[k], u[k]);
+        const pk = best.c.toPeak(0, 0, best.c.p, best.pAdj);
+        row.insideNoise = { ...pk, low: pk.cellX, high: pk.cellX };
       }
       return row;
     }
-
-    const draws = significant.map(() => new Float64Array(boot));
-    for (let b = 0; b < boot; b++) {
-      noise.replicate(rng, rep);
-      significant.forEach((s, j) => {
-        const hi = s.lp.rightBase >= 0 ? s.lp.rightBase : means.length - 1;
-        draws[j][b] = locateIn(u, rep, s.lp.leftBase, hi);
-      });
-    }
-    const peaks = significant.map((s, j) => {
-      const d = draws[j].sort();
-      const est = refine(u, means, s.lp.index);
-      // Percentile interval, widened if need be to hold the estimate itself (a skewed bootstrap
-      // can leave it outside, which would read as a contradiction).
-      const low = boot > 0 ? Math.min(est, quantileSorted(d, (1 - level) / 2)) : est;
-      const high = boot > 0 ? Math.max(est, quantileSorted(d, 1 - (1 - level) / 2)) : est;
-      return toPeak(s.lp, s.z, s.p, low, high);
+    const peaks = significant.map((s) => {
+      if (boot === 0) {
+        const pk = s.c.toPeak(0, 0, s.c.p, s.pAdj);
+        return { ...pk, low: pk.x, high: pk.x };
+      }
+      const { est, d } = s.c.draws();
+      const { low, high } = percentileInterval(d, est, level);
+      return s.c.toPeak(low, high, s.c.p, s.pAdj);
     });
     row.peak = peaks[0];
     row.others = peaks.slice(1);
-    row.ratio = threshold === null ? null : row.peak.x / threshold;
+    row.ratio = row.threshold === null ? null : row.peak.x / row.threshold;
     return row;
   });
 
@@ -195,6 +304,9 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
     seed,
     level,
     alpha,
+    correction,
+    rowsScanned: scannedRows,
+    minExtent,
     rows,
   };
 }

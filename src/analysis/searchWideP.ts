@@ -1,3 +1,4 @@
+import { nullMaxP } from './nullMaxP.js';
 import type { Rng } from './seededRng.js';
 import type { SeriesNoise, SeriesView } from './seriesNoise.js';
 
@@ -7,7 +8,7 @@ import type { SeriesNoise, SeriesView } from './seriesNoise.js';
  * This draws `rounds` series of pure noise with the same seeds per cell (SeriesNoise.nullSeries),
  * records the largest statistic `maxStat` finds in each (the caller's own search, e.g. the tallest
  * prominence in SE), and returns a function giving the search-wide p-value of an observed
- * statistic: (1 + #{null max >= observed}) / (rounds + 1). The statistic must be in SE units
+ * statistic (nullMaxP: Monte Carlo, with a fitted Gumbel tail beyond the simulated range). The statistic must be in SE units
  * (scale-free), computed from the view it is given, so noise-estimation error is part of the null.
  */
 export function searchWideP(opts: {
@@ -20,15 +21,5 @@ export function searchWideP(opts: {
   const nullMax = new Float64Array(rounds);
   for (let b = 0; b < rounds; b++) nullMax[b] = maxStat(noise.nullSeries(rng));
   nullMax.sort();
-  return (observed) => {
-    // count of null maxima >= observed, by binary search on the sorted array
-    let lo = 0;
-    let hi = rounds;
-    while (lo < hi) {
-      const mid = (lo + hi) >> 1;
-      if (nullMax[mid] >= observed) hi = mid;
-      else lo = mid + 1;
-    }
-    return (rounds - lo + 1) / (rounds + 1);
-  };
+  return nullMaxP(nullMax);
 }

@@ -15,17 +15,21 @@ interface HurtsArgs {
   seed: number;
   store: string;
   limit: number;
+  correction: 'bh' | 'none';
 }
 
 function hurtsText(r: HurtsResult, limit: number): string {
-  if (r.segments.length === 0) return t.hurtsNone(r.metric, r.slices ?? 0, r.alpha ?? 0.05);
+  if (r.segments.length === 0)
+    return t.hurtsNone(r.metric, r.slices ?? 0, r.alpha ?? 0.05) + (r.correction === 'benjamini-hochberg' && (r.slices ?? 0) > 1 ? `\n${t.hurtsSummary(0, r.slices ?? 0, r.alpha ?? 0.05)}` : '');
   const lines: string[] = [];
   for (const s of r.segments.slice(0, limit)) {
     lines.push(t.hurtsSlice(s.fixed));
     lines.push(`  ${t.hurtsSegment({ onset: s.onset, peak: s.peak, recovery: s.recovery, rise: s.rise, p: s.p, metric: r.metric, last: s.lastSize ?? s.peak, pSearch: s.pSearch })}`);
+    if (r.correction === 'benjamini-hochberg' && s.pAdjusted !== undefined) lines.push(t.hurtsAdjusted(s.pAdjusted));
     if (s.test === 'bootstrap') lines.push(t.hurtsBootstrap(s.noiseFrom ?? 'seeds'));
   }
   if (r.segments.length > limit) lines.push(t.hurtsMore(r.segments.length - limit));
+  if (r.correction === 'benjamini-hochberg') lines.push(t.hurtsSummary(r.slicesWithRise ?? 0, r.slices ?? 0, r.alpha ?? 0.05));
   return lines.join('\n');
 }
 
@@ -40,6 +44,7 @@ export const command: CommandSpec<HurtsArgs> = {
       .option('alpha', { type: 'number', default: 0.05, describe: 'significance level of a rise (Welch test, and the search-wide check)' })
       .option('boot', { type: 'number', default: 1000, describe: 'bootstrap rounds when a compared cell has one seed' })
       .option('seed', { type: 'number', default: 1, describe: 'random seed of the bootstrap and the search-wide check' })
+      .option('correction', { type: 'string', choices: ['bh', 'none'], default: 'bh', describe: 'across slices: bh = Benjamini–Hochberg (false discovery rate at --alpha), none = each slice alone' })
       .option('limit', { type: 'number', default: 20, describe: 'segments shown in the text output (all are in --json)' })
       .option('store', { type: 'string', default: 'atlas-store', describe: 'store directory' }),
   async run(args) {
@@ -57,7 +62,7 @@ export const command: CommandSpec<HurtsArgs> = {
     // A fixed epoch budget need not be logged exactly: runs are aligned to it along their own curves.
     const epochs = typeof at.epochs === 'number' ? [at.epochs] : undefined;
     const cells = buildCells(table, { metric, epochs });
-    const result = findHurts(cells, { at, alpha: args.alpha, boot: args.boot, seed: args.seed });
+    const result = findHurts(cells, { at, alpha: args.alpha, boot: args.boot, seed: args.seed, correction: args.correction === 'none' ? 'none' : 'benjamini-hochberg' });
     if (result.slices === 0) throw new UserError(result.singleSize ? t.hurtsOneSize(result.singleSize) : t.noCells(at));
     if (args.json) process.stdout.write(`${JSON.stringify(result)}\n`);
     else process.stdout.write(`${hurtsText(result, args.limit)}\n`);

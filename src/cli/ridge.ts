@@ -19,6 +19,8 @@ interface RidgeArgs {
   alpha: number;
   seed: number;
   store: string;
+  minExtent: number;
+  correction: 'bh' | 'none';
 }
 
 /** Rejects non-finite or out-of-range numbers with a usage error naming the flag. */
@@ -30,19 +32,39 @@ function ridgeText(r: RidgeResult): string {
   const lines = [t.ridgeHeader(r.map, r.metric, r.x, r.y, r.fixed)];
   const curveRows = r.rows.filter((row) => row.noiseFrom === 'curve').length;
   if (curveRows > 0) lines.push(t.ridgeCurveNoise(curveRows, r.rows.length));
+  const smoothRows = r.rows.filter((row) => row.model === 'smoothed-curve').length;
+  if (smoothRows > 0) lines.push(t.ridgeCurveModel(smoothRows, r.minExtent ?? 0.25));
   for (const row of r.rows) {
     const mark = row.noiseFrom === 'curve' ? '* ' : '';
     if (row.peak) {
       const p = row.peak;
       lines.push(mark + t.ridgePeak({ y: r.y, yv: row.y, x: r.x, px: p.x, low: p.low, high: p.high, level: r.level ?? 0.95, metric: r.metric, error: p.error, prominence: p.prominence, z: p.prominenceSe }));
+      const pLine = t.ridgeP(p.p, r.correction === 'benjamini-hochberg' ? p.pAdjusted : undefined);
+      if (pLine) lines.push(pLine);
+      if (p.smoothed) lines.push(t.ridgeSmoothed(row.bandwidth ?? NaN, p.rise ?? NaN, p.fall ?? NaN));
       for (const o of row.others) lines.push(t.ridgeOther(r.x, o.x, o.prominence, o.prominenceSe));
     } else {
       const bump = row.insideNoise;
-      lines.push(mark + t.ridgeNone(r.y, row.y) + (bump ? t.ridgeInsideNoise(r.x, bump.cellX, bump.prominence, bump.prominenceSe, r.minProminence, bump.p, r.alpha) : ''));
+      const alpha = r.alpha ?? 0.05;
+      const correctedAway = bump && bump.p !== undefined && bump.pAdjusted !== undefined && bump.prominenceSe >= r.minProminence && bump.p < alpha && !(bump.pAdjusted < alpha);
+      lines.push(
+        mark +
+          t.ridgeNone(r.y, row.y) +
+          (correctedAway
+            ? t.ridgeCorrectedAway(r.x, bump.cellX, bump.prominenceSe, bump.p!, bump.pAdjusted!, alpha)
+            : bump
+              ? t.ridgeInsideNoise(r.x, bump.cellX, bump.prominence, bump.prominenceSe, r.minProminence, bump.p, r.alpha)
+              : ''),
+      );
     }
     lines.push(t.ridgeThreshold(r.x, row.threshold, r.epsilon, row.ratio, row.thresholdAtEdge));
   }
-  lines.push(t.ridgeSummary(r.rows.filter((x) => x.peak).length, r.rows.length));
+  const withPeak = r.rows.filter((x) => x.peak).length;
+  lines.push(
+    r.correction === 'benjamini-hochberg' && (r.rowsScanned ?? 0) > 1
+      ? t.ridgeSummaryCorrected(withPeak, r.rowsScanned ?? r.rows.length, r.alpha ?? 0.05)
+      : t.ridgeSummary(withPeak, r.rows.length),
+  );
   return lines.join('\n');
 }
 
@@ -59,6 +81,8 @@ export const command: CommandSpec<RidgeArgs> = {
       .option('alpha', { type: 'number', default: 0.05, describe: 'search-wide level: a peak must beat the tallest bump pure noise makes along the row (1 = off)' })
       .option('boot', { type: 'number', default: 1000, describe: 'bootstrap rounds for the location interval (resampling seeds per cell)' })
       .option('seed', { type: 'number', default: 1, describe: 'random seed of the bootstrap' })
+      .option('min-extent', { type: 'number', default: 0.25, describe: 'one value per point (one seed, or means): smallest rise and fall of a peak along the smoothed curve, in octaves at half height' })
+      .option('correction', { type: 'string', choices: ['bh', 'none'], default: 'bh', describe: 'across rows: bh = Benjamini–Hochberg (false discovery rate at --alpha), none = each row alone' })
       .option('epsilon', { type: 'number', default: 0.01, describe: 'train error at or below which the interpolation threshold is reached' })
       .option('store', { type: 'string', default: 'atlas-store', describe: 'store directory' }),
   async run(args) {
@@ -68,6 +92,7 @@ export const command: CommandSpec<RidgeArgs> = {
     checkNumber('--boot', args.boot, (v) => v >= 0 && v <= 1e6 && Number.isInteger(v), 'a whole number of rounds (0 to 1,000,000)');
     checkNumber('--epsilon', args.epsilon, (v) => v >= 0, 'a train error >= 0');
     checkNumber('--seed', args.seed, Number.isInteger, 'a whole number');
+    checkNumber('--min-extent', args.minExtent, (v) => v > 0 && v <= 8, 'octaves, a number in (0, 8]');
     const at = parseAt(args.at);
     const { readStore } = await import('../store/readStore.js');
     const { buildMap } = await import('../grid/buildMap.js');
@@ -75,8 +100,10 @@ export const command: CommandSpec<RidgeArgs> = {
     const { axisSource } = await import('../ingest/axisSource.js');
     const { table, manifest } = await readStore(args.store);
     // The ridge reads the measured cells only: the cheapest interpolator on a small raster suffices.
-    const map = buildMap(table, { kind: args.kind, at, metric: args.metric, method: 'linear', raster: { nx: 16, ny: 16 } });
-    const ridge = findRidge(map, { minProminence: args.minProminence, boot: args.boot, seed: args.seed, epsilon: args.epsilon, alpha: args.alpha });
+    // Every logged epoch up to 10,000 (the map's default keeps 100): a single-seed epoch-wise log is
+    // a curve of thousands of points, and the curve model smooths and tests on all of them.
+    const map = buildMap(table, { kind: args.kind, at, metric: args.metric, method: 'linear', raster: { nx: 16, ny: 16 }, maxEpochs: 10_000 });
+    const ridge = findRidge(map, { minProminence: args.minProminence, boot: args.boot, seed: args.seed, epsilon: args.epsilon, alpha: args.alpha, minExtent: args.minExtent, correction: args.correction === 'none' ? 'none' : 'benjamini-hochberg' });
     if (!args.quiet) {
       if (map.picked.length) process.stderr.write(`${t.picked(map.picked, map.fixed)}\n`);
       for (const note of map.notes ?? []) process.stderr.write(`${note}\n`);

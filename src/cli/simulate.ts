@@ -18,6 +18,7 @@ interface SimulateArgs {
   trainSizes?: string;
   labelNoise?: string;
   epochs?: string;
+  evalNoise?: string;
   workers?: string;
   ridge?: string;
   testSize?: string;
@@ -60,6 +61,7 @@ export const command: CommandSpec<SimulateArgs> = {
       .option('workers', { type: 'string', describe: 'worker threads (default: the number of cores)' })
       .option('ridge', { type: 'string', describe: "linear preset: ridge λ >= 0 or 'optimal' (default 0: minimum-norm least squares)" })
       .option('test-size', { type: 'string', describe: 'fresh test points per seed' })
+      .option('eval-noise', { type: 'string', describe: 'per-epoch evaluation noise on test error (sd, e.g. 0.01), with single-epoch spikes at 1% of epochs' })
       .option('force', { type: 'boolean', default: false, describe: 'write into a non-empty --out directory' }),
   async run(args) {
     const preset = String(args.preset);
@@ -73,6 +75,9 @@ export const command: CommandSpec<SimulateArgs> = {
     const trainSizes = parseList('--train-sizes', args.trainSizes);
     const labelNoise = parseList('--label-noise', args.labelNoise);
     const epochs = args.epochs === undefined ? undefined : Number(args.epochs);
+    const evalNoise = args.evalNoise === undefined ? undefined : Number(args.evalNoise);
+    if (evalNoise !== undefined && !(Number.isFinite(evalNoise) && evalNoise >= 0 && evalNoise < 1)) throw usageError(t.badEvalNoise(String(args.evalNoise)));
+    if (preset === 'linear' && evalNoise !== undefined) throw usageError(t.evalNoiseNeedsFeatures);
     requireAll('--widths', widths, (v) => Number.isInteger(v) && v >= 1, 'widths must be whole numbers >= 1');
     requireAll('--train-sizes', trainSizes, (v) => Number.isInteger(v) && v >= 2, 'train sizes must be whole numbers >= 2');
     requireAll('--label-noise', labelNoise, (v) => v >= 0 && v < 1, 'label noise must be in [0, 1)');
@@ -125,6 +130,7 @@ export const command: CommandSpec<SimulateArgs> = {
         ...(labelNoise && { labelNoise }),
         ...(epochs !== undefined && { maxEpochs: epochs }),
         ...(testSize !== undefined && { testSize }),
+        ...(evalNoise !== undefined && { evalNoise: { sd: evalNoise } }),
       };
       let total: number;
       try {

@@ -23,7 +23,9 @@ export function figureWarnings(ridges: { ridge: RidgeResult | null; label: strin
     const y = axisLabel(ridge.y);
     const weak = ridge.rows.filter((r) => r.peak !== null && !(r.peak.prominenceSe >= SIGNIFICANT_SE));
     if (weak.length) out.push(msg.warnWeakPeaks(where(label, `${y} ${listValues(weak.map((r) => r.y))}`), SIGNIFICANT_SE));
-    const curve = ridge.rows.filter((r) => r.peak !== null && r.noiseFrom === 'curve');
+    const smoothed = ridge.rows.filter((r) => r.peak !== null && r.model === 'smoothed-curve');
+    if (smoothed.length) out.push(msg.warnSmoothed(where(label, `${y} ${listValues(smoothed.map((r) => r.y))}`)));
+    const curve = ridge.rows.filter((r) => r.peak !== null && r.noiseFrom === 'curve' && r.model !== 'smoothed-curve');
     if (curve.length) out.push(msg.warnCurveNoise(where(label, `${y} ${listValues(curve.map((r) => r.y))}`)));
   }
   return out;

@@ -6,6 +6,7 @@ import { axisLabel, axisTicks, axisTitle, fixedLine, fixedValueText, metricForma
 import { DEFAULT_COLOR_SCHEME } from './colorSchemes.js';
 import type { ColorScheme } from './colorSchemes.js';
 import { keySpec, STYLE } from './figureKey.js';
+import type { KeyEntry } from './figureKey.js';
 import { figureWarnings } from './figureWarnings.js';
 import { FIGURE_CONFIG } from './figureConfig.js';
 
@@ -71,6 +72,8 @@ export function slicesSpec(map: SweepMap, ridge: RidgeResult | null, opts: Slice
     }
     const r = ridge?.rows.find((rr) => rr.y === y);
     if (r?.peak) values.push({ layer: 'peak', row: label(y), x: r.peak.x, value: r.peak.error, low: r.peak.low, high: r.peak.high });
+    // The smooth the peak was found on (single-value curves), drawn beside the logged points.
+    if (r?.smooth) r.smooth.x.forEach((x, i) => values.push({ layer: 'smooth', row: label(y), x, value: r.smooth!.y[i] }));
   }
   if (!values.length) throw new Error(msg.noCells(map.kind));
   const logX = map.x.scale === 'log2';
@@ -124,6 +127,15 @@ export function slicesSpec(map: SweepMap, ridge: RidgeResult | null, opts: Slice
       },
     },
   ];
+  const smoothed = values.some((v) => v.layer === 'smooth');
+  if (smoothed) {
+    layers.push({
+      name: 'smooth',
+      transform: [only('smooth')],
+      mark: { type: 'line', strokeWidth: 5, opacity: 0.45, clip: true },
+      encoding: { x: X('x'), y: Y('value'), color },
+    });
+  }
   if (values.some((v) => v.layer === 'peak')) {
     layers.push({
       name: 'peakWhiskers',
@@ -149,7 +161,9 @@ export function slicesSpec(map: SweepMap, ridge: RidgeResult | null, opts: Slice
   const chosen = ridge ? { ...ridge, rows: ridge.rows.filter((r) => rows.includes(r.y)) } : null;
   const warnings = figureWarnings([{ ridge: chosen, label: '' }]);
   const diverged = values.some((v) => v.layer === 'diverged');
-  const key = keySpec([{ symbol: 'none', text: msg.keySlicesBand(diverged, values.some((v) => v.layer === 'peak')) }], warnings, width + 140);
+  const keyItems: KeyEntry[] = [{ symbol: 'none', text: msg.keySlicesBand(diverged, values.some((v) => v.layer === 'peak')) }];
+  if (smoothed) keyItems.push({ symbol: 'none', text: msg.keySmoothed });
+  const key = keySpec(keyItems, warnings, width + 140);
   const spec = {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     title: { text: msg.slicesTitle(metric, axisLabel(map.x.name), axisLabel(yName)), subtitle: fixedLine(map, { method: false }) },

@@ -298,7 +298,12 @@ export function buildReport(opts: BuildReportOptions): ReportModel {
   if (metric === 'test_loss' || metric === 'train_loss') cautions.push(msg.heavyTail(metricWords(metric)));
   const first = maps[0]?.variants[maps[0].main]?.map;
   if (first) cautions.push(msg.interpolated(first.method, formatNumber(first.loo.rmse)));
-  if (hurts && (hurts.slices ?? 0) > 1) cautions.push(msg.hurtsMultiple(hurts.slices ?? 0, formatNumber(hurts.alpha ?? 0.05)));
+  if (hurts && (hurts.slices ?? 0) > 1)
+    cautions.push(
+      hurts.correction === 'benjamini-hochberg'
+        ? msg.hurtsCorrected(hurts.slices ?? 0, formatNumber(hurts.alpha ?? 0.05))
+        : msg.hurtsMultiple(hurts.slices ?? 0, formatNumber(hurts.alpha ?? 0.05)),
+    );
 
   return { facts: f, findings, cautions, maps, skipped, hurts: hurts ? [hurts] : [], coverage, plan };
 }

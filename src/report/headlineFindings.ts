@@ -147,6 +147,10 @@ function hurtsFindings(h: HurtsResult): string[] {
   const w = s.fixed.width;
   const ratio = typeof w === 'number' && w > 0 ? formatNumber(s.peak / w, 2) : null;
   const slicesWith = new Set(segs.map((x) => JSON.stringify(x.fixed))).size;
+  if (h.correction === 'benjamini-hochberg' && s.pAdjusted !== undefined) {
+    const pa = s.pAdjusted < 1e-4 ? '< 1e-4' : `= ${formatNumber(s.pAdjusted, 2)}`;
+    return [msg.hurtsOf(metricWords(h.metric), formatFixed(s.fixed), fmt(s.onset), fmt(s.peak), fmt(s.rise), pa, ratio, s.recovery === null ? null : fmt(s.recovery), h.slicesWithRise ?? slicesWith, h.slices ?? slicesWith)];
+  }
   const p = s.p < 1e-4 ? '< 1e-4' : `= ${formatNumber(s.p, 2)}`;
   return [msg.hurts(metricWords(h.metric), formatFixed(s.fixed), fmt(s.onset), fmt(s.peak), fmt(s.rise), p, ratio, s.recovery === null ? null : fmt(s.recovery), slicesWith - 1)];
 }
@@ -159,7 +163,9 @@ export function variantCautions(v: MapVariant, kind: string): string[] {
   const list = (rs: RidgeRow[]) => (rs.length <= 4 ? rs.map((r) => fmt(r.y)).join(', ') : `${fmt(rs[0].y)}, ${fmt(rs[1].y)}, … ${fmt(rs[rs.length - 1].y)} (${rs.length} rows)`);
   const weak = rows.filter((r) => r.peak !== null && !(r.peak.prominenceSe >= SIGNIFICANT_SE));
   if (weak.length) out.push(msg.weakPeaks(kind, v.label, y, list(weak)));
-  const curve = rows.filter((r) => r.peak !== null && r.noiseFrom === 'curve');
+  const smoothed = rows.filter((r) => r.peak !== null && r.model === 'smoothed-curve');
+  if (smoothed.length) out.push(msg.smoothedPeaks(kind, v.label, y, list(smoothed)));
+  const curve = rows.filter((r) => r.peak !== null && r.noiseFrom === 'curve' && r.model !== 'smoothed-curve');
   if (curve.length) out.push(msg.curveNoise(kind, v.label, y, list(curve)));
   return out;
 }

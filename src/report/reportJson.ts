@@ -30,10 +30,21 @@ export function reportJson(model: ReportModel) {
         rows: (main.ridge?.rows ?? []).map((r) => ({
           y: r.y,
           peak: r.peak
-            ? { x: r.peak.x, low: r.peak.low, high: r.peak.high, error: r.peak.error, prominence: r.peak.prominence, prominenceSe: num(r.peak.prominenceSe) }
+            ? {
+                x: r.peak.x,
+                low: r.peak.low,
+                high: r.peak.high,
+                error: r.peak.error,
+                prominence: r.peak.prominence,
+                prominenceSe: num(r.peak.prominenceSe),
+                ...(r.peak.p === undefined ? {} : { p: r.peak.p }),
+                ...(r.peak.pAdjusted === undefined ? {} : { pAdjusted: r.peak.pAdjusted }),
+                ...(r.peak.smoothed ? { smoothed: true } : {}),
+              }
             : null,
           threshold: r.threshold,
           noiseFrom: r.noiseFrom,
+          ...(r.model ? { model: r.model } : {}),
         })),
         cautions: main.cautions,
       };
@@ -42,7 +53,9 @@ export function reportJson(model: ReportModel) {
       fixed: h.fixed,
       slices: h.slices ?? null,
       alpha: h.alpha ?? null,
-      segments: h.segments.map((s) => ({ fixed: s.fixed, onset: s.onset, peak: s.peak, recovery: s.recovery, rise: s.rise, p: s.p, test: s.test })),
+      correction: h.correction ?? null,
+      slicesWithRise: h.slicesWithRise ?? null,
+      segments: h.segments.map((s) => ({ fixed: s.fixed, onset: s.onset, peak: s.peak, recovery: s.recovery, rise: s.rise, p: s.p, pSearch: s.pSearch ?? null, pAdjusted: s.pAdjusted ?? null, test: s.test })),
     })),
     coverage: model.coverage ? { counts: model.coverage.counts, gaps: model.coverage.gaps } : null,
     plan: model.plan,

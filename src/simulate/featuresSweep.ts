@@ -1,3 +1,5 @@
+import { addEvalNoise } from './addEvalNoise.js';
+import type { EvalNoiseOptions } from './addEvalNoise.js';
 import { emptyTable } from '../store/RowTable.js';
 import type { RowTable } from '../store/RowTable.js';
 import { epochGrid } from './epochGrid.js';
@@ -51,6 +53,8 @@ export interface FeaturesSweepOptions {
   measureTime?: boolean;
   /** Called after each finished run (one width at one train size and seed, all noise levels). */
   onRun?: () => void;
+  /** Per-epoch evaluation noise on test error, with occasional single-epoch spikes (addEvalNoise); default none. */
+  evalNoise?: EvalNoiseOptions;
 }
 
 /** Options with every default filled, as plain data (sent to worker threads). */
@@ -120,7 +124,8 @@ export function featuresTasks(r: ResolvedFeaturesOptions): FeaturesTask[] {
  */
 export function featuresSweep(opts: FeaturesSweepOptions): RowTable {
   const r = resolveFeaturesOptions(opts);
-  return concatTables(featuresTasks(r).map((t) => featuresTask(r, t, opts.onRun)));
+  const table = concatTables(featuresTasks(r).map((t) => featuresTask(r, t, opts.onRun)));
+  return opts.evalNoise ? addEvalNoise(table, opts.evalNoise) : table;
 }
 
 /** Number of runs (rows / epochs) a sweep will produce; for progress bars. */

@@ -1,6 +1,7 @@
 import type { Worker } from 'node:worker_threads';
 import { startWorker, stopWorkers } from '../workers/startWorker.js';
 import type { RowTable } from '../store/RowTable.js';
+import { addEvalNoise } from './addEvalNoise.js';
 import { concatTables } from './concatTables.js';
 import { featuresTask, featuresTasks, resolveFeaturesOptions } from './featuresSweep.js';
 import type { FeaturesSweepOptions } from './featuresSweep.js';
@@ -14,7 +15,8 @@ export async function featuresSweepParallel(opts: FeaturesSweepOptions & { worke
   const r = resolveFeaturesOptions(opts);
   const tasks = featuresTasks(r);
   const workers = Math.max(1, Math.min(Math.floor(opts.workers), tasks.length));
-  if (workers === 1) return concatTables(tasks.map((t) => featuresTask(r, t, opts.onRun)));
+  const noisy = (t: RowTable) => (opts.evalNoise ? addEvalNoise(t, opts.evalNoise) : t);
+  if (workers === 1) return noisy(concatTables(tasks.map((t) => featuresTask(r, t, opts.onRun))));
 
   const results: RowTable[] = new Array(tasks.length);
   // Largest train size first: the longest tasks start early and the tail stays short.
@@ -58,5 +60,5 @@ export async function featuresSweepParallel(opts: FeaturesSweepOptions & { worke
   } finally {
     stopWorkers(pool);
   }
-  return concatTables(results);
+  return noisy(concatTables(results));
 }

@@ -71,7 +71,7 @@ describe('datlas report', () => {
     expect(at64).toBeDefined();
     expect(at64!.peak).toBe(64);
     expect(at64!.onset).toBe(32);
-    expect(json.findings.some((f) => f.startsWith('More data hurts at width'))).toBe(true);
+    expect(json.findings.some((f) => /^More data hurts in \d+ of \d+ train-size slices, after Benjamini–Hochberg correction\. Worst at width/.test(f))).toBe(true);
   });
 
   it('counts the two runs the spec planned but the store lacks, and plans them first', () => {

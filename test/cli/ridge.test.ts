@@ -84,3 +84,37 @@ describe('datlas ridge', () => {
     expect(help.stdout).toContain('datlas ridge --kind model');
   });
 });
+
+// End to end on single-seed epoch logs shaped like epoch-wise double-descent runs (invented by
+// curveFixtures.ts: 4,800 epochs, a fall to epoch 30, a broad rise over 120–300, a slow fall, and
+// one-epoch spikes, one at epoch 15), and a monotone control, through ingest and `ridge --kind epoch`.
+describe('ridge --kind epoch on single-seed logs', () => {
+  it('puts the peak in epochs 50–600 on the run, none on the control, and says it rests on a smoothed curve', async () => {
+    const { control, noisyCurve, runA } = await import('../analysis/curveFixtures.js');
+    const d = mkdtempSync(join(tmpdir(), 'datlas-epoch-'));
+    try {
+      const write = (name: string, curve: (e: number) => number, seed: number, forced: [number, number][]) => {
+        const { epochs, values } = noisyCurve(curve, { epochs: 4800, sd: 0.012, rho: 0.5, spikeRate: 0.01, spike: [0.03, 0.15], forced, seed });
+        writeFileSync(join(d, `${name}.csv`), `epoch,test_error\n${epochs.map((e, i) => `${e},${values[i].toFixed(5)}`).join('\n')}\n`);
+        const st = join(d, `${name}-store`);
+        expect(runCli(['ingest', join(d, `${name}.csv`), '--store', st, '--set', 'width=64', '--set', 'train_size=1000', '--set', 'seed=0', '--quiet']).code).toBe(0);
+        return st;
+      };
+      const run = runCli(['ridge', '--kind', 'epoch', '--store', write('run', runA, 3, [[15, 0.12]]), '--boot', '200', '--json']);
+      expect(run.code, run.stderr).toBe(0);
+      const row = JSON.parse(run.stdout).rows[0];
+      expect(row.model).toBe('smoothed-curve');
+      expect(row.peak.x).toBeGreaterThan(50);
+      expect(row.peak.x).toBeLessThan(600);
+      expect(row.peak.pAdjusted).toBeLessThan(0.05);
+      expect(row.smooth.x.length).toBeGreaterThan(100);
+      const text = runCli(['ridge', '--kind', 'epoch', '--store', join(d, 'run-store'), '--boot', '100']);
+      expect(text.stdout).toMatch(/peak of the curve smoothed on the log axis/);
+      expect(text.stdout).toMatch(/after Benjamini–Hochberg correction|1 of 1 rows/);
+      const ctl = runCli(['ridge', '--kind', 'epoch', '--store', write('ctl', control, 4, []), '--boot', '100', '--json']);
+      expect(JSON.parse(ctl.stdout).rows[0].peak).toBeNull();
+    } finally {
+      rmSync(d, { recursive: true, force: true });
+    }
+  }, 120_000);
+});

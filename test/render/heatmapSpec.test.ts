@@ -144,4 +144,22 @@ describe('heatmap and slices specs', () => {
     expect(svg).toContain('train error');
     expect(svg).toContain('band: 95% Student-t interval');
   });
+
+  it('slices: a smoothed-curve row draws its smooth beside the points and says the peak rests on one seed and a smooth', async () => {
+    const { map, ridge } = gappy();
+    const rows = pickSliceRows(map, [4000]);
+    const r = ridge.rows.find((x) => x.y === rows[0])!;
+    expect(r.peak).not.toBeNull();
+    r.model = 'smoothed-curve';
+    r.noiseFrom = 'curve';
+    r.smooth = { x: map.x.values.slice(), y: map.x.values.map((_, i) => 0.3 + 0.01 * i) };
+    const spec = slicesSpec(map, ridge, { rows });
+    expect(vegaLiteValidator()(JSON.parse(JSON.stringify(spec)))).toBe(true);
+    const svg = (await renderSpec(spec, { format: 'svg' })) as string;
+    const smooth = markGroups(svg, 'smooth');
+    expect(smooth).toHaveLength(1);
+    expect(pathPoints(smooth[0].match(/d="([^"]+)"/)![1])).toHaveLength(map.x.values.length);
+    expect(svg).toContain('thick pale line: the curve smoothed on the log axis');
+    expect(svg).toContain('peak rests on one seed and a smoothed curve');
+  });
 });

@@ -36,6 +36,14 @@ describe('headlineFindings', () => {
     ]);
   });
 
+  it('says "k of m slices, after correction" when the hurts result was corrected across slices', () => {
+    const seg = { fixed: { width: 64, epochs: 1000, label_noise: 0.2, condition: '' }, onset: 16, peak: 64, recovery: 256, rise: 0.12, p: 0.001, pAdjusted: 0.004, test: 'welch' as const };
+    const hurts: HurtsResult = { metric: 'test_error', fixed: { epochs: 1000 }, segments: [seg], slices: 6, alpha: 0.05, correction: 'benjamini-hochberg', slicesWithRise: 1 };
+    const f = headlineFindings({ maps: [], hurts, coverage: null, plan: null });
+    expect(f[0]).toMatch(/^More data hurts in 1 of 6 train-size slices, after Benjamini–Hochberg correction\. Worst at width 64/);
+    expect(f[0]).toContain('(adjusted p = 0.004)');
+  });
+
   it('states coverage gaps and the plan when a spec is given', () => {
     const f = headlineFindings({
       maps: [],
@@ -58,6 +66,15 @@ describe('headlineFindings', () => {
     expect(c).toEqual([
       'model-wise map (label_noise 0.2 · train_size 64): the peak at epochs 100 is inside seed noise (prominence under 2 standard errors); do not read it as a peak.',
       "model-wise map (label_noise 0.2 · train_size 64): one seed per cell, so the peak interval at epochs 1000 comes from the curve's own noise, not from seeds.",
+    ]);
+  });
+
+  it('says when a peak rests on one seed and a smoothed curve', () => {
+    const v = structuredClone(reportModelFixture().maps[0].variants[1]);
+    v.ridge!.rows[2].noiseFrom = 'curve';
+    v.ridge!.rows[2].model = 'smoothed-curve';
+    expect(variantCautions(v, 'epoch')).toEqual([
+      'epoch-wise map (label_noise 0.2 · train_size 64): the peak at epochs 1000 rests on one value per point (one seed, or a mean without seed spread) and a smoothed curve; its interval is a bootstrap along the curve, not over seeds.',
     ]);
   });
 

@@ -45,6 +45,21 @@ describe('datlas simulate', () => {
     expect(rows.map((x) => [x.epochs, x.test_error, x.train_loss])).toEqual(curve.map((x) => [x.epochs, x.test_error, x.train_loss]));
   });
 
+  it('--eval-noise adds per-epoch noise to test error only (train error as without it)', () => {
+    const a = join(root, 'quiet');
+    const b = join(root, 'noisy');
+    expect(runCli(['simulate', ...SMALL, '--out', a, '--workers', '1', '--quiet']).code).toBe(0);
+    expect(runCli(['simulate', ...SMALL, '--out', b, '--workers', '1', '--quiet', '--eval-noise', '0.02']).code).toBe(0);
+    const read = (dir: string) => parseCsv(readFileSync(join(dir, readdirSync(dir).find((f) => f.endsWith('.csv'))!), 'utf8'));
+    const qa = read(a);
+    const qb = read(b);
+    expect(qb.length).toBe(qa.length);
+    const d = qa.map((r, i) => Number(qb[i].test_error) - Number(r.test_error));
+    const sd = Math.sqrt(d.reduce((s, v) => s + v * v, 0) / d.length);
+    expect(sd).toBeGreaterThan(0.01);
+    expect(qa.map((r) => r.train_error)).toEqual(qb.map((r) => r.train_error));
+  });
+
   it('writes one JSON Lines file per run for the linear preset, with sigma2, signal_in, signal_out', () => {
     const dir = join(root, 'lin');
     const r = runCli(['simulate', '--preset', 'linear', '--seeds', '2', '--widths', '10,30', '--train-sizes', '20', '--ridge', 'optimal', '--out', dir, '--shape', 'jsonl', '--quiet']);
@@ -77,6 +92,9 @@ describe('datlas simulate', () => {
         ['--ridge', 'optimal'],
         ['--preset', 'linear', '--ridge', '-1'],
         ['--preset', 'linear', '--label-noise', '0.1'],
+        ['--eval-noise', '-0.1'],
+        ['--eval-noise', 'x'],
+        ['--preset', 'linear', '--eval-noise', '0.01'],
       ]) {
         errors.length = 0;
         const code = await main(['simulate', ...args, '--out', join(root, 'never')]);
