@@ -1,4 +1,4 @@
-import { readdirSync, readFileSync, rmSync } from 'node:fs';
+import { readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { Ajv } from 'ajv';
 import type { ValidateFunction } from 'ajv';
@@ -76,6 +76,21 @@ describe('docs/schemas validate every --json output on the demo sweep', () => {
     check('ridge', cli(['ridge', '--kind', 'model', '--store', store, '--json', '--quiet']));
     check('ridge', cli(['ridge', '--kind', 'sample', '--store', store, '--json', '--quiet']));
     check('hurts', cli(['hurts', '--store', store, '--json']));
+  });
+
+  it('hurts with a segment (the demo has none after the correction across slices)', () => {
+    // The hand-made sample-wise sweep of test/cli/hurts.test.ts (invented numbers): at width 64
+    // error falls to n = 1,000, rises to 4,000, falls back by 16,000; three seeds at ±0.01.
+    const means = [0.5, 0.4, 0.3, 0.34, 0.37, 0.32, 0.28];
+    const sizes = [250, 500, 1000, 2000, 4000, 8000, 16000];
+    const lines = ['run,seed,width,epochs,train_size,test_error'];
+    sizes.forEach((n, i) => [-0.01, 0, 0.01].forEach((d, s) => lines.push(`n${n}s${s},${s},64,4000,${n},${(means[i] + d).toFixed(4)}`)));
+    writeFileSync(join(dir, 'hurts.csv'), `${lines.join('\n')}\n`);
+    const st = join(dir, 'hurts-store');
+    expect(runCli(['ingest', join(dir, 'hurts.csv'), '--store', st, '--quiet']).code).toBe(0);
+    const out = cli(['hurts', '--store', st, '--json']) as { segments: unknown[] };
+    expect(out.segments.length).toBeGreaterThan(0);
+    check('hurts', out);
   });
 
   it('coverage and plan against a spec with one train size not yet run', () => {
