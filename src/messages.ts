@@ -4,6 +4,8 @@
  * Messages are functions of the facts they report, and name file, line and field where they apply.
  */
 
+import { formatNumber } from './report/formatNumber.js';
+
 const fmtPath = (p: string) => (p === '-' ? 'stdin' : p);
 /** Counts and limits with thousands separators (8,388,608). */
 const big = (n: number) => n.toLocaleString('en-US');
@@ -12,13 +14,35 @@ const sci = (x: number) => (x !== 0 && (Math.abs(x) >= 1e6 || Math.abs(x) < 1e-3
 /** User text quoted inside a message, clipped (a 1 MB name must not become a 1 MB message). */
 const clipText = (t: string) => (t.length > 80 ? `${t.slice(0, 80)}…` : t);
 
+/** Why the tool chose a fixed value: most data, or (levels tied on data) the largest of them. */
+export const pickWhy = (tied: number | undefined): string => (tied && tied > 1 ? ` (largest of ${tied} levels with equal data)` : ' (most data)');
+
+/** "chosen by most data: epochs, label_noise (largest of 2 levels with equal data)". */
+export const pickedList = (names: string[], ties: Record<string, number> = {}): string =>
+  `chosen by most data: ${names.map((n) => (ties[n] && ties[n] > 1 ? `${n}${pickWhy(ties[n])}` : n)).join(', ')}`;
+
 // ── general / CLI ────────────────────────────────────────────────────────────
 export const general = {
-  unknownCommand: (name: string) => `unknown command '${name}'; run 'datlas --help' for the list`,
+  unknownCommand: (name: string, nearest: string | null = null) =>
+    `unknown command '${name}'${nearest ? ` (did you mean ${nearest}?)` : ''}; run 'datlas --help' for the list`,
+  unknownFlag: (flag: string, nearest: string) => `${flag} (did you mean --${nearest}?)`,
+  unexpectedWords: (words: string[]) => `unexpected argument${words.length === 1 ? '' : 's'}: ${words.map((w) => `'${w}'`).join(', ')} (this command takes options only)`,
+  unknownFlags: (parts: string[]) => `unknown option${parts.length === 1 ? '' : 's'}: ${parts.join(', ')}`,
   internal: (what: string) => `internal error: ${what} (run again with --debug for details and report it)`,
   badAt: (text: string) => `--at expects axis=value (e.g. --at width=64), got '${text}'`,
   badList: (flag: string, text: string) => `${flag} expects a comma-separated list of numbers, got '${text}'`,
   wroteFile: (path: string) => `wrote ${fmtPath(path)}`,
+  // A path of the wrong kind or state (a file where a folder is needed, ...): what and where.
+  notAFolder: (file: string, wanted: string) => `${file} is a file, not a folder${wanted !== file ? ` (needed as a folder for ${wanted})` : ''}; give a folder path`,
+  existsAsFile: (path: string) => `${path} exists and is a file, not a folder; give a folder path (or remove the file)`,
+  isAFolder: (path: string) => `${path} is a folder, not a file; give a file path`,
+  folderGiven: () => 'a folder was given where a file is needed; give a file path',
+  noAccess: (path: string) => `permission denied: ${path}`,
+  noSuchPath: (path: string) => `no such file or folder: ${path}`,
+  noSpace: (path: string) => `no space left on the device while writing ${path}`,
+  atTwice: (name: string, a: string, b: string) => `--at ${name} given twice (${a} and ${b}); give one value per axis`,
+  version: (name: string, version: string) => `${name} ${version}`,
+  commandList: 'name a command; the commands are:',
 };
 
 // ── ingest ───────────────────────────────────────────────────────────────────
@@ -56,6 +80,13 @@ export const ingestText = {
   badSeedFrom: (text: string, why: string) => `--seed-from is not a valid regular expression '${text}': ${why}`,
   badMappingFile: (path: string, why: string) => `--mapping ${path}: ${why}`,
   nothingFound: (paths: string) => `no readable logs found in ${paths}`,
+  nothingAccepted: (read: number, rejected: number, store: string) =>
+    read === 0
+      ? 'nothing to ingest: no rows in any source (see the notes above)'
+      : `nothing accepted from any source: ${rejected} of ${read} rows rejected (reasons above and in ${store}/rejected.csv)${rejected < read ? ', the rest pending or skipped' : ''}`,
+  gridSpecGiven: (path: string) =>
+    `${fmtPath(path)} is a grid spec (the planned sweep), not a run log: give it to --spec of coverage, plan or report`,
+  gridSpecSkipped: (path: string) => `${fmtPath(path)} is a grid spec, not a run log: left out (give it to --spec)`,
   strictFailed: (n: number) => `--strict: ${n} row${n === 1 ? '' : 's'} rejected, store left unchanged`,
   summary: (r: { read: number; accepted: number; duplicates: number; rejected: number; pending: number; skipped: number }) =>
     `read ${r.read} rows = ${r.accepted} accepted + ${r.duplicates} duplicates + ${r.rejected} rejected + ${r.pending} pending` +
@@ -132,6 +163,7 @@ export const ingestText = {
 // ── store ────────────────────────────────────────────────────────────────────
 export const storeText = {
   noStore: (dir: string) => `no store at ${dir} (run datlas ingest first)`,
+  empty: (dir: string) => `the store is empty: ${dir} holds no accepted rows (ingest run logs first; rejected rows are listed in ${dir}/rejected.csv)`,
   notAStore: (dir: string) => `${dir} holds a manifest.json that is not a datlas store`,
   badManifest: (dir: string, why: string) => `store ${dir}: manifest.json is not readable: ${why}`,
   badRows: (dir: string, why: string) => `store ${dir}: rows.arrow is not readable: ${why}`,
@@ -182,8 +214,13 @@ export const mapMessages = {
   atOnMapAxis: (name: string) => `--at fixes '${name}', but '${name}' is an axis of this map; drop it or choose other axes`,
   atUnknown: (name: string, allowed: readonly string[]) => `--at names '${name}', which is not one of ${allowed.join(', ')}`,
   atNotNumber: (name: string, value: string) => `--at ${name}=${value}: ${name} takes a number`,
-  atValueAbsent: (name: string, value: number | string, available: readonly (number | string)[]) =>
-    `no rows with ${name}=${value}; values present: ${available.slice(0, 20).join(', ')}${available.length > 20 ? ', ...' : ''}`,
+  atValueAbsent: (name: string, value: number | string, available: readonly (number | string)[]) => {
+    if (available.length === 0) return `no rows with ${name}=${value}: no row has any ${name} value`;
+    if (available.every((v) => v === '')) return `no rows with ${name}=${value}: this sweep has no ${name}s (every run's ${name} is empty); drop --at ${name}`;
+    const sorted = [...available].sort((a, b) => (typeof a === 'number' && typeof b === 'number' ? a - b : String(a) < String(b) ? -1 : 1));
+    const shown = sorted.slice(0, 20).map((v) => (typeof v === 'number' ? formatNumber(v, 6) : v === '' ? '"" (none)' : JSON.stringify(v)));
+    return `no rows with ${name}=${value}; values present: ${shown.join(', ')}${available.length > 20 ? `, … (${available.length} values)` : ''}`;
+  },
   noMetric: (metric: string) => `no row has a finite ${metric}${metric === 'test_error' ? ' (try --metric test_loss)' : ''}`,
   noCells: (fixed: string) => `no measured cells at ${fixed} (runs may end before that epoch; they are never extrapolated)`,
   tooFewCells: (n: number, x: string, y: string) => `only ${n} measured cell(s) over ${x} × ${y}: a map needs at least 2 (3 not on one line for a 2-D field)`,
@@ -191,7 +228,7 @@ export const mapMessages = {
   noMethodWorked: (why: string) => `no interpolation method worked on this map: ${why}`,
   badRaster: (text: string) => `--raster expects NXxNY (e.g. 256x256) with sizes 2..2048, got '${text}'`,
   badFormat: (text: string, allowed: readonly string[]) => `--format '${text}' is not available; choose from ${allowed.join(', ')}`,
-  badScale: (text: string) => `--scale expects axis=log2|linear (e.g. --scale width=linear), got '${text}'`,
+  badScale: (text: string) => `--axis-scale expects axis=log2|linear (e.g. --axis-scale width=linear), got '${text}'`,
   droppedNonPositive: (axis: string, n: number) => `${n} cell(s) at ${axis} <= 0 left out of the log2 ${axis} axis`,
   epochsThinned: (logged: number, used: number) => `runs logged ${logged} distinct epochs; the map uses ${used} of them (every run aligned to them along its own curve)`,
   oneSeedCells: (n: number) => `${n} cell(s) have one seed: no interval there`,
@@ -204,13 +241,8 @@ export const mapMessages = {
 
 
 // ── analysis (ridge, threshold, hurts) ───────────────────────────────────────
-/** Numbers as a reader wants them: sizes with thousands separators, errors with 3 significant digits. */
-const fmtNum = (v: number): string => {
-  if (!Number.isFinite(v)) return String(v);
-  if (Number.isInteger(v) && Math.abs(v) >= 1000) return v.toLocaleString('en-US');
-  const r = Number(v.toPrecision(3));
-  return Math.abs(r) >= 1000 ? Math.round(r).toLocaleString('en-US') : String(r);
-};
+/** Numbers as everywhere else in the tool (src/report/formatNumber.ts). */
+const fmtNum = (v: number): string => formatNumber(v);
 /** An interpolated size: two significant digits, because that is all the grid supports. */
 const fmtApprox = (v: number): string => fmtNum(Number(v.toPrecision(2)));
 const fmtP = (p: number): string => (p < 0.001 ? 'p < 0.001' : `p = ${Number(p.toPrecision(2))}`);
@@ -232,8 +264,8 @@ export const analysisText = {
     `no cells with a finite metric at ${fmtFixed(fixed) || 'the chosen values'}; check --at against the sweep's values`,
   ridgeHeader: (kind: string, metric: string, x: string, y: string, fixed: Record<string, number | string>) =>
     `ridge of the ${kind} map: ${metricName(metric)} peak along ${x}, per ${y}` + (Object.keys(fixed).length ? ` (${fmtFixed(fixed)})` : ''),
-  picked: (names: string[], fixed: Record<string, number | string>) =>
-    `picked ${names.map((n) => `${n}=${fixed[n]}`).join(', ')} (most data); set --at to choose`,
+  picked: (names: string[], fixed: Record<string, number | string>, ties: Record<string, number> = {}) =>
+    `picked ${names.map((n) => `${n}=${typeof fixed[n] === 'number' ? fmtNum(fixed[n] as number) : fixed[n]}${pickWhy(ties[n])}`).join(', ')}; set --at to choose`,
   ridgePeak: (o: { y: string; yv: number; x: string; px: number; low: number; high: number; level: number; metric: string; error: number; prominence: number; z: number }) =>
     `${o.y} ${fmtNum(o.yv)}: peak at ${o.x} ≈ ${fmtApprox(o.px)} (${Math.round(o.level * 100)}% interval ${fmtApprox(o.low)}–${fmtApprox(o.high)}), ` +
     `${metricName(o.metric)} ${fmtNum(o.error)}, ${fmtNum(o.prominence)} above the dip (${fmtNum(o.z)} SE)`,
@@ -297,12 +329,16 @@ export const render = {
     raster ? `×: missing cell, no finished run; its colour is interpolated (${n})` : `grey ×: missing cell, no finished run (${n})`,
   keyDiverged: (n: number) => `triangle: cell with diverged run(s), left out of the mean (${n})`,
   keyRidge: (from: string) => `ridge: error peak in each row; whiskers: its location interval (${from}); gap: no significant peak`,
-  keyThreshold: (x: string, eps: string, dots: boolean) =>
-    `dashed: interpolation threshold, smallest ${x} with mean train error ≤ ${eps}${dots ? ' (square: a row whose neighbours have none)' : ''}`,
+  keyThreshold: (x: string, eps: string, dots: boolean, largest = false, atEdge = 0, edge = '') =>
+    `dashed: interpolation threshold, ${largest ? 'largest' : 'smallest'} ${x} with mean train error ≤ ${eps}${dots ? ' (square: a row whose neighbours have none)' : ''}` +
+    (atEdge ? `; in ${atEdge} row${atEdge === 1 ? '' : 's'} it lies at or beyond the sweep's edge (${largest ? '≥' : '≤'} ${edge}): not drawn` : ''),
+  keyThresholdEdgeOnly: (x: string, eps: string, largest: boolean, rows: number, edge: string) =>
+    `interpolation threshold (${largest ? 'largest' : 'smallest'} ${x} with mean train error ≤ ${eps}): at or beyond the sweep's edge in ${rows} row${rows === 1 ? '' : 's'} (${largest ? '≥' : '≤'} ${edge}), not drawn`,
   keySlicesBand: (diverged: boolean, peaks: boolean) =>
     `band: 95% Student-t interval of the mean over seeds${peaks ? ' · ◆ ridge peak with its location interval' : ''}${diverged ? ' · △ cell with diverged run(s)' : ''}`,
   warnNoRidge: 'ridge not computed: no peak or threshold drawn',
   warnNoPeak: (k: number) => `no significant peak in any row (prominence ≥ ${k} standard errors): no ridge drawn`,
+  warnPeaksNotShown: (y: string, ys: string) => `no significant peak in the rows shown; the peaks are at ${y} ${ys}`,
   warnWeakPeaks: (where: string, k: number) => `not significant (prominence < ${k} standard errors): peak at ${where}`,
   keySmoothed: 'thick pale line: the curve smoothed on the log axis, on which the peak was found (points: logged values)',
   warnSmoothed: (where: string) =>
@@ -325,16 +361,18 @@ export const planText = {
   specInvalid: (file: string, line: number | null, key: string, problem: string) =>
     `${fmtPath(file)}${line === null ? '' : ` line ${line}`}: ${key}: ${problem}`,
   specRequired: () => 'is required',
-  specUnknownKey: (known: string[]) => `unknown key (expected one of: ${known.join(', ')})`,
+  specUnknownKey: (key: string, parent: string, nearest: string | null, known: string[]) =>
+    `unknown key '${key}'${parent ? ` in ${parent}` : ''} ${nearest ? `(did you mean ${nearest}?)` : `(expected one of: ${known.join(', ')})`}`,
+  specUnknown: (file: string, line: number | null, problem: string) => `${fmtPath(file)}${line === null ? '' : ` line ${line}`}: ${problem}`,
   specLogNonPositive: () => 'log spacing needs values > 0 (use spacing: linear)',
   specMissing: (file: string) => `no spec file at ${fmtPath(file)} (write an example with: datlas plan --init ${file})`,
-  specFlagNeeded: () => '--spec FILE is required (write an example with: datlas plan --init sweep.yaml)',
+  specFlagNeeded: () => '--spec FILE is required (write an example with: datlas plan --init grid.yaml)',
   badPlaceholder: (name: string, known: string[]) => `--command: unknown placeholder {${name}} (known: ${known.map((k) => `{${k}}`).join(' ')})`,
   slurmEmpty: () => 'the plan is empty: nothing to put in a Slurm array',
   slurmLineBreak: (value: string) => `value ${JSON.stringify(value)} contains a line break; the Slurm array reads one CSV line per run`,
   whyGap: (status: string, epochAt: number | null, targetEpochs: number, resumed: boolean) => {
-    const epoch = epochAt === null ? '?' : epochAt.toLocaleString('en-US');
-    const target = targetEpochs.toLocaleString('en-US');
+    const epoch = epochAt === null ? '?' : formatNumber(epochAt);
+    const target = formatNumber(targetEpochs);
     return status === 'missing'
       ? 'not in the store'
       : status === 'diverged'
@@ -350,7 +388,7 @@ export const planText = {
   whyPeakSeeds: (where: string, x: string, se: number, min: number) =>
     `peak at width ${x} (${where}) is borderline: prominence ${se.toFixed(1)} SE, minimum ${min}`,
   whyHurtsSeeds: (where: string, onset: string, peak: string, p: number, alpha: number) =>
-    `more data hurts from n ${onset} to ${peak} (${where}) is borderline: p = ${p.toPrecision(2)}, alpha ${alpha}`,
+    `more data hurts from n ${onset} to ${peak} (${where}) is borderline: p = ${formatNumber(p, 2)}, alpha ${alpha}`,
   noteNoRidge: () => 'no ridge point along width resolved at the target epoch in any slice',
   noteDivergedRerun: (n: number) => `${n} diverged run${n === 1 ? '' : 's'} re-launched with the same seed (a deterministic run may diverge again: check the learning rate; --skip-diverged leaves them out)`,
   noteDivergedSkipped: (n: number) => `${n} diverged run${n === 1 ? '' : 's'} left out (--skip-diverged)`,
@@ -374,6 +412,7 @@ export const planText = {
   planHead: (n: number, cost: string, units: string) => `${n} run${n === 1 ? '' : 's'} planned, total cost ${cost}${units ? ` ${units}` : ''}`,
   planDropped: (n: number, cost: string, budget: string) => `${n} more run${n === 1 ? '' : 's'} (cost ${cost}) left out by --budget ${budget}`,
   planEmpty: () => 'nothing to run: every planned run is complete and no refinement is proposed',
+  planNoneFits: (budget: string) => `no run fits --budget ${budget}: the cheapest proposed run costs more (see below)`,
   modelFitted: (a: string, aSe: string | null, runs: number, c: string, spread: string | null) =>
     `cost model: seconds = c · width^a · train_size · epochs, a = ${a}${aSe ? ` ± ${aSe}` : ''}, c = ${c} (least squares in log space over ${runs} runs' wall time${spread ? `; a run's cost is typically off by ×${spread}` : ''})`,
   modelWidthOnly: (runs: number, c: string) =>
@@ -387,6 +426,17 @@ export const planText = {
   extraWidthsHint: (n: number) => `${n} of the extra runs sit at widths outside the spec (e.g. from refinement): add those widths to the spec to track them`,
   extraSeedsHint: (n: number, store: string, spec: string) =>
     `${n} of the extra runs differ from the spec only in their seed id (store seeds ${store}; spec seeds ${spec}): list the ids in the spec, e.g. seeds: [${store}]`,
+  templateDropsSettings: (missing: { name: string; values: string[] }[], duplicates: number, runs: number) => {
+    const what = missing
+      .map((m) => `{${m.name}} (${m.values.slice(0, 4).join(', ')}${m.values.length > 4 ? `, … ${m.values.length} values` : ''})`)
+      .join(', ');
+    return (
+      `--command leaves out ${what}, which ${missing.length === 1 ? 'varies' : 'vary'} among the ${runs} planned runs` +
+      `${duplicates ? `: ${duplicates} command${duplicates === 1 ? ' repeats' : 's repeat'} an earlier one (the same job launched twice)` : ': the jobs could not tell those runs apart'}. ` +
+      `Add ${missing.map((m) => `{${m.name}}`).join(' ')} to the template, or pass --allow-collapse to launch each distinct command once`
+    );
+  },
+  collapsedRuns: (n: number) => `--allow-collapse: ${n} run${n === 1 ? '' : 's'} left out of the export (same command as an earlier run)`,
   refinePeaks: (n: number, sig: number) => `analyses at the target epoch: ${n} ridge point${n === 1 ? '' : 's'} along width (${sig} significant)`,
 };
 
@@ -457,7 +507,7 @@ export const report = {
   heavyTail: (m: string) =>
     `The ${m} is a mean of squared errors, heavy-tailed near the interpolation threshold: one seed can dominate a cell's mean there, so check the seeds in the read-outs before trusting a peak's height.`,
   coverageFigure: 'The planned grid: each cell coloured by the share of its planned seeds complete, labelled done/planned (p: partial, d: diverged).',
-  badScale: (text: string) => `--scale expects a pixel ratio between 0 and 8 (e.g. 1 or 2), got '${text}'`,
+  badScale: (text: string) => `--png-scale expects a pixel ratio between 0 and 8 (e.g. 1 or 2), got '${text}'`,
   chosenPeaks: 'of the fixed values offered, the ones whose map has the most significant peaks',
   hurtsFigure:
     'Test error along train size at the widths where more data hurts most (mean over seeds, band: 95% interval; dashed: train error).',

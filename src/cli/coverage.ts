@@ -1,10 +1,11 @@
-import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, extname } from 'node:path';
 import type { Argv } from 'yargs';
 import type { CommandSpec } from './CommandSpec.js';
 import { UserError, usageError } from '../UserError.js';
 import { general, planText } from '../messages.js';
 import type { RowTable } from '../store/RowTable.js';
+import { formatNumber } from '../report/formatNumber.js';
 import type { SweepSpec } from '../plan/SweepSpec.js';
 
 interface CoverageArgs {
@@ -24,6 +25,7 @@ export async function loadSpec(file: string | undefined): Promise<SweepSpec> {
   if (file === '-') text = readFileSync(0, 'utf8');
   else {
     if (!existsSync(file)) throw new UserError(planText.specMissing(file));
+    if (statSync(file).isDirectory()) throw usageError(general.isAFolder(file));
     text = readFileSync(file, 'utf8');
   }
   return parseSpec(text, file);
@@ -44,7 +46,7 @@ export async function loadStore(opts: { store?: string; emptyIfAbsent: boolean; 
   return (await readStore(dir)).table;
 }
 
-const num = (v: number) => v.toLocaleString('en-US', { maximumFractionDigits: 6 });
+const num = (v: number) => formatNumber(v, 4);
 
 /** Writes a file, creating its folder. */
 export function writeOut(path: string, data: string | Buffer): void {
@@ -56,10 +58,10 @@ export function writeOut(path: string, data: string | Buffer): void {
 export const command: CommandSpec<CoverageArgs> = {
   usage: 'coverage',
   describe: 'which planned runs are complete, partial, missing or diverged',
-  example: ['coverage --spec sweep.yaml --out coverage.png', 'list the gaps of the sweep and draw the width × train-size grid'],
+  example: ['coverage --spec grid.yaml --out coverage.png', 'list the gaps of the sweep and draw the width × train-size grid'],
   builder: (y: Argv) =>
     y
-      .option('spec', { type: 'string', describe: 'sweep spec (YAML or JSON; write one with datlas plan --init)' })
+      .option('spec', { type: 'string', describe: 'grid spec (YAML or JSON; write one with datlas plan --init)' })
       .option('store', { type: 'string', describe: `store directory (default ./${DEFAULT_STORE})` })
       .option('out', { type: 'string', describe: 'coverage image (.png, .svg or .pdf; its vega-lite spec is written beside)' })
       .option('limit', { type: 'number', default: 30, describe: 'gap lines to print (0 = all)' }),

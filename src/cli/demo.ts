@@ -3,6 +3,7 @@ import { availableParallelism } from 'node:os';
 import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Argv } from 'yargs';
+import { packageRoot } from './packageInfo.js';
 import type { CommandSpec } from './CommandSpec.js';
 import { UserError } from '../UserError.js';
 import { report as msg } from '../messages.js';
@@ -19,17 +20,6 @@ export const DEMO_SWEEP = 'sample-sweeps/demo';
 export const PLANNED_EXTRA_TRAIN_SIZE = 1024;
 
 /** The package root: the nearest folder up from this module with our package.json (works from src/ and dist/). */
-function packageRoot(): string {
-  let dir = dirname(fileURLToPath(import.meta.url));
-  for (;;) {
-    const pkg = join(dir, 'package.json');
-    if (existsSync(pkg) && /"name":\s*"descent-atlas"/.test(readFileSync(pkg, 'utf8'))) return dir;
-    const up = dirname(dir);
-    if (up === dir) return resolve(dirname(fileURLToPath(import.meta.url)), '../..');
-    dir = up;
-  }
-}
-
 function distinct(col: Float64Array): number[] {
   return [...new Set(col)].filter((v) => Number.isFinite(v)).sort((a, b) => a - b);
 }
@@ -38,6 +28,9 @@ function distinct(col: Float64Array): number[] {
  * The demo's spec: the axes the sweep ran, plus one larger train size whose runs were planned
  * but not launched yet (so coverage and plan have gaps to show). YAML, as a user would write it.
  */
+/** How a spec written by the demo begins (older versions used the words "sweep spec"). */
+const DEMO_SPEC_HEAD = '# Demo ';
+
 export function demoSpec(table: RowTable): string {
   const widths = distinct(table.width);
   const sizes = distinct(table.train_size);
@@ -46,7 +39,7 @@ export function demoSpec(table: RowTable): string {
   const epochs = Math.max(...distinct(table.epochs));
   const planned = [...sizes, PLANNED_EXTRA_TRAIN_SIZE].filter((v, i, a) => a.indexOf(v) === i).sort((a, b) => a - b);
   return [
-    '# Demo sweep spec written by `datlas demo`: the axes the simulated sweep ran, plus train size',
+    '# Demo grid spec written by `datlas demo`: the axes the simulated sweep ran, plus train size',
     `# ${PLANNED_EXTRA_TRAIN_SIZE}, planned but not run yet, so coverage and plan have gaps to show.`,
     'name: demo-random-features',
     'axes:',
@@ -115,8 +108,11 @@ export const command: CommandSpec<DemoArgs> = {
     const { table, manifest } = await readStore(store);
 
     // 3. The spec, with planned runs still missing.
-    const specPath = join(out, 'sweep.yaml');
+    const specPath = join(out, 'grid.yaml');
     writeFileSync(specPath, demoSpec(table));
+    // Earlier versions wrote the spec as sweep.yaml: remove that file when it is the demo's own.
+    const oldSpec = join(out, 'sweep.yaml');
+    if (existsSync(oldSpec) && readFileSync(oldSpec, 'utf8').startsWith(DEMO_SPEC_HEAD)) rmSync(oldSpec);
     const { parseSpec } = await import('../plan/parseSpec.js');
     const spec = parseSpec(readFileSync(specPath, 'utf8'), specPath);
 

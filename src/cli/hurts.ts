@@ -58,6 +58,7 @@ export const command: CommandSpec<HurtsArgs> = {
     const { findHurts } = await import('../analysis/findHurts.js');
     const { defaultMetric } = await import('../store/RowTable.js');
     const { table } = await readStore(args.store);
+    (await import('../store/assertRows.js')).assertRows(table, args.store);
     const metric = args.metric ?? defaultMetric(table);
     // A fixed epoch budget need not be logged exactly: runs are aligned to it along their own curves.
     const epochs = typeof at.epochs === 'number' ? [at.epochs] : undefined;

@@ -1,4 +1,4 @@
-import { existsSync, readFileSync } from 'node:fs';
+import { existsSync, readFileSync, statSync } from 'node:fs';
 import type { Argv } from 'yargs';
 import type { CommandSpec } from './CommandSpec.js';
 import { progressBar } from './progress.js';
@@ -32,6 +32,21 @@ const MAP_TARGETS = ['run', 'seed', 'width', 'epochs', 'train_size', 'label_nois
   'train_loss', 'test_accuracy', 'train_accuracy', 'wall_seconds', 'status', 'condition', 'params'];
 const NUMERIC_SET = ['seed', 'width', 'epochs', 'train_size', 'label_noise', 'wall_seconds', 'params'];
 const SCALE_TARGETS = ['test_error', 'train_error', 'test_accuracy', 'train_accuracy', 'label_noise'];
+
+/** The named YAML/JSON files that are grid specs, not logs (read only when the name could be one). */
+async function specFiles(paths: string[]): Promise<string[]> {
+  const named = paths.filter((p) => p !== '-' && /\.(ya?ml|json)$/i.test(p));
+  if (named.length === 0) return [];
+  const { isGridSpec } = await import('../plan/isGridSpec.js');
+  return named.filter((p) => {
+    try {
+      const st = statSync(p);
+      return st.isFile() && st.size < 1 << 20 && isGridSpec(readFileSync(p, 'utf8'));
+    } catch {
+      return false;
+    }
+  });
+}
 
 function pairs(values: string[] | undefined, bad: (t: string) => string): [string, string][] {
   return (values ?? []).flatMap((v) => String(v).split(/,(?=[^,=]+=)/)).map((text) => {
@@ -133,8 +148,13 @@ export const command: CommandSpec<IngestArgs> = {
       keys = String(args.keys).split(',').map((k) => k.trim());
       if (keys.some((k) => k === '' || /[=\s]/.test(k))) throw usageError(layoutText.badKeys(String(args.keys)));
     }
-    const paths = [...(args.paths ?? []).map(String), ...stray];
-    if (paths.length === 0) throw usageError(ingestText.noPaths);
+    const given = [...(args.paths ?? []).map(String), ...stray];
+    if (given.length === 0) throw usageError(ingestText.noPaths);
+    // A grid spec named as a log would be read as a table of odd lines: say what it is instead.
+    const specs = await specFiles(given);
+    if (specs.length === given.length) throw new UserError(ingestText.gridSpecGiven(specs[0]));
+    for (const s of specs) if (!args.quiet) process.stderr.write(`note: ${ingestText.gridSpecSkipped(s)}\n`);
+    const paths = given.filter((p) => !specs.includes(p));
 
     // Never a silent wait: `-` with nothing piped in reads what is typed.
     if (paths.includes('-') && process.stdin.isTTY && !args.quiet) process.stderr.write(`${ingestText.stdinTerminal}\n`);
@@ -151,7 +171,7 @@ export const command: CommandSpec<IngestArgs> = {
       keys,
       condition: args.condition,
       limits,
-      progress: (total) => progressBar({ label: 'ingest', total, quiet: args.quiet, minTotal: 300 }),
+      progress: (total) => progressBar({ label: 'ingest', total, quiet: args.quiet, minTotal: 300, stage: 'reading logs' }),
     });
     const err = (line: string) => {
       if (!args.quiet) process.stderr.write(`${line}\n`);
@@ -184,6 +204,9 @@ export const command: CommandSpec<IngestArgs> = {
       const first = r.rejects.find((x) => x.line === 0) ?? r.rejects[0];
       throw new UserError(ingestText.nothingReadWhy(r.failed, first ? `${first.source === '-' ? 'stdin' : first.source}: ${first.reason}` : ''));
     }
+    // Sources were read but not one row was taken: the work failed (a folder of reports, a spec).
+    if (r.unchanged < r.sources && r.accepted === 0 && r.duplicates === 0 && r.displaced === 0)
+      throw new UserError(ingestText.nothingAccepted(r.read, r.rejected, args.store));
     return 0;
   },
 };

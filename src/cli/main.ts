@@ -3,6 +3,8 @@ import type { Argv } from 'yargs';
 import { UserError, usageError } from '../UserError.js';
 import { general } from '../messages.js';
 import type { CommandSpec } from './CommandSpec.js';
+import { fsErrorText } from './fsErrorText.js';
+import { nearestName } from '../nearestName.js';
 import { guardOutput } from './terminalSafe.js';
 
 /**
@@ -60,6 +62,34 @@ function base(args: string[]): Argv {
     .wrap(wantsHelp ? Math.min(100, process.stdout.columns || 100) : null);
 }
 
+/** The option names a parsed command knows (yargs' own list, kebab-case spellings and aliases). */
+function knownFlags(y: unknown): string[] {
+  // yargs' instance method (not in its type declarations): the options of the command being parsed.
+  const o = (y as { getOptions?: () => { key?: Record<string, unknown>; alias?: Record<string, string[]>; hiddenOptions?: string[] } }).getOptions?.();
+  if (!o?.key) return [];
+  // Hidden options and aliases (old spellings) are never suggested: the canonical name is.
+  const skip = new Set([...(o.hiddenOptions ?? []), ...Object.values(o.alias ?? {}).flat(), 'version', '$0']);
+  return Object.keys(o.key).filter((k) => !skip.has(k) && !/[A-Z]/.test(k));
+}
+
+/** yargs' "Unknown argument(s): a, b" with the nearest known flag for each, when one is near. */
+function suggestFlags(msg: string, y: unknown, args: string[]): string {
+  const m = /^Unknown arguments?: (.+)$/.exec(msg.trim());
+  if (!m) return msg;
+  const known = knownFlags(y);
+  const names = m[1].split(', ');
+  // A stray word (not an option) is named as typed, with nothing to suggest.
+  const words = names.filter((a) => args.includes(a));
+  const parts = names
+    .filter((a) => !words.includes(a))
+    .map((a) => {
+      const dash = args.includes(`-${a}`) ? '-' : '--';
+      const near = nearestName(a, known);
+      return near ? general.unknownFlag(`${dash}${a}`, near) : `${dash}${a}`;
+    });
+  return [parts.length ? general.unknownFlags(parts) : '', words.length ? general.unexpectedWords(words) : ''].filter(Boolean).join('; ');
+}
+
 /**
  * `-` (stdin, DESIGN.md §6) as yargs would drop it: its parser reads a lone `-` as an empty group
  * of short flags, so `ingest -` got no path and `--spec -` an unknown argument. It crosses the
@@ -85,18 +115,25 @@ export async function main(argsGiven: string[]): Promise<number> {
 
 async function runMain(argsGiven: string[]): Promise<number> {
   const end = argsGiven.indexOf('--');
-  const args = argsGiven.map((a, i) => (a === '-' && (end < 0 || i < end) ? DASH : a));
+  let args = argsGiven.map((a, i) => (a === '-' && (end < 0 || i < end) ? DASH : a));
   const debug = args.includes('--debug');
   const name = args.find((a) => !a.startsWith('-'));
+  // `datlas` alone: the command list (the help), not an error.
+  if (args.length === 0) args = ['--help'];
+  if (!name && (args.includes('--version') || args.includes('-v'))) {
+    const { packageVersion } = await import('./packageInfo.js');
+    process.stdout.write(`${general.version('datlas', packageVersion())}\n`);
+    return 0;
+  }
   let failure: { message: string; code: number } | null = null;
   let code = 0;
   try {
     // A usage error must stop yargs before any handler runs: returning from fail() lets it go on.
-    let y = base(args).fail((msg, err) => {
+    let y: Argv = base(args).fail((msg, err) => {
       if (err) throw err;
-      const text = String(msg).split(DASH).join('-');
+      const text = suggestFlags(String(msg).split(DASH).join('-').replace(/\s*\n\s*/g, ' '), y, args);
       failure = { message: text, code: 2 };
-      throw usageError(text.replace(/\s*\n\s*/g, ' '));
+      throw usageError(text);
     });
     if (name && COMMANDS[name]) {
       const { command } = await COMMANDS[name].load();
@@ -110,9 +147,9 @@ async function runMain(argsGiven: string[]): Promise<number> {
       );
     } else {
       for (const [cmd, { describe }] of Object.entries(COMMANDS)) y = y.command(cmd, describe);
-      y = y.demandCommand(1, 'name a command');
+      y = y.demandCommand(1, `${general.commandList} ${Object.keys(COMMANDS).join(', ')}`);
       if (name) {
-        process.stderr.write(`datlas: ${general.unknownCommand(name)}\n`);
+        process.stderr.write(`datlas: ${general.unknownCommand(name, nearestName(name, Object.keys(COMMANDS)))}\n`);
         return 2;
       }
     }
@@ -129,6 +166,12 @@ async function runMain(argsGiven: string[]): Promise<number> {
       return err.exitCode;
     }
     const e = err as Error;
+    const fsText = fsErrorText(err);
+    if (fsText) {
+      process.stderr.write(`datlas: ${fsText}\n`);
+      if (debug && e?.stack) process.stderr.write(`${e.stack}\n`);
+      return 1;
+    }
     process.stderr.write(`datlas: ${general.internal(e?.message ?? String(err))}\n`);
     if (debug && e?.stack) process.stderr.write(`${e.stack}\n`);
     return 1;

@@ -1,9 +1,10 @@
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Argv } from 'yargs';
+import { formatNumber } from '../report/formatNumber.js';
 import type { CommandSpec } from './CommandSpec.js';
 import { parseAt } from './parseAt.js';
-import { mapMessages as msg, render as renderMsg } from '../messages.js';
+import { mapMessages as msg, pickWhy, render as renderMsg } from '../messages.js';
 import { usageError } from '../UserError.js';
 import type { Metric } from '../store/RowTable.js';
 import type { AxisScale, MapKind, MethodName, SweepMap } from '../grid/SweepMap.js';
@@ -22,6 +23,8 @@ interface MapArgs {
   facet?: 'label_noise' | 'condition';
   colors: ColorScheme;
   'png-scale': number;
+  'axis-scale'?: string[];
+  /** Old spelling of --axis-scale (hidden). */
   scale?: string[];
   store: string;
   out: string;
@@ -60,13 +63,13 @@ function parseScales(values: string[] | undefined): Record<string, AxisScale> {
   return out;
 }
 
-const fmt = (v: number) => (Number.isFinite(v) ? (Math.abs(v) >= 1000 || Number.isInteger(v) ? String(v) : v.toPrecision(3)) : 'n/a');
+const fmt = (v: number) => formatNumber(v);
 
 /** Human summary of a map: axes, fixed values (and which were picked), method and LOO error, cell counts. */
 function summary(map: SweepMap, ridgeRows: { total: number; withPeak: number } | null, files: string[]): string[] {
   const axis = (a: SweepMap['x']) => `${a.name} (${a.scale}, ${a.values.length} value${a.values.length === 1 ? '' : 's'} ${fmt(a.values[0])}..${fmt(a.values[a.values.length - 1])})`;
   const lines = [`map ${map.kind}: ${map.metric} over ${axis(map.x)} × ${axis(map.y)}`];
-  const fixed = Object.entries(map.fixed).map(([k, v]) => `${k}=${v === '' ? '""' : v}${map.picked.includes(k) ? ' (picked: most data)' : ''}`);
+  const fixed = Object.entries(map.fixed).map(([k, v]) => `${k}=${v === '' ? '""' : typeof v === 'number' ? fmt(v) : v}${map.picked.includes(k) ? ` (picked: ${pickWhy(map.pickedTies?.[k]).slice(2)}` : ''}`);
   lines.push(`fixed: ${fixed.join(', ') || 'nothing'}`);
   const tried = Object.entries(map.loo.tried).map(([m, r]) => `${m} ${fmt(r)}`).join(', ');
   lines.push(`method: ${map.method}, leave-one-out RMSE ${fmt(map.loo.rmse)} over ${map.loo.points ?? 0} cells (tried: ${tried})`);
@@ -101,7 +104,8 @@ export const command: CommandSpec<MapArgs> = {
       .option('facet', { choices: ['label_noise', 'condition'], describe: 'images: one panel per label noise level or condition, sharing scales and colours' })
       .option('colors', { choices: [...COLOR_SCHEMES], default: DEFAULT_COLOR_SCHEME, describe: 'perceptually uniform colour scheme of the images' })
       .option('png-scale', { type: 'number', default: 2, describe: 'pixel ratio of PNG images (2 = crisp on slides)' })
-      .option('scale', { type: 'string', array: true, describe: 'axis=log2|linear, overriding the detected axis scale' })
+      .option('axis-scale', { type: 'string', array: true, describe: 'axis=log2|linear, overriding the detected axis scale' })
+      .option('scale', { type: 'string', array: true, hidden: true, describe: 'old spelling of --axis-scale' })
       .option('ridge', { type: 'boolean', default: true, describe: 'also locate the double-descent ridge and put it in the file (--no-ridge skips)' })
       .option('store', { type: 'string', default: 'atlas-store', describe: 'store directory' })
       .option('out', { type: 'string', default: '.', describe: 'directory the map files go to' })
@@ -113,12 +117,13 @@ export const command: CommandSpec<MapArgs> = {
     if (!isColorScheme(String(args.colors))) throw usageError(renderMsg.badColors(String(args.colors), COLOR_SCHEMES));
     if (!(args['png-scale'] > 0 && args['png-scale'] <= 8)) throw usageError(renderMsg.badPngScale(String(args['png-scale'])));
     const at = parseAt(args.at);
-    const scales = parseScales(args.scale);
+    const scales = parseScales([...(args['axis-scale'] ?? []), ...(args.scale ?? [])]);
     const { readStore } = await import('../store/readStore.js');
     const { buildMap } = await import('../grid/buildMap.js');
     const { mapToJson } = await import('../grid/mapJson.js');
     const { axisSource } = await import('../ingest/axisSource.js');
     const { table, manifest } = await readStore(args.store);
+    (await import('../store/assertRows.js')).assertRows(table, args.store);
     const named = <M extends { x: { name: string; source?: string }; y: { name: string; source?: string } }>(m: M): M => {
       m.x.source = axisSource(manifest, m.x.name);
       m.y.source = axisSource(manifest, m.y.name);

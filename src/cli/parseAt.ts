@@ -1,11 +1,14 @@
 import { general } from '../messages.js';
 import { usageError } from '../UserError.js';
 
-const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+const NUMBER = /^([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)([kMG]?)$/;
+/** SI suffixes as the tool prints large numbers (formatNumber: 100k, 1M), read back. */
+const SI: Record<string, number> = { '': 1, k: 1e3, M: 1e6, G: 1e9 };
 
 /**
  * --at values into {name: value}: `--at width=64 --at label_noise=0.2` or `--at width=64,epochs=1000`.
- * Numbers become numbers, anything else stays a string (condition names). A comma followed by
+ * Numbers become numbers (with the SI suffixes k, M, G the tool prints: epochs=1M), anything else
+ * stays a string (condition names). A comma followed by
  * text without `=` stays inside the value, so a condition may contain commas.
  */
 export function parseAt(values: string[] | undefined): Record<string, number | string> {
@@ -16,8 +19,10 @@ export function parseAt(values: string[] | undefined): Record<string, number | s
       const name = text.slice(0, eq).trim();
       const valueText = text.slice(eq + 1).trim();
       if (eq <= 0 || name === '' || valueText === '') throw usageError(general.badAt(text));
-      const value = NUMBER.test(valueText) ? Number(valueText) : valueText;
-      if (name in out && out[name] !== value) throw usageError(general.badAt(`${text} (${name} given twice)`));
+      const m = NUMBER.exec(valueText);
+      // 1.5k * 1000 in binary floating point is 1500 exactly for such short decimals; round to 12 digits all the same.
+      const value = m ? Number((Number(m[1]) * SI[m[2]]).toPrecision(12)) : valueText;
+      if (name in out && out[name] !== value) throw usageError(general.atTwice(name, String(out[name]), String(value)));
       out[name] = value;
     }
   }

@@ -6,6 +6,7 @@ import { UserError, usageError } from '../UserError.js';
 import { general, planText } from '../messages.js';
 import { loadSpec, loadStore, writeOut, DEFAULT_STORE } from './coverage.js';
 import type { CostModel } from '../plan/costModel.js';
+import { formatNumber } from '../report/formatNumber.js';
 import type { PlanResult } from '../plan/Plan.js';
 import type { SweepSpec } from '../plan/SweepSpec.js';
 
@@ -27,23 +28,24 @@ interface PlanArgs {
   maxParallel: number;
   sbatch?: string[];
   limit: number;
+  allowCollapse: boolean;
 }
 
 /** --budget: a plain number in the model's units, or a time (90m, 48h, 2d) when costs are seconds. */
 export { parseBudget } from '../plan/parseBudget.js';
 
-const sig = (v: number, d = 3) => Number(v.toPrecision(d)).toLocaleString('en-US', { maximumFractionDigits: 12 });
-const num = (v: number) => v.toLocaleString('en-US', { maximumFractionDigits: 6 });
+const sig = (v: number) => formatNumber(v);
+const num = (v: number) => formatNumber(v, 4);
 
 function describeModel(model: CostModel, spec: SweepSpec): string {
   if (model.units === 'relative')
     return planText.modelRelative(`width ${num(spec.axes.width[0])}, n ${num(spec.axes.train_size[0])}, ${num(spec.epochs)} epochs`);
-  if (!model.exponentFitted) return planText.modelWidthOnly(model.runs, model.c.toPrecision(3));
+  if (!model.exponentFitted) return planText.modelWidthOnly(model.runs, formatNumber(model.c));
   return planText.modelFitted(
     model.a.toFixed(2),
     model.aSe === null ? null : model.aSe.toFixed(2),
     model.runs,
-    model.c.toPrecision(3),
+    formatNumber(model.c),
     model.spread === null ? null : Math.exp(model.spread).toFixed(2),
   );
 }
@@ -82,29 +84,30 @@ export const command: CommandSpec<PlanArgs> = {
   usage: 'plan',
   describe: 'rank the next runs: gaps first, then new widths and seeds that sharpen the peak, within a budget',
   example: [
-    'plan --spec sweep.yaml --budget 48h --emit slurm --command "python train.py --width {width} --n {train_size} --noise {label_noise} --seed {seed} --epochs {epochs}" --out next.sbatch',
+    'plan --spec grid.yaml --budget 48h --emit slurm --command "python train.py --width {width} --n {train_size} --noise {label_noise} --seed {seed} --epochs {epochs}" --out next.sbatch',
     'a Slurm job array (and next.csv) for the best runs that fit 48 hours of compute',
   ],
   builder: (y: Argv) =>
     y
-      .option('spec', { type: 'string', describe: 'sweep spec (YAML or JSON)' })
+      .option('spec', { type: 'string', describe: 'grid spec (YAML or JSON)' })
       .option('store', { type: 'string', describe: `store directory (default ./${DEFAULT_STORE}; absent default = nothing run yet)` })
       .option('budget', { type: 'string', describe: 'cost cap: a number in cost units, or a time (90m, 48h, 2d) when wall time is logged' })
       .option('emit', { choices: EMITS, describe: 'export: csv, json, shell (one command per run) or slurm (job array)' })
       .option('command', { type: 'string', describe: 'command template: {width} {train_size} {label_noise} {seed} {epochs} {run} {condition} {resume_from} {index}' })
       .option('out', { type: 'string', describe: 'file for --emit (slurm: default plan.sbatch, with the plan CSV beside it)' })
-      .option('init', { type: 'string', describe: 'write a commented example spec to FILE (default sweep.yaml; - = stdout) and exit' })
+      .option('init', { type: 'string', describe: 'write a commented example spec to FILE (default grid.yaml; - = stdout) and exit' })
       .option('force', { type: 'boolean', default: false, describe: 'let --init overwrite an existing file' })
       .option('refine', { type: 'boolean', default: true, describe: 'propose new widths and seeds from the ridge and hurts analyses (--no-refine: gaps only)' })
       .option('skip-diverged', { type: 'boolean', default: false, describe: 'do not re-launch diverged runs' })
       .option('resolution', { type: 'number', default: 0.5, describe: 'refine a ridge point until the measured widths around its interval are at most this many octaves apart' })
       .option('max-parallel', { type: 'number', default: 32, describe: 'slurm: tasks running at once (#SBATCH --array=0-N%P)' })
       .option('sbatch', { type: 'string', array: true, describe: 'slurm: extra #SBATCH options without the leading dashes, e.g. --sbatch time=04:00:00 --sbatch gres=gpu:1' })
-      .option('limit', { type: 'number', default: 40, describe: 'runs to print (0 = all)' }),
+      .option('limit', { type: 'number', default: 40, describe: 'runs to print (0 = all)' })
+      .option('allow-collapse', { type: 'boolean', default: false, describe: 'shell/slurm: let --command leave out a setting that varies among the runs; each distinct command is launched once' }),
   async run(args) {
     if (args.init !== undefined) {
       const { SPEC_EXAMPLE } = await import('../plan/specExample.js');
-      const file = args.init === '' ? 'sweep.yaml' : args.init;
+      const file = args.init === '' ? 'grid.yaml' : args.init;
       if (file === '-') {
         process.stdout.write(SPEC_EXAMPLE);
         return 0;
@@ -132,19 +135,27 @@ export const command: CommandSpec<PlanArgs> = {
 
     if (args.emit) {
       const { planCsv } = await import('../plan/planCsv.js');
+      let exported = plan;
+      if (template && (args.emit === 'shell' || args.emit === 'slurm')) {
+        // Checked before anything is written: a template that drops a varying setting launches duplicates.
+        const { exportRuns } = await import('../plan/exportRuns.js');
+        const e = exportRuns({ plan, template, allowCollapse: args.allowCollapse });
+        exported = e.plan;
+        if (e.collapsed && !args.quiet) process.stderr.write(`note: ${planText.collapsedRuns(e.collapsed)}\n`);
+      }
       const { planJson } = await import('../plan/planJson.js');
       let text: string;
       let out = args.out;
       if (args.emit === 'csv') text = planCsv(plan);
       else if (args.emit === 'json') text = `${JSON.stringify(planJson(plan), null, 2)}\n`;
-      else if (args.emit === 'shell') text = (await import('../plan/planShell.js')).planShell({ plan, template: template! });
+      else if (args.emit === 'shell') text = (await import('../plan/planShell.js')).planShell({ plan: exported, template: template!, allowCollapse: args.allowCollapse });
       else {
         out ??= 'plan.sbatch';
         const csvPath = out.replace(/\.[^./]+$/, '') + '.csv';
         const { planSlurm } = await import('../plan/planSlurm.js');
-        text = planSlurm({ plan, template: template!, csvPath: resolve(csvPath), maxParallel: args.maxParallel, sbatch: (args.sbatch ?? []).map((o) => (String(o).startsWith('-') ? String(o) : `--${o}`)), jobName: spec.name });
-        writeOut(csvPath, planCsv(plan));
-        if (plan.runs.length > 1001 && !args.quiet) process.stderr.write(`note: ${planText.slurmBigArray(plan.runs.length)}\n`);
+        text = planSlurm({ plan: exported, allowCollapse: args.allowCollapse, template: template!, csvPath: resolve(csvPath), maxParallel: args.maxParallel, sbatch: (args.sbatch ?? []).map((o) => (String(o).startsWith('-') ? String(o) : `--${o}`)), jobName: spec.name });
+        writeOut(csvPath, planCsv(exported));
+        if (exported.runs.length > 1001 && !args.quiet) process.stderr.write(`note: ${planText.slurmBigArray(exported.runs.length)}\n`);
         if (!args.quiet) process.stderr.write(`${general.wroteFile(csvPath)}\n`);
       }
       if (out) {
@@ -161,7 +172,7 @@ export const command: CommandSpec<PlanArgs> = {
       return 0;
     }
     const lines: string[] = [];
-    if (plan.runs.length === 0) lines.push(planText.planEmpty());
+    if (plan.runs.length === 0) lines.push(plan.dropped.runs ? planText.planNoneFits(String(args.budget)) : planText.planEmpty());
     else {
       lines.push(planText.planHead(plan.runs.length, costText(plan.cost, model), model.units === 'relative' ? 'relative units' : ''));
       lines.push(...runTable(plan, spec, args.limit));

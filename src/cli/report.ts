@@ -19,7 +19,9 @@ interface ReportArgs {
   out: string;
   title?: string;
   budget?: string;
-  scale: number;
+  'png-scale': number;
+  /** Old spelling of --png-scale (hidden). */
+  scale?: number;
 }
 
 /** Short content hash of the store: sha256 over its sources' hashes (sorted), 12 hex digits. */
@@ -76,7 +78,7 @@ export async function makeReport(opts: MakeReportOptions): Promise<{ model: Repo
   ]);
   const cp = opts.spec ? await coverageAndPlan({ table: opts.table, spec: opts.spec, budget: opts.budget }) : null;
   // Roughly: 3 maps × (1 + variants); the bar is a guide, not a count of work.
-  const bar = await progressBar({ label: 'report', total: 30, quiet: opts.quiet, minTotal: 1 });
+  const bar = await progressBar({ label: 'report', total: 30, quiet: opts.quiet, minTotal: 1, stage: 'analysing' });
   const model = buildReport({
     table: opts.table,
     title: opts.title,
@@ -85,10 +87,25 @@ export async function makeReport(opts: MakeReportOptions): Promise<{ model: Repo
     coverage: cp?.coverage ?? null,
     spec: opts.spec,
     plan: cp?.plan ?? null,
-    onStep: () => bar.tick(),
+    onStep: (stage) => {
+      bar.stage(stage);
+      bar.tick();
+    },
   });
   bar.done();
-  const files = await writeReport({ model, outDir: opts.out, scale: opts.scale });
+  // Drawing and writing: a bar of its own, one step per stage.
+  const stages = model.maps.length + 2;
+  const draw = await progressBar({ label: 'report', total: stages, quiet: opts.quiet, minTotal: 1, stage: 'drawing' });
+  const files = await writeReport({
+    model,
+    outDir: opts.out,
+    scale: opts.scale,
+    onStage: (stage) => {
+      draw.stage(stage);
+      draw.tick();
+    },
+  });
+  draw.done();
   return { model, files, plan: cp?.plan ?? null };
 }
 
@@ -111,23 +128,26 @@ export function reportSummary(model: ReportModel, files: ReportFiles): string[] 
 export const command: CommandSpec<ReportArgs> = {
   usage: 'report',
   describe: 'group-meeting report: PDF deck, self-contained HTML page and PNGs with maps, ridges, hurts, coverage and plan',
-  example: ['report --store atlas-store --spec sweep.yaml --out report --title "Width sweep, CIFAR-10"', 'writes report/report.pdf, report/report.html and report/png/'],
+  example: ['report --store atlas-store --spec grid.yaml --out report --title "Width sweep, CIFAR-10"', 'writes report/report.pdf, report/report.html and report/png/'],
   builder: (y: Argv) =>
     y
       .option('store', { type: 'string', describe: `store directory (default ./${DEFAULT_STORE})` })
-      .option('spec', { type: 'string', describe: 'sweep spec (YAML or JSON): adds coverage and the proposed next runs' })
+      .option('spec', { type: 'string', describe: 'grid spec (YAML or JSON): adds coverage and the proposed next runs' })
       .option('out', { type: 'string', default: 'report', describe: 'output directory' })
       .option('title', { type: 'string', describe: 'title of the deck and page (default: the spec name or the store folder)' })
       .option('budget', { type: 'string', describe: 'cost cap for the proposed runs (as in datlas plan --budget)' })
-      .option('scale', { type: 'number', default: 2, describe: 'pixel ratio of the PNG images (1 = screen size, 2 = crisp on slides)' }),
+      .option('png-scale', { type: 'number', default: 2, describe: 'pixel ratio of the PNG images (1 = screen size, 2 = crisp on slides)' })
+      .option('scale', { type: 'number', hidden: true, describe: 'old spelling of --png-scale' }),
   async run(args) {
     const { readStore } = await import('../store/readStore.js');
     const storeDir = args.store ?? DEFAULT_STORE;
     const { table, manifest } = await readStore(storeDir);
+    (await import('../store/assertRows.js')).assertRows(table, storeDir);
     const spec = args.spec ? await loadSpec(args.spec) : null;
     const title = args.title ?? spec?.name ?? msg.defaultTitle(basename(resolve(storeDir)));
-    if (!(args.scale > 0 && args.scale <= 8)) throw usageError(msg.badScale(String(args.scale)));
-    const { model, files } = await makeReport({ table, manifest, spec, out: args.out, title, budget: args.budget, scale: args.scale, quiet: args.quiet || args.json });
+    const pngScale = args.scale ?? args['png-scale'];
+    if (!(pngScale > 0 && pngScale <= 8)) throw usageError(msg.badScale(String(pngScale)));
+    const { model, files } = await makeReport({ table, manifest, spec, out: args.out, title, budget: args.budget, scale: pngScale, quiet: args.quiet || args.json });
     if (args.json) {
       const { reportJson } = await import('../report/reportJson.js');
       process.stdout.write(`${JSON.stringify({ files, ...reportJson(model) })}\n`);

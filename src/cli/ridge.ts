@@ -99,13 +99,14 @@ export const command: CommandSpec<RidgeArgs> = {
     const { findRidge } = await import('../analysis/findRidge.js');
     const { axisSource } = await import('../ingest/axisSource.js');
     const { table, manifest } = await readStore(args.store);
+    (await import('../store/assertRows.js')).assertRows(table, args.store);
     // The ridge reads the measured cells only: the cheapest interpolator on a small raster suffices.
     // Every logged epoch up to 10,000 (the map's default keeps 100): a single-seed epoch-wise log is
     // a curve of thousands of points, and the curve model smooths and tests on all of them.
     const map = buildMap(table, { kind: args.kind, at, metric: args.metric, method: 'linear', raster: { nx: 16, ny: 16 }, maxEpochs: 10_000 });
     const ridge = findRidge(map, { minProminence: args.minProminence, boot: args.boot, seed: args.seed, epsilon: args.epsilon, alpha: args.alpha, minExtent: args.minExtent, correction: args.correction === 'none' ? 'none' : 'benjamini-hochberg' });
     if (!args.quiet) {
-      if (map.picked.length) process.stderr.write(`${t.picked(map.picked, map.fixed)}\n`);
+      if (map.picked.length) process.stderr.write(`${t.picked(map.picked, map.fixed, map.pickedTies)}\n`);
       for (const note of map.notes ?? []) process.stderr.write(`${note}\n`);
     }
     if (args.json) process.stdout.write(`${JSON.stringify(ridgeJson(ridge, map))}\n`);

@@ -115,7 +115,7 @@ export const command: CommandSpec<SimulateArgs> = {
         dims: Math.max(o.dims ?? 0, maxWidth),
       };
       const total = (typeof opts.seeds === 'number' ? opts.seeds : opts.seeds.length) * new Set(opts.widths).size * new Set(opts.trainSizes).size;
-      const bar = await progressBar({ label: 'simulate', total, quiet: args.quiet || args.json, minTotal: 200 });
+      const bar = await progressBar({ label: 'simulate', total, quiet: args.quiet || args.json, minTotal: 200, stage: 'fitting runs' });
       table = linearSweep({ ...opts, onRun: () => bar.tick() });
       bar.done();
     } else {
@@ -138,7 +138,7 @@ export const command: CommandSpec<SimulateArgs> = {
       } catch (err) {
         throw usageError((err as Error).message);
       }
-      const bar = await progressBar({ label: 'simulate', total, quiet: args.quiet || args.json, minTotal: 2 });
+      const bar = await progressBar({ label: 'simulate', total, quiet: args.quiet || args.json, minTotal: 2, stage: 'training runs' });
       table = await featuresSweepParallel({ ...opts, workers, onRun: () => bar.tick() });
       bar.done();
     }

@@ -59,6 +59,8 @@ export interface SweepMap {
   fixed: Record<string, number | string>;
   /** Names in `fixed` whose value the tool chose (most data) rather than the user. */
   picked: string[];
+  /** Picked names whose value tied on data with others: name → how many levels tied (the largest was taken). */
+  pickedTies?: Record<string, number>;
   method: MethodName;
   /** Leave-one-out root-mean-square error of the method used and of every method tried. */
   loo: {

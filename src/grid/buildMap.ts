@@ -198,6 +198,8 @@ function sliceRows(table: RowTable, opts: MapOptions, conds: Conditions, axes: {
   rows: Int32Array;
   fixed: Record<string, number | string>;
   picked: string[];
+  /** Picked names whose value tied with others for the most rows: how many levels tied. */
+  pickedTies: Record<string, number>;
 } {
   const { xName, yName } = axes;
   const at = opts.at ?? {};
@@ -230,6 +232,7 @@ function sliceRows(table: RowTable, opts: MapOptions, conds: Conditions, axes: {
   const fixed: Record<string, number | string> = {};
   for (const [key, v] of Object.entries(at)) if (isKey(key)) fixed[key] = v;
   const picked: string[] = [];
+  const pickedTies: Record<string, number> = {};
   // Only a condition that has something left can be in a row (a store of one condition never loops).
   const hasConditions = conds.values.some((c) => restOf(c) !== '') && rows.some((i) => restOf(condition(i)) !== '');
   for (const name of PICK_ORDER) {
@@ -266,6 +269,9 @@ function sliceRows(table: RowTable, opts: MapOptions, conds: Conditions, axes: {
       if (best === undefined) throw new UserError(msg.noMetric(metric));
       value = best;
       picked.push(name);
+      // Levels with as much data as the pick: the pick is only the tie-break (largest), not "most data".
+      const tied = [...counts].filter(([v, c]) => c === bestCount && !(typeof v === 'number' && !Number.isFinite(v))).length;
+      if (tied > 1) pickedTies[name] = tied;
     }
     fixed[name] = value;
     if (name !== 'epochs') {
@@ -275,7 +281,7 @@ function sliceRows(table: RowTable, opts: MapOptions, conds: Conditions, axes: {
       rows = col && typeof v === 'number' ? rowsNear(rows, col, v) : rows.filter((i) => (typeof v === 'number' ? sameNumber(valueOf(i) as number, v) : valueOf(i) === v));
     }
   }
-  return { rows, fixed, picked };
+  return { rows, fixed, picked, pickedTies };
 }
 
 /**
@@ -520,6 +526,7 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
     metric,
     fixed: slice.fixed,
     picked: slice.picked,
+    pickedTies: slice.pickedTies,
     method,
     loo,
     cells: placed.mapCells,

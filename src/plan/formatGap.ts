@@ -1,8 +1,9 @@
+import { formatNumber } from '../report/formatNumber.js';
 import { contiguous } from './gapGroups.js';
 import type { GapGroup } from './gapGroups.js';
 import type { SweepSpec } from './SweepSpec.js';
 
-const num = (v: number) => v.toLocaleString('en-US', { maximumFractionDigits: 6 });
+const num = (v: number) => formatNumber(v, 4);
 
 /** A stretch of consecutive spec values as "a–b" (or one value). */
 function stretch(values: readonly number[]): string {

@@ -1,10 +1,11 @@
 import { Ajv } from 'ajv';
 import type { ErrorObject } from 'ajv';
-import { LineCounter, parseDocument, isNode } from 'yaml';
+import { LineCounter, parseDocument, isMap, isNode, isScalar } from 'yaml';
 import type { Document } from 'yaml';
 import { UserError } from '../UserError.js';
 import { planText as msg } from '../messages.js';
 import { SPEC_SCHEMA } from './specSchema.js';
+import { nearestName } from '../nearestName.js';
 import { expandAxis } from './expandAxis.js';
 import type { AxisDef } from './expandAxis.js';
 import type { SweepSpec } from './SweepSpec.js';
@@ -52,20 +53,38 @@ function lineOf(doc: Document, lc: LineCounter, segments: string[]): number | nu
   return null;
 }
 
-function describeError(e: ErrorObject): { segments: string[]; problem: string } {
+// Which of ajv's errors (allErrors) to report: a misspelt key explains the "required" error it
+// causes, so unknown keys come first; the if/then/else wrappers only repeat their branch's error.
+const RANK: Record<string, number> = { additionalProperties: 0, required: 1, if: 9 };
+
+const pointerParent = (segments: string[]) => (segments.length ? dotted(segments) : '');
+
+/** A problem found by ajv, in its own terms: instance path, keyword, params. */
+function describeError(e: ErrorObject): { segments: string[]; key?: string; problem: string } {
   const segments = pointerSegments(e.instancePath);
   const p = e.params as Record<string, unknown>;
   if (e.keyword === 'required') return { segments: [...segments, String(p.missingProperty)], problem: msg.specRequired() };
   if (e.keyword === 'additionalProperties') {
-    const schemaProps = (e.parentSchema as { properties?: Record<string, unknown> } | undefined)?.properties ?? {};
-    return { segments: [...segments, String(p.additionalProperty)], problem: msg.specUnknownKey(Object.keys(schemaProps)) };
+    const known = Object.keys((e.parentSchema as { properties?: Record<string, unknown> } | undefined)?.properties ?? {});
+    const key = String(p.additionalProperty);
+    return { segments: [...segments, key], key, problem: msg.specUnknownKey(key, pointerParent(segments), nearestName(key, known), known) };
   }
   if (e.keyword === 'enum') return { segments, problem: `must be one of ${(p.allowedValues as unknown[]).join(', ')}` };
   return { segments, problem: e.message ?? 'is not valid' };
 }
 
+/** 1-based line of the key `segments[last]` itself (not its value, which may start lines below). */
+function keyLine(doc: Document, lc: LineCounter, segments: string[]): number | null {
+  const parent = segments.length === 1 ? doc.contents : doc.getIn(segments.slice(0, -1).map((s) => (/^\d+$/.test(s) ? Number(s) : s)), true);
+  if (isMap(parent)) {
+    const pair = parent.items.find((it) => isScalar(it.key) && String(it.key.value) === segments[segments.length - 1]);
+    if (pair && isNode(pair.key) && pair.key.range) return lc.linePos(pair.key.range[0]).line;
+  }
+  return lineOf(doc, lc, segments);
+}
+
 /**
- * Parses and validates a sweep spec (YAML or JSON; JSON is YAML 1.2), expanding axis
+ * Parses and validates a grid spec (YAML or JSON; JSON is YAML 1.2), expanding axis
  * generators. Throws a UserError naming the file, line and key of the first problem.
  */
 export function parseSpec(text: string, file: string): SweepSpec {
@@ -77,9 +96,12 @@ export function parseSpec(text: string, file: string): SweepSpec {
     throw new UserError(msg.specSyntax(file, line, e.message.split('\n')[0]));
   }
   const data: unknown = doc.toJS();
-  validator ??= new Ajv({ allErrors: false, strict: false, verbose: true }).compile(SPEC_SCHEMA);
+  validator ??= new Ajv({ allErrors: true, strict: false, verbose: true }).compile(SPEC_SCHEMA);
   if (!validator(data)) {
-    const { segments, problem } = describeError(validator.errors![0]);
+    // Stable sort: among equals, ajv's own order (document order of the schema walk).
+    const first = [...validator.errors!].sort((a, b) => (RANK[a.keyword] ?? 5) - (RANK[b.keyword] ?? 5))[0];
+    const { segments, key, problem } = describeError(first);
+    if (key !== undefined) throw new UserError(msg.specUnknown(file, keyLine(doc, lc, segments), problem));
     throw new UserError(msg.specInvalid(file, lineOf(doc, lc, segments), dotted(segments), problem));
   }
   const raw = data as RawSpec;

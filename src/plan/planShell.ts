@@ -3,13 +3,16 @@ import type { CommandTemplate } from './commandTemplate.js';
 import type { PlanResult } from './Plan.js';
 import { roundCost } from './planCsv.js';
 import { shellQuote } from './shellQuote.js';
+import { exportRuns } from './exportRuns.js';
 
 /**
  * A bash script with one command per planned run, in plan order: the template with each
- * placeholder replaced by its value quoted as one shell word.
+ * placeholder replaced by its value quoted as one shell word. No two lines are the same command:
+ * a template that leaves out a varying setting is refused (see exportRuns).
  */
-export function planShell(opts: { plan: PlanResult; template: CommandTemplate }): string {
-  const { plan, template } = opts;
+export function planShell(opts: { plan: PlanResult; template: CommandTemplate; allowCollapse?: boolean }): string {
+  const { template } = opts;
+  const { plan } = exportRuns(opts);
   const head = [
     '#!/usr/bin/env bash',
     `# ${plan.runs.length} runs planned by datlas plan; total cost ${roundCost(plan.cost)} ${plan.model.units === 'seconds' ? 'seconds (fitted)' : '(relative units)'}.`,

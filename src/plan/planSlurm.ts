@@ -4,16 +4,27 @@ import { fillTemplate } from './commandTemplate.js';
 import type { CommandTemplate } from './commandTemplate.js';
 import type { PlanResult } from './Plan.js';
 import { PLAN_CSV_COLUMNS } from './planCsv.js';
+import { exportRuns } from './exportRuns.js';
 
 /**
  * A Slurm job-array script: task k reads line k + 2 of the plan CSV (line 1 is the header),
  * parses it (RFC 4180 quoting, spreadsheet guard undone), and runs the template with the
  * placeholders bound to that run's values as quoted shell variables, so no value is ever
- * re-read as shell code. `#SBATCH --array=0-N%P` runs at most P tasks at once.
+ * re-read as shell code. `#SBATCH --array=0-N%P` runs at most P tasks at once. The plan CSV must
+ * hold `exportRuns(opts).plan` (no two tasks run the same command; see exportRuns).
  */
-export function planSlurm(opts: { plan: PlanResult; template: CommandTemplate; csvPath: string; maxParallel: number; jobName?: string; sbatch?: string[] }): string {
-  const { plan, template, csvPath, maxParallel, jobName = 'datlas-plan', sbatch = [] } = opts;
-  if (plan.runs.length === 0) throw new UserError(msg.slurmEmpty());
+export function planSlurm(opts: {
+  plan: PlanResult;
+  template: CommandTemplate;
+  csvPath: string;
+  maxParallel: number;
+  jobName?: string;
+  sbatch?: string[];
+  allowCollapse?: boolean;
+}): string {
+  const { template, csvPath, maxParallel, jobName = 'datlas-plan', sbatch = [] } = opts;
+  if (opts.plan.runs.length === 0) throw new UserError(msg.slurmEmpty());
+  const { plan } = exportRuns(opts);
   for (const r of plan.runs)
     for (const v of [r.condition, r.run]) if (/[\r\n]/.test(v)) throw new UserError(msg.slurmLineBreak(v));
   const n = plan.runs.length;

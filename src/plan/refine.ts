@@ -1,3 +1,4 @@
+import { formatNumber } from '../report/formatNumber.js';
 import { buildCells } from '../cells/buildCells.js';
 import type { Cell } from '../cells/Cell.js';
 import { tQuantile } from '../cells/tQuantile.js';
@@ -54,7 +55,7 @@ const SLACK = 1.1;
 /** One-sided normal quantile through Student t with very many degrees of freedom. */
 const zOf = (p: number) => tQuantile(1 - p, 1e7);
 
-const fmt = (v: number) => Number(v.toPrecision(4)).toLocaleString('en-US');
+const fmt = (v: number) => formatNumber(v, 4);
 
 /**
  * Refinement proposals from the analyses at the spec's target epoch (DESIGN.md §5 "Plan"):

@@ -1,5 +1,5 @@
 /** The commented example `datlas plan --init` writes (YAML; a JSON spec with the same keys works too). */
-export const SPEC_EXAMPLE = `# Sweep spec for datlas coverage / datlas plan.
+export const SPEC_EXAMPLE = `# Grid spec for datlas coverage / datlas plan.
 # Every planned run is one (condition, label_noise, train_size, width, seed); each should reach
 # \`epochs\`. Axes take explicit values or a generator {from, to, count, spacing}.
 name: resnet-width-sweep

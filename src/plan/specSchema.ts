@@ -1,4 +1,4 @@
-/** JSON schema (draft-07, checked with ajv) of a sweep spec file. */
+/** JSON schema (draft-07, checked with ajv) of a grid spec file. */
 
 const axisDef = (value: Record<string, unknown>, defaultSpacing: string) => ({
   type: ['array', 'object'],

@@ -1,5 +1,7 @@
 import type { MapAxis, SweepMap } from '../grid/SweepMap.js';
 import type { Metric } from '../store/RowTable.js';
+import { formatNumber, numberExpr } from '../report/formatNumber.js';
+import { pickWhy } from '../messages.js';
 
 /** Plain names of the sweep axes, as they appear in titles. */
 const AXIS_LABEL: Record<string, string> = {
@@ -31,20 +33,15 @@ export function axisTitle(axis: Pick<MapAxis, 'name' | 'scale' | 'source'>): str
   return parts.length ? `${axisLabel(axis.name)} (${parts.join(', ')})` : axisLabel(axis.name);
 }
 
-/** Thousands separators without locale surprises: 4000 → "4,000". */
+/** An axis value as text: the tool's one number format (formatNumber). */
 export function groupDigits(v: number): string {
-  if (!Number.isFinite(v)) return String(v);
-  const s = Number.isInteger(v) ? String(v) : String(Number(v.toPrecision(4)));
-  const [int, frac] = s.split('.');
-  const grouped = int.replace(/\B(?=(\d{3})+(?!\d))/g, ',');
-  return frac ? `${grouped}.${frac}` : grouped;
+  return formatNumber(v, 4);
 }
 
-/** One fixed value in words: "train size 4,000", "label noise 20%", "condition adam". */
+/** One fixed value in words: "train size 4000", "label noise 0.2", "condition adam". */
 export function fixedValueText(name: string, value: number | string): string {
   if (name === 'condition') return value === '' ? 'no condition' : `condition ${value}`;
   if (typeof value === 'string') return `${axisLabel(name)} ${value}`;
-  if (name === 'label_noise') return `label noise ${Number((value * 100).toPrecision(3))}%`;
   return `${axisLabel(name)} ${groupDigits(value)}`;
 }
 
@@ -66,13 +63,13 @@ export function seedsText(map: Pick<SweepMap, 'cells'>): string {
  * "train size 4,000 · label noise 20% · 3 seeds per cell · method gp".
  * Values the tool picked (most data) are marked so a reader knows they were not asked for.
  */
-export function fixedLine(map: Pick<SweepMap, 'fixed' | 'picked' | 'cells' | 'method'>, opts: { omit?: string[]; method?: boolean } = {}): string {
+export function fixedLine(map: Pick<SweepMap, 'fixed' | 'picked' | 'pickedTies' | 'cells' | 'method'>, opts: { omit?: string[]; method?: boolean } = {}): string {
   const { omit = [], method = true } = opts;
   const parts: string[] = [];
   for (const [name, value] of Object.entries(map.fixed)) {
     if (omit.includes(name)) continue;
     if (name === 'condition' && value === '') continue;
-    parts.push(fixedValueText(name, value) + (map.picked.includes(name) ? ' (most data)' : ''));
+    parts.push(fixedValueText(name, value) + (map.picked.includes(name) ? pickWhy(map.pickedTies?.[name]) : ''));
   }
   parts.push(seedsText(map));
   if (method) parts.push(`method ${map.method}`);
@@ -117,19 +114,12 @@ function thin(values: number[], max: number): number[] {
   return values.filter((_, i) => i % k === 0);
 }
 
-/**
- * Vega expression formatting a tick: 1000 → 1k, 16000 → 16k, 2000000 → 2M, 512 → 512,
- * 16384 → 16.4k, 0.2 → 0.2.
- */
-export const TICK_LABEL_EXPR =
-  "datum.value >= 1e6 && datum.value % 1e6 === 0 ? format(datum.value / 1e6, '~g') + 'M'" +
-  " : datum.value >= 1e3 && datum.value % 1e3 === 0 ? format(datum.value / 1e3, '~g') + 'k'" +
-  " : datum.value >= 1e4 ? format(datum.value, '.3~s')" +
-  " : format(datum.value, '.4~g')";
+/** Vega expression formatting a tick with the tool's one number format: 512, 16.4k, 1M, 0.2. */
+export const TICK_LABEL_EXPR = numberExpr('datum.value');
 
-/** Tick label expression for an axis: label noise as percent, everything else by TICK_LABEL_EXPR. */
-export function tickLabelExpr(name: string): string {
-  return name === 'label_noise' ? "format(datum.value, '.0%')" : TICK_LABEL_EXPR;
+/** Tick label expression for an axis (every axis, label noise included, as in text and tables). */
+export function tickLabelExpr(_name: string): string {
+  return TICK_LABEL_EXPR;
 }
 
 /** Vega number format for a metric: error rates as percent, losses as plain numbers. */

@@ -1,3 +1,4 @@
+import { formatNumber, numberExpr } from '../report/formatNumber.js';
 import type { TopLevelSpec } from 'vega-lite';
 import type { CoverageResult } from '../plan/coverage.js';
 import type { SweepSpec } from '../plan/SweepSpec.js';
@@ -40,6 +41,23 @@ export function coverageCells(cov: CoverageResult): CoverageCell[] {
   return [...cells.values()];
 }
 
+/** Target figure width in px (a slide's drawing area at 1×, common practice for 16:9 decks). */
+const TARGET_WIDTH = 1100;
+
+/**
+ * Cell size and panel wrapping for the coverage chart: cells shrink as widths grow (labels only
+ * while a cell can hold "3/3"), and noise panels wrap onto rows to keep the figure near a
+ * slide's shape rather than a long strip.
+ */
+export function coverageLayout(o: { widths: number; sizes: number; panels: number; conditions: boolean }): { cell: number; cellHeight: number; labels: boolean; columns: number } {
+  const cell = o.widths <= 16 ? 44 : o.widths <= 30 ? 34 : Math.max(12, Math.floor(TARGET_WIDTH / o.widths));
+  const labels = cell >= 34;
+  const cellHeight = labels ? 30 : Math.max(14, Math.min(30, cell));
+  const panelWidth = cell * o.widths + 70;
+  const columns = o.conditions ? o.panels : Math.max(1, Math.min(o.panels, Math.floor(TARGET_WIDTH / panelWidth)));
+  return { cell, cellHeight, labels, columns };
+}
+
 /**
  * The coverage chart: width × train size per label-noise level (columns; conditions as rows),
  * each cell coloured by the share of its planned seeds complete and labelled "done/planned"
@@ -52,28 +70,30 @@ export function coverageSpec(opts: { coverage: CoverageResult; spec: SweepSpec }
   const total = cov.runs.length;
   const { complete, partial, missing, diverged } = cov.counts;
   const manyConditions = spec.conditions.length > 1;
-  const fmt = (v: number) => v.toLocaleString('en-US');
+  const fmt = (v: number) => formatNumber(v);
+  const layout = coverageLayout({ widths: spec.axes.width.length, sizes: spec.axes.train_size.length, panels: spec.axes.label_noise.length, conditions: manyConditions });
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     title: {
       text: `Coverage: ${fmt(complete)} of ${fmt(total)} planned runs complete (target ${fmt(spec.epochs)} epochs)`,
       subtitle: [
         `partial ${fmt(partial)} · missing ${fmt(missing)} · diverged ${fmt(diverged)}${cov.extra.length ? ` · ${fmt(cov.extra.length)} store runs outside the spec` : ''}`,
-        'cell label: complete seeds / planned seeds; p = partial, d = diverged',
+        layout.labels ? 'cell label: complete seeds / planned seeds; p = partial, d = diverged' : `${spec.axes.width.length} widths: cells too narrow for labels, colour = share of seeds complete`,
       ],
       anchor: 'start',
     },
     data: { values: values as unknown as Record<string, unknown>[] },
-    facet: {
-      column: { field: 'label_noise', type: 'ordinal', title: 'label noise' },
-      ...(manyConditions ? { row: { field: 'condition', type: 'nominal', title: 'condition' } } : {}),
-    },
+    // Noise panels wrap onto rows so the figure keeps a slide's shape (a wide grid beside another
+    // wide grid would be squeezed to a strip); with conditions, conditions are the rows.
+    ...(manyConditions
+      ? { facet: { column: { field: 'label_noise', type: 'ordinal', title: 'label noise' }, row: { field: 'condition', type: 'nominal', title: 'condition' } } }
+      : { facet: { field: 'label_noise', type: 'ordinal', title: 'label noise' }, columns: layout.columns }),
     spec: {
-      width: Math.max(120, 44 * spec.axes.width.length),
-      height: Math.max(80, 30 * spec.axes.train_size.length),
+      width: Math.max(120, layout.cell * spec.axes.width.length),
+      height: Math.max(80, layout.cellHeight * spec.axes.train_size.length),
       encoding: {
-        x: { field: 'width', type: 'ordinal', title: 'width', sort: 'ascending', axis: { labelAngle: 0 } },
-        y: { field: 'train_size', type: 'ordinal', title: 'train size', sort: 'descending', axis: { format: ',' } },
+        x: { field: 'width', type: 'ordinal', title: 'width', sort: 'ascending', axis: { labelAngle: layout.labels ? 0 : -90, labelExpr: numberExpr() } },
+        y: { field: 'train_size', type: 'ordinal', title: 'train size', sort: 'descending', axis: { labelExpr: numberExpr() } },
       },
       layer: [
         {
@@ -98,14 +118,19 @@ export function coverageSpec(opts: { coverage: CoverageResult; spec: SweepSpec }
             ],
           },
         },
-        {
-          mark: { type: 'text', fontSize: 10 },
-          encoding: {
-            text: { field: 'label', type: 'nominal' },
-            // Light text on the dark (low) end of viridis, dark text on the bright end.
-            color: { condition: { test: 'datum.done < 0.6', value: 'white' }, value: 'black' },
-          },
-        },
+        // Cells too narrow for "3/3" labels show colour only (the title says so; the tooltip has the counts).
+        ...(layout.labels
+          ? [
+              {
+                mark: { type: 'text', fontSize: 10 },
+                encoding: {
+                  text: { field: 'label', type: 'nominal' },
+                  // Light text on the dark (low) end of viridis, dark text on the bright end.
+                  color: { condition: { test: 'datum.done < 0.6', value: 'white' }, value: 'black' },
+                },
+              },
+            ]
+          : []),
       ],
     },
     config: { view: { stroke: null }, font: 'DejaVu Sans' },

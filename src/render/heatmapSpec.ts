@@ -1,3 +1,4 @@
+import { formatNumber } from '../report/formatNumber.js';
 import type { TopLevelSpec } from 'vega-lite';
 import type { RidgeResult } from '../analysis/Ridge.js';
 import type { MapAxis, SweepMap } from '../grid/SweepMap.js';
@@ -89,7 +90,7 @@ function segments<T>(rows: T[], has: (r: T) => boolean): { row: T; seg: number }
   return out;
 }
 
-const fmtNumber = (v: number) => (Number.isFinite(v) ? String(Number(v.toPrecision(2))) : 'n/a');
+const fmtNumber = (v: number) => formatNumber(v, 2);
 
 /** Heatmap panels side by side (one per label noise or condition), sharing every scale. */
 export function facetHeatmapSpec(panels: MapPanel[], opts: HeatmapOptions = {}): TopLevelSpec {
@@ -176,7 +177,8 @@ export function facetHeatmapSpec(panels: MapPanel[], opts: HeatmapOptions = {}):
           error: p.error, prominenceSe: p.prominenceSe, noiseFrom: row.noiseFrom,
         });
       }
-      const th = segments(rows, (r) => r.threshold !== null);
+      // A threshold at the sweep's edge is only a bound: it is named in the key, never drawn as measured.
+      const th = segments(rows, (r) => r.threshold !== null && !r.thresholdAtEdge);
       for (const { row, seg } of th) {
         // A row whose neighbours have no threshold gets a dot: a one-point line draws nothing.
         const alone = th.filter((t) => t.seg === seg).length === 1;
@@ -317,11 +319,17 @@ export function facetHeatmapSpec(panels: MapPanel[], opts: HeatmapOptions = {}):
     const from = rows.every((r) => r.noiseFrom === 'curve') ? 'curve noise' : rows.some((r) => r.noiseFrom === 'curve') ? 'bootstrap over seeds or curve noise' : 'bootstrap over seeds';
     entries.push({ symbol: 'ridge', text: msg.keyRidge(from) });
   }
-  if (has('threshold') || has('thresholdDot')) {
+  const edgeRows = panels.flatMap((p) => p.ridge?.rows ?? []).filter((r) => r.threshold !== null && r.thresholdAtEdge);
+  if (has('threshold') || has('thresholdDot') || edgeRows.length) {
     const eps = panels.find((p) => p.ridge)!.ridge!.epsilon;
     // The threshold is on train error, a fraction: show it as percent.
     const epsText = `${Number((eps * 100).toPrecision(3))}%`;
-    entries.push({ symbol: 'threshold', text: msg.keyThreshold(axisLabel(first.x.name), epsText, has('thresholdDot')) });
+    // Along train size the threshold is the largest n the model still fits (findRidge: last-below).
+    const largest = first.x.name === 'train_size';
+    const edge = edgeRows.length ? formatNumber(edgeRows[0].threshold!) : '';
+    if (has('threshold') || has('thresholdDot'))
+      entries.push({ symbol: 'threshold', text: msg.keyThreshold(axisLabel(first.x.name), epsText, has('thresholdDot'), largest, edgeRows.length, edge) });
+    else entries.push({ symbol: 'none', text: msg.keyThresholdEdgeOnly(axisLabel(first.x.name), epsText, largest, edgeRows.length, edge) });
   }
   const warnings = figureWarnings(panels.map((p) => ({ ridge: p.ridge, label: p.label })));
 

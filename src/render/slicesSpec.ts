@@ -7,7 +7,7 @@ import { DEFAULT_COLOR_SCHEME } from './colorSchemes.js';
 import type { ColorScheme } from './colorSchemes.js';
 import { keySpec, STYLE } from './figureKey.js';
 import type { KeyEntry } from './figureKey.js';
-import { figureWarnings } from './figureWarnings.js';
+import { figureWarnings, listValues } from './figureWarnings.js';
 import { FIGURE_CONFIG } from './figureConfig.js';
 
 export interface SlicesOptions {
@@ -18,12 +18,23 @@ export interface SlicesOptions {
   height?: number;
 }
 
-/** The measured rows nearest to the requested values (in the axis's own space), ascending, distinct. */
-export function pickSliceRows(map: Pick<SweepMap, 'y'>, wanted?: number[]): number[] {
+/** Up to k values spread evenly over a sorted list (first and last kept). */
+function spreadPick(ys: readonly number[], k: number): number[] {
+  const n = Math.min(k, ys.length);
+  return [...new Set(Array.from({ length: n }, (_, i) => ys[Math.round((i * (ys.length - 1)) / Math.max(1, n - 1))]))];
+}
+
+/**
+ * The measured rows nearest to the requested values (in the axis's own space), ascending, distinct.
+ * With none requested: up to 4 rows spread over the rows where the ridge has a peak (the slices
+ * must show the peaks the headline reports), topped up with spread rows when fewer than 2 have one.
+ */
+export function pickSliceRows(map: Pick<SweepMap, 'y'>, wanted?: number[], ridge?: Pick<RidgeResult, 'rows'> | null): number[] {
   const ys = map.y.values;
   if (!wanted || !wanted.length) {
-    const k = Math.min(4, ys.length);
-    return [...new Set(Array.from({ length: k }, (_, i) => ys[Math.round((i * (ys.length - 1)) / Math.max(1, k - 1))]))];
+    const peaked = ys.filter((y) => ridge?.rows.some((r) => r.y === y && r.peak !== null));
+    if (peaked.length >= 2) return spreadPick(peaked, 4);
+    return [...new Set([...peaked, ...spreadPick(ys, 4 - peaked.length)])].sort((a, b) => a - b);
   }
   const t = map.y.scale === 'log2' ? (v: number) => Math.log2(Math.max(v, 1e-300)) : (v: number) => v;
   const pick = wanted.map((w) => ys.reduce((best, v) => (Math.abs(t(v) - t(w)) < Math.abs(t(best) - t(w)) ? v : best), ys[0]));
@@ -36,7 +47,7 @@ export function pickSliceRows(map: Pick<SweepMap, 'y'>, wanted?: number[]): numb
  */
 export function slicesSpec(map: SweepMap, ridge: RidgeResult | null, opts: SlicesOptions = {}): TopLevelSpec {
   const { colors = DEFAULT_COLOR_SCHEME, width = 560, height = 320 } = opts;
-  const rows = pickSliceRows(map, opts.rows);
+  const rows = pickSliceRows(map, opts.rows, ridge);
   const yName = map.y.name;
   const label = (y: number) => fixedValueText(yName, y);
   const labels = rows.map(label);
@@ -159,7 +170,11 @@ export function slicesSpec(map: SweepMap, ridge: RidgeResult | null, opts: Slice
     });
   }
   const chosen = ridge ? { ...ridge, rows: ridge.rows.filter((r) => rows.includes(r.y)) } : null;
-  const warnings = figureWarnings([{ ridge: chosen, label: '' }]);
+  let warnings = figureWarnings([{ ridge: chosen, label: '' }]);
+  // Rows asked for that miss every peak: say the peaks are elsewhere, not that there are none.
+  const peakedElsewhere = (ridge?.rows ?? []).filter((r) => r.peak !== null && !rows.includes(r.y)).map((r) => r.y);
+  if (chosen && chosen.rows.every((r) => r.peak === null) && peakedElsewhere.length)
+    warnings = [msg.warnPeaksNotShown(axisLabel(yName), listValues(peakedElsewhere.sort((a, b) => a - b)))];
   const diverged = values.some((v) => v.layer === 'diverged');
   const keyItems: KeyEntry[] = [{ symbol: 'none', text: msg.keySlicesBand(diverged, values.some((v) => v.layer === 'peak')) }];
   if (smoothed) keyItems.push({ symbol: 'none', text: msg.keySmoothed });

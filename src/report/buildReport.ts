@@ -36,7 +36,7 @@ export interface BuildReportOptions {
   boot?: number;
   seed?: number;
   /** Called as each map variant is done (progress). */
-  onStep?: () => void;
+  onStep?: (stage: string) => void;
 }
 
 const KINDS: MapKind[] = ['model', 'sample', 'epoch'];
@@ -127,14 +127,20 @@ function peakScore(r: RidgeResult | null): [number, number] {
 function mapSection(
   table: RowTable,
   kind: MapKind,
-  o: { metric: Metric; perAxis: number; boot: number; seed: number; onStep?: () => void; at?: Record<string, number | string> },
+  o: { metric: Metric; perAxis: number; boot: number; seed: number; onStep?: (stage: string) => void; at?: Record<string, number | string> },
 ): MapSection | null {
   // The tool's own pick (most data) fixes the values not given; a cheap field is enough to learn them.
   const first = buildMap(table, { kind, metric: o.metric, ...VARIANT_FIELD, ...(o.at ? { at: o.at } : {}) });
   if (first.cells.length === 0) return null;
-  const ridgeOf = (map: SweepMap): RidgeResult | null =>
-    map.cells.length >= 3 ? findRidge(map, { boot: o.boot, seed: o.seed, nullRounds: o.boot }) : null;
-  o.onStep?.();
+  // Epoch-wise rows are curves along epochs: the shown map keeps 100 epochs, but the curve model
+  // smooths and tests on every logged epoch (as `datlas ridge` does); thinned, a flat curve's
+  // spikes read as peaks.
+  const ridgeOf = (map: SweepMap): RidgeResult | null => {
+    if (map.cells.length < 3) return null;
+    const dense = kind === 'epoch' ? buildMap(table, { kind, metric: o.metric, ...VARIANT_FIELD, at: { ...map.fixed }, maxEpochs: 10_000 }) : map;
+    return findRidge(dense, { boot: o.boot, seed: o.seed, nullRounds: o.boot });
+  };
+  o.onStep?.(`analysing the ${kind}-wise maps`);
 
   // Values offered per fixed axis (the pick always among them).
   const axes: { key: string; values: (number | string)[] }[] = [];
@@ -165,7 +171,7 @@ function mapSection(
     } catch {
       // A slice the sweep does not cover (buildMap refuses it): nothing to offer there.
     }
-    o.onStep?.();
+    o.onStep?.(`analysing the ${kind}-wise maps`);
   }
   const selector = axes.map((a) => a.key).filter((key) => new Set(maps.map((m) => m.fixed[key])).size > 1);
   const variants: MapVariant[] = maps.map((map) => ({ label: variantLabel(map.fixed, selector), map, ridge: ridgeOf(map), cautions: [] }));

@@ -1,7 +1,7 @@
 import type { TopLevelSpec } from 'vega-lite';
 import type { RidgeResult } from '../analysis/Ridge.js';
 import type { MapAxis, SweepMap } from '../grid/SweepMap.js';
-import { axisTicks, tickLabelExpr } from '../render/axisText.js';
+import { axisLabel, axisTicks, metricFormat, metricLabel, tickLabelExpr } from '../render/axisText.js';
 import { STYLE } from '../render/figureKey.js';
 import { formatFixed } from './formatNumber.js';
 
@@ -93,9 +93,17 @@ export interface CellMapSpecOptions {
  * interpolation threshold (dashed), in the render stage's mark styles. Only measured values are drawn: nothing here is interpolated.
  * Rects carry `cell`, the index into cellRecords(map), so a page can show the cell's numbers.
  */
+/** The range of the cells' means (the colour scale's extent). */
+function meanRange(cells: { mean: number }[]): [number, number] {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const c of cells) if (Number.isFinite(c.mean)) [lo, hi] = [Math.min(lo, c.mean), Math.max(hi, c.mean)];
+  return lo <= hi ? [lo, hi] : [0, 1];
+}
+
 export function cellMapSpec(map: SweepMap, ridge: RidgeResult | null, opts: CellMapSpecOptions = {}): TopLevelSpec {
   const { width = 560, height = 360 } = opts;
-  const title = opts.title ?? `${map.kind}-wise map of ${map.metric}${Object.keys(map.fixed).length ? ` at ${formatFixed(map.fixed)}` : ''}`;
+  const title = opts.title ?? `${map.kind}-wise map of ${metricLabel(map.metric)}${Object.keys(map.fixed).length ? ` at ${formatFixed(map.fixed)}` : ''}`;
   const xScale = scaleOf(map.x);
   const yScale = scaleOf(map.y);
   const cells = cellRecords(map).map((c) => ({ cell: c.cell, x0: c.x0, x1: c.x1, y0: c.y0, y1: c.y1, mean: c.mean }));
@@ -112,7 +120,8 @@ export function cellMapSpec(map: SweepMap, ridge: RidgeResult | null, opts: Cell
   for (const row of [...(ridge?.rows ?? [])].sort((a, b) => a.y - b.y)) {
     if (row.peak) peaks.push({ y: row.y, x: row.peak.x, low: row.peak.low, high: row.peak.high, run: peakRun });
     else peakRun++;
-    if (row.threshold !== null) thresholds.push({ y: row.y, t: row.threshold, run: thrRun });
+    // At the sweep's edge the threshold is only a bound: not drawn as if measured.
+    if (row.threshold !== null && !row.thresholdAtEdge) thresholds.push({ y: row.y, t: row.threshold, run: thrRun });
     else thrRun++;
   }
   const xEnc = { field: 'x', type: 'quantitative', scale: xScale, title: map.x.name };
@@ -123,11 +132,12 @@ export function cellMapSpec(map: SweepMap, ridge: RidgeResult | null, opts: Cell
       // A hairline in the cell's own colour hides anti-aliasing seams without drawing a grid.
       mark: { type: 'rect', strokeWidth: 0.5, stroke: { expr: "scale('color', datum.mean)" } },
       encoding: {
-        x: { field: 'x0', type: 'quantitative', scale: xScale, title: map.x.name, axis: axisOf(map.x) },
+        x: { field: 'x0', type: 'quantitative', scale: xScale, title: axisLabel(map.x.name), axis: axisOf(map.x) },
         x2: { field: 'x1' },
-        y: { field: 'y0', type: 'quantitative', scale: yScale, title: map.y.name, axis: axisOf(map.y) },
+        y: { field: 'y0', type: 'quantitative', scale: yScale, title: axisLabel(map.y.name), axis: axisOf(map.y) },
         y2: { field: 'y1' },
-        color: { field: 'mean', type: 'quantitative', title: map.metric, scale: { scheme: 'viridis' } },
+        // Named and formatted as on the static figures (error rates in percent), not the raw column name.
+        color: { field: 'mean', type: 'quantitative', title: `${metricLabel(map.metric)} (mean of seeds)`, scale: { scheme: 'viridis' }, legend: { format: metricFormat(map.metric, meanRange(cells)) } },
       },
     },
   ];

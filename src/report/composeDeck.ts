@@ -118,6 +118,54 @@ export function fitColumns(natural: number[], w: number): number[] {
   return natural;
 }
 
+/** Lines a table cell may wrap onto before the rest is cut with an ellipsis. */
+const MAX_CELL_LINES = 3;
+
+interface TableLayout {
+  size: number;
+  /** Column widths. */
+  cw: number[];
+  /** Text lines of each cell: header first, then the rows. */
+  cells: string[][][];
+  /** Height of each row (header first). */
+  heights: number[];
+  lineH: number;
+}
+
+/**
+ * A table's layout at width `w`: natural column widths, the widest cut to fit (fitColumns), and a
+ * cell wider than its column wraps onto up to MAX_CELL_LINES lines (the row grows) instead of
+ * being cut, so a long "why" reads whole.
+ */
+function tableLayout(ctx: Ctx, b: Extract<DeckBlock, { kind: 'table' }>, w: number): TableLayout {
+  const size = b.size ?? 10.5;
+  const lineH = size * 1.25;
+  const pad = size * 0.6;
+  const natural = b.columns.map((c, j) => {
+    ctx.font = `bold ${size}px "${FONT}"`;
+    let m = ctx.measureText(c).width;
+    ctx.font = `${size}px "${FONT}"`;
+    for (const r of b.rows) if (r.length > 1) m = Math.max(m, ctx.measureText(r[j] ?? '').width);
+    return m + 12;
+  });
+  const cw = fitColumns(natural, w);
+  const cells: string[][][] = [];
+  const heights: number[] = [];
+  [b.columns, ...b.rows].forEach((row, i) => {
+    ctx.font = `${i === 0 ? 'bold ' : ''}${size}px "${FONT}"`;
+    const lines = row.map((text, j) => {
+      const width = (row.length === 1 ? w : cw[j]) - 10;
+      if (ctx.measureText(text).width <= width) return [text];
+      const ls = wrap(ctx, text, width);
+      if (ls.length <= MAX_CELL_LINES) return ls;
+      return [...ls.slice(0, MAX_CELL_LINES - 1), fit(ctx, ls.slice(MAX_CELL_LINES - 1).join(' '), width)];
+    });
+    cells.push(lines);
+    heights.push(Math.max(1, ...lines.map((l) => l.length)) * lineH + pad);
+  });
+  return { size, cw, cells, heights, lineH };
+}
+
 /** Height a block needs at column width `w` (images: 0, they take what is left). */
 function measure(ctx: Ctx, b: DeckBlock, w: number): number {
   switch (b.kind) {
@@ -137,10 +185,8 @@ function measure(ctx: Ctx, b: DeckBlock, w: number): number {
     case 'note':
       ctx.font = `11px "${FONT}"`;
       return wrap(ctx, `⚠ ${b.text}`, w - 16).length * 14.5 + 12;
-    case 'table': {
-      const size = b.size ?? 10.5;
-      return (b.rows.length + 1) * (size * 1.6) + 4;
-    }
+    case 'table':
+      return tableLayout(ctx, b, w).heights.reduce((a, h) => a + h, 0) + 4;
     case 'image':
       return 0;
   }
@@ -199,55 +245,50 @@ function draw(ctx: Ctx, b: DeckBlock, x: number, y: number, w: number, maxH: num
       return img.height * s + 6;
     }
     case 'table': {
-      const size = b.size ?? 10.5;
-      const rowH = size * 1.6;
+      const { size, cw, cells, heights, lineH } = tableLayout(ctx, b, w);
       const ncol = b.columns.length;
-      ctx.font = `${size}px "${FONT}"`;
-      // Column widths proportional to the widest cell (header included), capped to the page.
-      const natural = b.columns.map((c, j) => {
-        ctx.font = `bold ${size}px "${FONT}"`;
-        let m = ctx.measureText(c).width;
-        ctx.font = `${size}px "${FONT}"`;
-        for (const r of b.rows) m = Math.max(m, ctx.measureText(r[j] ?? '').width);
-        return m + 12;
-      });
-      const cw = fitColumns(natural, w);
-      const fitRows = Math.max(0, Math.floor((maxH - rowH) / rowH));
-      const rows = b.rows.length > fitRows ? [...b.rows.slice(0, Math.max(0, fitRows - 1)), [`… ${b.rows.length - Math.max(0, fitRows - 1)} more rows in the HTML page and JSON`]] : b.rows;
-      const drawRow = (cells: string[], yy: number, bold: boolean) => {
+      // Rows that fit below the header; past that, one line says where the rest is.
+      let fitRows = 0;
+      for (let used = heights[0]; fitRows < b.rows.length && used + heights[fitRows + 1] <= maxH; fitRows++) used += heights[fitRows + 1];
+      const cut = fitRows < b.rows.length;
+      const shown = cut ? Math.max(0, fitRows - 1) : b.rows.length;
+      const moreRow = [[`… ${b.rows.length - shown} more rows in the HTML page and JSON`]];
+      const drawRow = (lines: string[][], yy: number, bold: boolean) => {
         ctx.font = `${bold ? 'bold ' : ''}${size}px "${FONT}"`;
         let xx = x;
         for (let j = 0; j < ncol; j++) {
-          const text = cells[j] ?? '';
-          if (cells.length === 1 && j > 0) break;
-          const width = cells.length === 1 ? w : cw[j];
-          const right = (b.align?.[j] ?? 'left') === 'right' && cells.length > 1;
-          const t = fit(ctx, text, width - 10);
+          if (lines.length === 1 && j > 0) break;
+          const width = lines.length === 1 ? w : cw[j];
+          const right = (b.align?.[j] ?? 'left') === 'right' && lines.length > 1;
           ctx.textAlign = right ? 'right' : 'left';
-          ctx.fillText(t, right ? xx + width - 6 : xx + 4, yy + (rowH - size) / 2);
+          (lines[j] ?? ['']).forEach((t, k) => ctx.fillText(fit(ctx, t, width - 10), right ? xx + width - 6 : xx + 4, yy + size * 0.3 + k * lineH));
           xx += width;
         }
         ctx.textAlign = 'left';
       };
       ctx.fillStyle = '#eef1f5';
-      ctx.fillRect(x, y, w, rowH);
+      ctx.fillRect(x, y, w, heights[0]);
       ctx.fillStyle = INK;
-      drawRow(b.columns, y, true);
-      rows.forEach((r, i) => {
+      drawRow(cells[0], y, true);
+      let yy = y + heights[0];
+      const body = cells.slice(1, 1 + shown).map((c, i) => ({ c, h: heights[i + 1] }));
+      if (cut) body.push({ c: moreRow, h: lineH + size * 0.6 });
+      body.forEach(({ c, h }, i) => {
         if (i % 2 === 1) {
           ctx.fillStyle = '#f7f8fa';
-          ctx.fillRect(x, y + (i + 1) * rowH, w, rowH);
+          ctx.fillRect(x, yy, w, h);
         }
         ctx.fillStyle = INK;
-        drawRow(r, y + (i + 1) * rowH, false);
+        drawRow(c, yy, false);
+        yy += h;
       });
       ctx.strokeStyle = '#c9ced6';
       ctx.lineWidth = 0.6;
       ctx.beginPath();
-      ctx.moveTo(x, y + rowH);
-      ctx.lineTo(x + w, y + rowH);
+      ctx.moveTo(x, y + heights[0]);
+      ctx.lineTo(x + w, y + heights[0]);
       ctx.stroke();
-      return (rows.length + 1) * rowH + 4;
+      return yy - y + 4;
     }
   }
 }

@@ -2,6 +2,7 @@ import type { HurtsResult } from '../analysis/Hurts.js';
 import type { RidgeRow } from '../analysis/Ridge.js';
 import { report as msg } from '../messages.js';
 import { formatCost, formatFixed, formatNumber } from './formatNumber.js';
+import { thresholdText } from './reportTables.js';
 import type { CoverageSummary, MapSection, MapVariant, PlanSummary, ReportFacts } from './ReportModel.js';
 
 /** Prominence (in pooled standard errors) under which a peak is "inside seed noise" (about a one-sided 95% z level; common practice). */
@@ -51,7 +52,7 @@ function modelFindings(sec: MapSection): string[] {
     const p = last.peak!;
     const n = main.map.fixed.train_size;
     const ratio = typeof n === 'number' && n > 0 ? formatNumber(p.x / n, 3) : null;
-    out.push(msg.modelPeak(metricWords(main.map.metric), sec.y, fmt(last.y), fixed, sec.x, fmt(p.x), fmt(p.low), fmt(p.high), ratio, last.threshold === null ? null : fmt(last.threshold)));
+    out.push(msg.modelPeak(metricWords(main.map.metric), sec.y, fmt(last.y), fixed, sec.x, fmt(p.x), fmt(p.low), fmt(p.high), ratio, last.threshold === null ? null : thresholdText(last, sec.x)));
     if (withPeak.length >= 2) {
       const first = withPeak[0];
       const noneBefore = rows.some((r) => r.y < first.y && r.peak === null);
@@ -59,7 +60,8 @@ function modelFindings(sec: MapSection): string[] {
     }
   }
   // The interpolation threshold over training time (effective model complexity grows with epochs).
-  const withThr = rows.filter((r) => r.threshold !== null).sort((a, b) => a.y - b.y);
+  // A threshold at the sweep's edge is only a bound: it cannot show the threshold moving.
+  const withThr = rows.filter((r) => r.threshold !== null && !r.thresholdAtEdge).sort((a, b) => a.y - b.y);
   if (withThr.length >= 2 && withThr[0].threshold !== withThr[withThr.length - 1].threshold) {
     const a = withThr[0];
     const b = withThr[withThr.length - 1];

@@ -1,7 +1,8 @@
 import { cellMapSpec, cellRecords } from './cellMapSpec.js';
 import { escapeHtml, jsonForScript, scriptForInline } from './escapeHtml.js';
 import { formatCost, formatFixed, formatNumber } from './formatNumber.js';
-import { report as msg } from '../messages.js';
+import { pickedList, report as msg } from '../messages.js';
+import { metricLabel } from '../render/axisText.js';
 import { PAGE_SCRIPT } from './pageScript.js';
 import type { MapSection, ReportModel } from './ReportModel.js';
 import { factRows, hurtsTable, planGroups, planRows, PLAN_COLUMNS, PLAN_GROUP_COLUMNS, COVERAGE_COLUMNS, COVERAGE_GROUP_COLUMNS, coverageGroups, coverageRows } from './reportTables.js';
@@ -38,7 +39,8 @@ function sectionData(sec: MapSection) {
     kind: sec.kind,
     x: sec.x,
     y: sec.y,
-    metric: sec.variants[sec.main]?.map.metric ?? 'test_error',
+    // The metric's label as on the figures ("test error"), not the column name.
+    metric: metricLabel(sec.variants[sec.main]?.map.metric ?? 'test_error'),
     main: sec.main,
     variants: sec.variants.map((v) => ({
       label: v.label,
@@ -52,7 +54,7 @@ function sectionData(sec: MapSection) {
 }
 
 function variantMeta(map: MapSection['variants'][number]['map'], main: boolean): string {
-  const picked = map.picked.length ? ` · chosen by most data: ${map.picked.join(', ')}` : '';
+  const picked = map.picked.length ? ` · ${pickedList(map.picked, map.pickedTies)}` : '';
   // Only the main variant has an interpolated field on the page (the pictures below the map).
   const field = main ? ` · pictures below: ${map.method} interpolation (leave-one-out rmse ${formatNumber(map.loo.rmse)})` : '';
   return `${map.cells.length} measured cells · ${map.missing.length} missing${field}${picked}`;
@@ -140,7 +142,7 @@ export function htmlPage(opts: HtmlPageOptions): string {
 <body>
 <header>
 <h1>${esc(f.title)}</h1>
-<p class="sub">${esc(`${f.runs} runs · ${f.rows} logged rows · metric ${f.metric} · data of ${f.dataDate ?? 'unknown date'} · store ${f.storeHash ?? 'unknown'}`)}</p>
+<p class="sub">${esc(`${f.runs} runs · ${f.rows} logged rows · metric ${metricLabel(f.metric)} · data of ${f.dataDate ?? 'unknown date'} · store ${f.storeHash ?? 'unknown'}`)}</p>
 </header>
 <h2>Headline findings</h2>
 <ol class="findings">${model.findings.map((s) => `<li>${esc(s)}</li>`).join('')}</ol>

@@ -1,3 +1,5 @@
+import { numberFormatScript } from './formatNumber.js';
+
 /**
  * The report page's own script (plain ES2017, runs in the browser beside the inlined vega and
  * vega-lite builds). It compiles each map's vega-lite spec, draws it with vega.View, switches
@@ -14,18 +16,10 @@ export const PAGE_SCRIPT = String.raw`
   var api = { views: views, current: current, data: data, errors: [], ready: null, render: render, cellAt: cellAt };
   window.datlas = api;
 
+  // The tool's one number format (src/report/formatNumber.ts), its source embedded below.
+  ${numberFormatScript()}
   function fmt(v) {
-    if (v === null || v === undefined || typeof v !== 'number' || !isFinite(v)) return '–';
-    var a = Math.abs(v);
-    if (a >= 1e5) {
-      var e = Math.round(Math.log10(a));
-      if (Math.abs(a - Math.pow(10, e)) < 1e-9 * a) return (v < 0 ? '−' : '') + '1e' + e;
-      return v.toExponential(2).replace('e+', 'e');
-    }
-    if (Number.isInteger(v)) return String(v);
-    if (a >= 100) return String(Math.round(v));
-    if (a < 1e-3) return v.toExponential(2);
-    return String(Number(v.toPrecision(3)));
+    return formatNumber(typeof v === 'number' ? v : NaN);
   }
   function el(tag, text, cls) {
     var e = document.createElement(tag);

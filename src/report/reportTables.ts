@@ -22,6 +22,13 @@ export function factRows(f: ReportFacts): string[][] {
   return rows;
 }
 
+/** A threshold cell: the value, or a bound at the sweep's edge ("≥ 512 (at the edge)" along train size). */
+export function thresholdText(row: { threshold: number | null; thresholdAtEdge?: boolean }, x: string): string {
+  if (row.threshold === null) return formatNumber(null);
+  if (!row.thresholdAtEdge) return formatNumber(row.threshold);
+  return `${x === 'train_size' ? '≥' : '≤'} ${formatNumber(row.threshold)} (at the edge)`;
+}
+
 export const RIDGE_COLUMNS = (r: RidgeResult): string[] => [r.y, `peak ${r.x}`, 'interval', 'error', 'prominence', 'threshold'];
 
 export function ridgeRows(r: RidgeResult): string[][] {
@@ -31,7 +38,7 @@ export function ridgeRows(r: RidgeResult): string[][] {
     row.peak ? `${formatNumber(row.peak.low)}–${formatNumber(row.peak.high)}` : '',
     row.peak ? formatNumber(row.peak.error) : '',
     row.peak ? `${formatNumber(row.peak.prominence)} (${formatNumber(row.peak.prominenceSe, 2)} se)${row.noiseFrom === 'curve' ? ' curve' : ''}` : '',
-    formatNumber(row.threshold),
+    thresholdText(row, r.x),
   ]);
 }
 

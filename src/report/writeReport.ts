@@ -1,6 +1,6 @@
 import { mkdirSync, readdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { report as msg } from '../messages.js';
+import { pickedList, report as msg } from '../messages.js';
 import { renderSpec } from '../render/renderSpec.js';
 import { slicesSpec } from '../render/slicesSpec.js';
 import { writeMapImages } from '../render/writeMapImages.js';
@@ -40,6 +40,8 @@ export interface WriteReportOptions {
   outDir: string;
   /** Pixel ratio of the PNGs (default 2). */
   scale?: number;
+  /** Called as each stage starts (progress): "drawing the model-wise figures", "writing the PDF deck". */
+  onStage?: (stage: string) => void;
 }
 
 /** Writes beside, then renames: a reader never sees half a file. */
@@ -68,7 +70,8 @@ async function writeHurtsSlices(model: ReportModel, pngDir: string, scale: numbe
   const v = sample.variants.find((x) => x.map.fixed.label_noise === seg.fixed.label_noise && x.map.fixed.epochs === seg.fixed.epochs);
   if (!v) return null;
   const widths = [...new Set(model.hurts[0].segments.filter((x) => x.fixed.label_noise === seg.fixed.label_noise && x.fixed.epochs === seg.fixed.epochs).map((x) => x.fixed.width as number))].slice(0, 4);
-  const spec = slicesSpec(v.map, v.ridge, { rows: widths });
+  // Wide and low: it shares a slide with the segments' table.
+  const spec = slicesSpec(v.map, v.ridge, { rows: widths, width: 760, height: 250 });
   const png = (await renderSpec(spec, { format: 'png', scale })) as Buffer;
   writeAtomic(join(pngDir, 'hurts-slices.vl.json'), `${JSON.stringify(spec, null, 1)}\n`);
   writeAtomic(join(pngDir, 'hurts-slices.png'), png);
@@ -97,6 +100,7 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
 
   const figures: PageFigure[][] = [];
   for (const sec of model.maps) {
+    opts.onStage?.(`drawing the ${sec.kind}-wise figures`);
     const main = sec.variants[sec.main];
     const name = `map-${sec.kind}`;
     // The render stage's figures: measured cells (with key and warnings), slices, the
@@ -129,7 +133,7 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
         : [];
     const figs: PageFigure[] = [];
     const title = `${sec.kind[0].toUpperCase()}${sec.kind.slice(1)}-wise map: ${sec.x} × ${sec.y}`;
-    const picked = sec.chosen === 'peaks' ? ` (${msg.chosenPeaks})` : main.map.picked.length ? ` (chosen by most data: ${main.map.picked.join(', ')})` : '';
+    const picked = sec.chosen === 'peaks' ? ` (${msg.chosenPeaks})` : main.map.picked.length ? ` (${pickedList(main.map.picked, main.map.pickedTies)})` : '';
     const mapSub = `at ${formatFixed(main.map.fixed)}${picked} · ${main.map.cells.length} measured cells, ${main.map.missing.length} missing`;
     const side: DeckBlock[] = [];
     if (main.ridge) {
@@ -168,8 +172,9 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
     pages.push({
       title: 'Where more data hurts',
       subtitle: `${h.slices ?? '?'} train-size slices at ${formatFixed(h.fixed) || 'every epoch'}, α = ${formatNumber(h.alpha ?? 0.05)}; worst rise first`,
-      columns: hurtsPng ? [[table], [{ kind: 'image', png: hurtsPng }, { kind: 'text', text: msg.hurtsFigure, size: 9.5, color: '#5b6472' }]] : [[table]],
-      widths: hurtsPng ? [1.15, 1] : undefined,
+      // The table is short (a few segments): it goes on top and the chart takes the rest of the
+      // slide at full width, instead of a third of it beside the table.
+      columns: hurtsPng ? [[table, { kind: 'image', png: hurtsPng }, { kind: 'text', text: msg.hurtsFigure, size: 9.5, color: '#5b6472' }]] : [[table]],
     });
   }
   let coveragePng: Buffer | null = null;
@@ -210,9 +215,11 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
   }
 
   const pdfPath = join(outDir, 'report.pdf');
+  opts.onStage?.('writing the PDF deck');
   writeAtomic(pdfPath, await composeDeck({ pages, footer: `${f.title} · store ${f.storeHash ?? 'unknown'} · made by datlas ${f.generatedAt}` }));
 
   const htmlPath = join(outDir, 'report.html');
+  opts.onStage?.('writing the HTML page');
   writeAtomic(
     htmlPath,
     htmlPage({

@@ -38,8 +38,8 @@ describe('datlas coverage', () => {
     const r = runCli(['coverage', '--spec', 'sweep.yaml'], { cwd: dir });
     expect(r.code).toBe(0);
     expect(r.stdout).toContain('complete 67 · partial 1 · missing 3 · diverged 1');
-    expect(r.stdout).toContain('noise 0.2: width 64–256 × n 4,000, seed 2 missing');
-    expect(r.stdout).toContain('noise 0.2: width 16 × n 1,000, seed 1 partial (stopped at epoch 100 of 1,000)');
+    expect(r.stdout).toContain('noise 0.2: width 64–256 × n 4000, seed 2 missing');
+    expect(r.stdout).toContain('noise 0.2: width 16 × n 1000, seed 1 partial (stopped at epoch 100 of 1000)');
     expect(r.stdout).toContain('extra: 1 store run outside the spec (width 512: 1)');
   });
 

@@ -35,6 +35,12 @@ describe('datlas demo on the committed sample sweep', () => {
     expect(readFileSync(demo.planCsv, 'utf8').split('\n')[0]).toMatch(/^index,run,/);
   });
 
+  it('writes its spec as grid.yaml ("grid spec"), never sweep.yaml', () => {
+    expect(demo.spec).toBe(join(dir, 'out', 'grid.yaml'));
+    expect(readFileSync(demo.spec, 'utf8')).toMatch(/^# Demo grid spec/);
+    expect(existsSync(join(dir, 'out', 'sweep.yaml'))).toBe(false);
+  });
+
   it('finds the model-wise peak at width ≈ train size late in training and none early', () => {
     // Random features: the ridgeless peak sits at N ≈ n (Belkin, Hsu, Ma & Mandal 2019, P; REFERENCES.md §4),
     // and in this simulator it emerges with training time, absent up to epoch 1e3 (REFERENCES.md §7, D).

@@ -44,7 +44,7 @@ describe('datlas hurts', () => {
     const res = runCli(['hurts', '--store', store, '--at', 'width=64,epochs=4000']);
     expect(res.code).toBe(0);
     expect(res.stdout).toMatch(
-      /from n = 1,000 to n = 4,000 extra data raises test error by 0\.07 \(p [=<] [\d.e-]+, search-wide p [=<] [\d.]+\); it falls back below the n = 1,000 level at n ≈ 11,000/,
+      /from n = 1000 to n = 4000 extra data raises test error by 0\.07 \(p [=<] [\d.e-]+, search-wide p [=<] [\d.]+\); it falls back below the n = 1000 level at n ≈ 11k/,
     );
     const other = runCli(['hurts', '--store', store, '--at', 'width=32']);
     expect(other.code).toBe(0);

@@ -41,7 +41,7 @@ describe('datlas plan', () => {
   });
 
   it('a Slurm array whose task k runs the k-th planned run, and a budget in hours', () => {
-    const tpl = 'printf "<%s>\\n" {index} {run} {width} {train_size} {seed} {resume_from}';
+    const tpl = 'printf "<%s>\\n" {index} {run} {width} {train_size} {seed} {resume_from} {label_noise}';
     const r = runCli(['plan', '--spec', 'sweep.yaml', '--no-refine', '--budget', '0.5h', '--emit', 'slurm', '--command', tpl, '--out', 'next.sbatch', '--max-parallel', '2', '--quiet'], { cwd: dir });
     expect(r.code, r.stderr).toBe(0);
     const script = join(dir, 'next.sbatch');
@@ -59,20 +59,37 @@ describe('datlas plan', () => {
       const cells = lines[k + 1].split(',');
       const get = (c: string) => cells[header.indexOf(c)];
       expect(out.stdout.trimEnd().split('\n')).toEqual(
-        [String(k), get('run'), get('width'), get('train_size'), get('seed'), get('resume_from') || '0'].map((v) => `<${v}>`),
+        [String(k), get('run'), get('width'), get('train_size'), get('seed'), get('resume_from') || '0', get('label_noise')].map((v) => `<${v}>`),
       );
     }
   });
 
   it('--emit shell prints one quoted command per run; shell and slurm need --command', () => {
-    const r = runCli(['plan', '--spec', 'sweep.yaml', '--no-refine', '--emit', 'shell', '--command', 'train --w {width} --s {seed} --from {resume_from}'], { cwd: dir });
+    const r = runCli(['plan', '--spec', 'sweep.yaml', '--no-refine', '--emit', 'shell', '--command', 'train --w {width} --n {train_size} --ln {label_noise} --s {seed} --from {resume_from}'], { cwd: dir });
     expect(r.code, r.stderr).toBe(0);
     const cmds = r.stdout.split('\n').filter((l) => l.startsWith('train '));
     expect(cmds).toHaveLength(4);
-    expect(cmds).toContain('train --w 8 --s 2 --from 10');
+    expect(new Set(cmds).size).toBe(4);
+    expect(cmds).toContain('train --w 8 --n 4000 --ln 0.2 --s 2 --from 10');
     const none = runCli(['plan', '--spec', 'sweep.yaml', '--emit', 'slurm'], { cwd: dir });
     expect(none.code).toBe(2);
     expect(none.stderr).toContain('--command');
+  });
+
+  it('refuses (exit 2) a --command that leaves out a setting varying among the runs, unless --allow-collapse', () => {
+    const out = join(dir, 'dup.sh');
+    for (const emit of ['shell', 'slurm']) {
+      const r = runCli(['plan', '--spec', 'sweep.yaml', '--no-refine', '--emit', emit, '--command', 'train --w {width} --s {seed}', '--out', out], { cwd: dir });
+      expect(r.code).toBe(2);
+      expect(r.stderr).toContain('{train_size} (');
+      expect(r.stderr).toContain('{label_noise} (');
+      expect(r.stderr).not.toContain('internal error');
+    }
+    const ok = runCli(['plan', '--spec', 'sweep.yaml', '--no-refine', '--emit', 'shell', '--command', 'train --w {width} --s {seed}', '--allow-collapse'], { cwd: dir });
+    expect(ok.code, ok.stderr).toBe(0);
+    const cmds = ok.stdout.split('\n').filter((l) => l.startsWith('train '));
+    expect(cmds.length).toBeGreaterThan(0);
+    expect(new Set(cmds).size).toBe(cmds.length);
   });
 
   it('--init writes a commented example that parses, and will not overwrite it', () => {

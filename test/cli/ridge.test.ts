@@ -62,7 +62,7 @@ describe('datlas ridge', () => {
   it('says it plainly in text, and says when the noise came from a single-seed curve', () => {
     const res = runCli(['ridge', '--at', 'train_size=1000', '--store', store, '--boot', '200']);
     expect(res.code).toBe(0);
-    expect(res.stdout).toMatch(/epochs 1,000: peak at width ≈ [\d,]+ \(95% interval [\d,]+–[\d,]+\)/);
+    expect(res.stdout).toMatch(/epochs 1000: peak at width ≈ [\d.k]+ \(95% interval [\d.k]+–[\d.k]+\)/);
     expect(res.stdout).toMatch(/epochs 10: no significant peak/);
     const one = runCli(['ridge', '--store', single, '--boot', '200']);
     expect(one.code).toBe(0);

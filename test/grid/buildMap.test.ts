@@ -5,6 +5,7 @@ import { ORIGIN_INTERPOLATED, ORIGIN_MEASURED, ORIGIN_OUTSIDE } from '../../src/
 import type { RowRecord } from '../../src/store/tableFromRows.js';
 import { tableFromRows } from '../../src/store/tableFromRows.js';
 import { UserError } from '../../src/UserError.js';
+import { fixedLine } from '../../src/render/axisText.js';
 
 const WIDTHS = [4, 8, 16, 32, 64, 128];
 const EPOCHS = [1, 10, 100, 1000];
@@ -36,6 +37,10 @@ describe('buildMap', () => {
     expect(map.x.edges[1]).toBeCloseTo(Math.sqrt(4 * 8), 12);
     expect(map.fixed).toEqual({ label_noise: 0.2, train_size: 1000 });
     expect(map.picked).toEqual(['label_noise', 'train_size']);
+    // Noise 0 and 0.2 hold as many rows: 0.2 is only the tie-break, and the map says so.
+    expect(map.pickedTies).toEqual({ label_noise: 2 });
+    expect(fixedLine(map)).toContain('label noise 0.2 (largest of 2 levels with equal data)');
+    expect(fixedLine(map)).toContain('train size 1000 (most data)');
     expect(map.cells).toHaveLength(24);
     expect(map.missing).toEqual([]);
     expect(map.raster.value).toHaveLength(200);
@@ -55,6 +60,8 @@ describe('buildMap', () => {
     const given = buildMap(t, { method: 'linear', at: { label_noise: 0.2 } });
     expect(given.fixed.label_noise).toBe(0.2);
     expect(given.picked).toEqual(['train_size']);
+    // A real majority is no tie.
+    expect(buildMap(t, { method: 'linear' }).pickedTies).toEqual({});
   });
 
   it('lists missing grid points and diverged points, and marks the raster over them as interpolated', () => {

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { cpSync, existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { cpSync, existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -68,7 +68,8 @@ describe('datlas ingest', () => {
 
   it('escapes control characters of user text it prints (run names, values, paths)', () => {
     const name = 'esc\u001b]0;title\u0007.csv';
-    writeFileSync(join(dir, name), 'run,width,epoch,n,test_error\nr,8,1,100,\u001b[31mbad\n');
+    // One good row beside the bad one: an ingest that accepts nothing exits 1 (nothing accepted from any source).
+    writeFileSync(join(dir, name), 'run,width,epoch,n,test_error\nr,8,1,100,\u001b[31mbad\nr,8,2,100,0.5\n');
     const r = runCli(['ingest', name, '--store', 'se'], { cwd: dir });
     expect(r.code).toBe(0);
     for (const text of [r.stdout, r.stderr]) expect(text).not.toMatch(/[\u0000-\u0008\u000b-\u001f\u007f-\u009f]/);
@@ -112,5 +113,32 @@ describe('datlas ingest mapping options', () => {
     const bad = runCli(['ingest', 'pct.csv', '--set', 'train_size=lots', '--store', 's8'], { cwd: dir });
     expect(bad.code).toBe(2);
     expect(bad.stderr.trim()).toBe("datlas: --set train_size expects a number, got 'lots'");
+  });
+
+  it('exits 1 when no source gave a single row: a folder without logs, a grid spec; later commands say the store is empty', () => {
+    const folder = join(dir, 'not-logs');
+    mkdirSync(join(folder, 'report'), { recursive: true });
+    writeFileSync(join(folder, 'report', 'notes.csv'), 'slide,title\n1,intro\n2,maps\n');
+    writeFileSync(join(folder, 'summary.csv'), 'a,b\n1,2\n');
+    const r = runCli(['ingest', 'not-logs', '--store', 'empty-store'], { cwd: dir });
+    expect(r.code).toBe(1);
+    expect(r.stderr).toContain('nothing accepted from any source: 3 of 3 rows rejected');
+    noStack(r.stderr);
+    // A grid spec is named for what it is, not read as a table.
+    writeFileSync(join(dir, 'grid.yaml'), 'axes:\n  width: [4, 8]\n  train_size: [100]\nseeds: 2\nepochs: 100\n');
+    const spec = runCli(['ingest', 'grid.yaml', '--store', 'spec-store'], { cwd: dir });
+    expect(spec.code).toBe(1);
+    expect(spec.stderr.trim()).toBe('datlas: grid.yaml is a grid spec (the planned sweep), not a run log: give it to --spec of coverage, plan or report');
+    expect(existsSync(join(dir, 'spec-store'))).toBe(false);
+    const withLogs = runCli(['ingest', 'grid.yaml', 'messy', '--store', 'mixed-store', '--quiet'], { cwd: dir });
+    expect(withLogs.code, withLogs.stderr).toBe(0);
+    // The store written by the failed ingest holds no rows: every command that needs rows says so.
+    for (const cmd of [['report', '--out', 'empty-report'], ['map', '--kind', 'model'], ['ridge', '--kind', 'model'], ['hurts']]) {
+      const x = runCli([...cmd, '--store', 'empty-store'], { cwd: dir });
+      expect(x.code, cmd.join(' ')).toBe(1);
+      expect(x.stderr).toContain('the store is empty');
+      noStack(x.stderr);
+    }
+    expect(existsSync(join(dir, 'empty-report'))).toBe(false);
   });
 });

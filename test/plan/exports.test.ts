@@ -13,6 +13,7 @@ import { planJson } from '../../src/plan/planJson.js';
 import { planShell } from '../../src/plan/planShell.js';
 import { planSlurm } from '../../src/plan/planSlurm.js';
 import { shellQuote } from '../../src/plan/shellQuote.js';
+import { exportRuns, templateGap } from '../../src/plan/exportRuns.js';
 import { UserError } from '../../src/UserError.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'datlas-plan-'));
@@ -163,6 +164,64 @@ describe('Slurm array script', () => {
     const bad = { ...plan, runs: [{ ...runs[0], condition: 'two\nlines' }] };
     expect(() => planSlurm({ plan: bad, template: t, csvPath: csv, maxParallel: 1 })).toThrow(UserError);
     expect(() => planSlurm({ plan: { ...plan, runs: [] }, template: t, csvPath: csv, maxParallel: 1 })).toThrow(UserError);
+  });
+});
+
+describe('a template that leaves out a varying setting', () => {
+  // The demo's case: runs at noise 0.1 and 0.2 that differ in nothing else.
+  const twins: PlannedRun[] = [0.1, 0.2].flatMap((label_noise) =>
+    [0, 1].map((seed) => ({ ...runs[1], condition: '', label_noise, seed, width: 8, train_size: 1024, run: `w8-n1024-ln${label_noise}-s${seed}`, resume_from: null })),
+  );
+  const twinPlan: PlanResult = { ...plan, runs: twins, cost: twins.reduce((s, r) => s + r.cost, 0) };
+  const dropsNoise = parseTemplate('echo --width {width} --n {train_size} --seed {seed}');
+  const full = parseTemplate('echo --width {width} --n {train_size} --noise {label_noise} --seed {seed}');
+
+  /** Every command line a shell export runs, and every line the Slurm tasks run. */
+  const shellLines = (text: string) => text.split('\n').filter((l) => l.startsWith('echo '));
+  const slurmLines = (p: PlanResult, t: ReturnType<typeof parseTemplate>, allowCollapse = false) => {
+    const csv = join(dir, 'twins.csv');
+    writeFileSync(csv, planCsv(exportRuns({ plan: p, template: t, allowCollapse }).plan));
+    const sb = join(dir, 'twins.sbatch');
+    const text = planSlurm({ plan: p, template: t, csvPath: csv, maxParallel: 2, allowCollapse });
+    writeFileSync(sb, text);
+    const n = Number(/--array=0-(\d+)/.exec(text)![1]) + 1;
+    return Array.from({ length: n }, (_, k) => bashSafe(sb, { SLURM_ARRAY_TASK_ID: String(k) }).stdout.trimEnd());
+  };
+
+  it('is refused as a usage error naming the setting and its values', () => {
+    expect(templateGap(twinPlan, dropsNoise)).toEqual({ missing: [{ name: 'label_noise', values: ['0.1', '0.2'] }], duplicates: 2 });
+    for (const make of [() => planShell({ plan: twinPlan, template: dropsNoise }), () => slurmLines(twinPlan, dropsNoise)]) {
+      let err: unknown;
+      try {
+        make();
+      } catch (e) {
+        err = e;
+      }
+      expect(err).toBeInstanceOf(UserError);
+      expect((err as UserError).exitCode).toBe(2);
+      expect((err as UserError).message).toContain('{label_noise} (0.1, 0.2)');
+      expect((err as UserError).message).toContain('--allow-collapse');
+    }
+  });
+
+  it('a complete template exports every run, no two commands equal (shell and Slurm)', () => {
+    const sh = shellLines(planShell({ plan: twinPlan, template: full }));
+    expect(sh).toHaveLength(4);
+    expect(new Set(sh).size).toBe(4);
+    const sl = slurmLines(twinPlan, full);
+    expect(sl).toEqual(sh.map((l) => l.slice(5)));
+    expect(new Set(sl).size).toBe(4);
+  });
+
+  it('--allow-collapse launches each distinct command once (shell and Slurm)', () => {
+    const sh = shellLines(planShell({ plan: twinPlan, template: dropsNoise, allowCollapse: true }));
+    expect(sh).toEqual(['echo --width 8 --n 1024 --seed 0', 'echo --width 8 --n 1024 --seed 1']);
+    expect(slurmLines(twinPlan, dropsNoise, true)).toEqual(sh.map((l) => l.slice(5)));
+    expect(exportRuns({ plan: twinPlan, template: dropsNoise, allowCollapse: true }).collapsed).toBe(2);
+  });
+
+  it('ids ({run}, {index}) and {resume_from} are not settings: leaving them out is fine', () => {
+    expect(templateGap(plan, parseTemplate('echo {condition} {width} {seed}')).missing).toEqual([]);
   });
 });
 

@@ -50,7 +50,7 @@ describe('parseSpec', () => {
   it('names file, line and key of the first problem', () => {
     expect(fail('axes:\n  width: {from: 4, to: 8}\n  train_size: [10]\nseeds: 2\nepochs: 5\n')).toBe('sweep.yaml line 2: axes.width.count: is required');
     expect(fail('axes:\n  width: [4, 8]\n  train_size: [10]\n  depth: 3\nseeds: 2\nepochs: 5\n')).toBe(
-      'sweep.yaml line 4: axes.depth: unknown key (expected one of: width, train_size, label_noise)',
+      "sweep.yaml line 4: unknown key 'depth' in axes (expected one of: width, train_size, label_noise)",
     );
     expect(fail('axes:\n  width: [4, -8]\n  train_size: [10]\nseeds: 2\nepochs: 5\n')).toBe('sweep.yaml line 2: axes.width[1]: must be > 0');
     expect(fail('axes:\n  width: [4]\n  train_size: [10]\n  label_noise: [0, 1.5]\nseeds: 2\nepochs: 5\n')).toMatch(/^sweep.yaml line 4: axes.label_noise\[1\]: must be <= 1/);
@@ -61,5 +61,29 @@ describe('parseSpec', () => {
     expect(fail('axes:\n  width: [4]\n  train_size: [10]\nseeds: 2.5\nepochs: 3\n')).toMatch(/^sweep.yaml line 4: seeds: /);
     expect(fail('axes: [\n')).toMatch(/^sweep.yaml line \d+: not valid YAML or JSON/);
     expect(fail('{"axes": {"width": [4], "train_size": [10.5]}, "seeds": 2, "epochs": 5}')).toBe('sweep.yaml line 1: axes.train_size[0]: must be integer');
+  });
+
+  it('a misspelt key is an unknown key on its own line, with the nearest known key, at every level (ajv error paths)', () => {
+    const spec = (lines: string[]) => `${lines.join('\n')}\n`;
+    const base = ['# grid spec', 'name: demo', 'axes:', '  width: [4, 8]', '  train_size: [10]', '  label_noise: [0]', 'epochs: 5', 'seeds: 3'];
+    // The misspelt key replaces a required one: reported as unknown (line 8), not as "seeds is required".
+    expect(fail(spec([...base.slice(0, 7), 'sedes: 3']))).toBe("sweep.yaml line 8: unknown key 'sedes' (did you mean seeds?)");
+    expect(fail(spec(['nmae: demo', ...base.slice(2)]))).toBe("sweep.yaml line 1: unknown key 'nmae' (did you mean name?)");
+    expect(fail(spec(['axis:', ...base.slice(3)]))).toBe("sweep.yaml line 1: unknown key 'axis' (did you mean axes?)");
+    expect(fail(spec([...base.slice(0, 3), '  widht: [4, 8]', ...base.slice(4)]))).toBe("sweep.yaml line 4: unknown key 'widht' in axes (did you mean width?)");
+    expect(fail(spec([...base.slice(0, 4), '  train_szie: [10]', ...base.slice(5)]))).toBe("sweep.yaml line 5: unknown key 'train_szie' in axes (did you mean train_size?)");
+    expect(fail(spec([...base.slice(0, 5), '  label_nosie: [0]', ...base.slice(6)]))).toBe("sweep.yaml line 6: unknown key 'label_nosie' in axes (did you mean label_noise?)");
+    expect(fail(spec([...base.slice(0, 6), 'epoch: 5', 'seeds: 3']))).toBe("sweep.yaml line 7: unknown key 'epoch' (did you mean epochs?)");
+    expect(fail(spec([...base.slice(0, 7), 'seeds: 3', 'condtions: [adam]']))).toBe("sweep.yaml line 9: unknown key 'condtions' (did you mean conditions?)");
+    // Inside an axis generator: from, to, count, spacing, round.
+    const gen = (g: string) => spec([...base.slice(0, 3), '  width:', `    ${g}`, ...base.slice(4)]);
+    expect(fail(gen('{from: 4, to: 64, cuont: 5}'))).toBe("sweep.yaml line 5: unknown key 'cuont' in axes.width (did you mean count?)");
+    expect(fail(gen('{from: 4, to: 64, count: 5, spacnig: log}'))).toBe("sweep.yaml line 5: unknown key 'spacnig' in axes.width (did you mean spacing?)");
+    expect(fail(gen('{form: 4, to: 64, count: 5}'))).toBe("sweep.yaml line 5: unknown key 'form' in axes.width (did you mean from?)");
+    expect(fail(gen('{from: 4, to: 64, count: 5, rond: true}'))).toBe("sweep.yaml line 5: unknown key 'rond' in axes.width (did you mean round?)");
+    // Nothing near: the known keys are listed.
+    expect(fail(spec([...base, 'colour: red']))).toBe("sweep.yaml line 9: unknown key 'colour' (expected one of: name, axes, conditions, seeds, epochs)");
+    // JSON too (JSON is YAML 1.2): the line of the key.
+    expect(fail('{"axes": {"width": [4], "train_size": [10]},\n "sedes": 2, "epochs": 5}')).toBe("sweep.yaml line 2: unknown key 'sedes' (did you mean seeds?)");
   });
 });

@@ -33,8 +33,8 @@ function specs(): Record<string, TopLevelSpec> {
     noRidge: heatmapSpec(map, null),
     bigCells: heatmapSpec(fixtureMap({ nx: 60, ny: 60, rasterN: 10 }), null),
     facets: facetHeatmapSpec([
-      { map, ridge, label: 'label noise 20%' },
-      { map: one, ridge: fixtureRidge(one, { curve: true }), label: 'label noise 0%' },
+      { map, ridge, label: 'label noise 0.2' },
+      { map: one, ridge: fixtureRidge(one, { curve: true }), label: 'label noise 0' },
     ]),
     slices: slicesSpec(map, ridge, { rows: [1, 100, 4000] }),
   };
@@ -70,14 +70,14 @@ describe('heatmap and slices specs', () => {
     expect(markGroups(svg, 'diverged')[0].match(/<path/g)).toHaveLength(2);
     expect(svg).toContain('width (model size, log scale)');
     expect(svg).toContain('epochs (log scale)');
-    expect(svg).toContain('train size 4,000 (most data) · label noise 20% · 3 seeds per cell · method gp');
+    expect(svg).toContain('train size 4000 (most data) · label noise 0.2 · 3 seeds per cell · method gp');
     // Powers of two for width (the brief: readable ticks).
     for (const t of ['>2<', '>8<', '>32<', '>128<', '>512<']) expect(svg).toContain(t);
     // Key explains every mark drawn, and flags the weak peak (prominence 1.4 SE in row 6).
     expect(svg).toContain('missing cell, no finished run (3)');
     expect(svg).toContain('diverged run(s)');
     expect(svg).toContain('warning: not significant (prominence &lt; 2 standard errors)');
-    expect(svg).toContain('epochs 1,248');
+    expect(svg).toContain('epochs 1248');
   });
 
   it('draws the ridge through the analysis peaks, with a gap where a row has none', async () => {
@@ -120,8 +120,8 @@ describe('heatmap and slices specs', () => {
     const lo = Math.min(...[...map.cells, ...one.cells].map((c) => c.cell.stats.mean));
     expect(expected[0]).toBe(lo);
     const svg = (await renderSpec(all.facets, { format: 'svg' })) as string;
-    expect(svg).toContain('label noise 20%');
-    expect(svg).toContain('label noise 0%');
+    expect(svg).toContain('label noise 0.2');
+    expect(svg).toContain('label noise 0');
     expect(svg).toMatch(/warning: one seed per cell: peak interval from curve noise/);
     expect(markGroups(svg, 'cells')).toHaveLength(2);
     expect(svg).toContain('1–3 seeds per cell');

@@ -44,11 +44,11 @@ describe('datlas map --format png,svg,pdf', () => {
     ]);
     for (const f of files) expect(existsSync(join(out, f))).toBe(true);
     const svg = readFileSync(join(out, 'map-model.svg'), 'utf8');
-    expect(svg).toContain('label noise 20% · train size 500');
+    expect(svg).toContain('label noise 0.2 · train size 500');
     expect(svg).toContain('missing cell');
     const slices = readFileSync(join(out, 'map-model-slices.svg'), 'utf8');
     expect(slices).toContain('epochs 10');
-    expect(slices).toContain('epochs 1,000');
+    expect(slices).toContain('epochs 1000');
   });
 
   it('facets by label noise with --raster and another colour scheme; PNG scale is honoured', () => {
@@ -56,8 +56,8 @@ describe('datlas map --format png,svg,pdf', () => {
     const r = runCli(['map', '--store', store, '--out', out, '--format', 'png,svg', '--raster', '48x32', '--facet', 'label_noise', '--colors', 'cividis', '--png-scale', '1', '--no-ridge', '--quiet']);
     expect(r.code).toBe(0);
     const svg = readFileSync(join(out, 'map-model.svg'), 'utf8');
-    expect(svg).toContain('label noise 0%');
-    expect(svg).toContain('label noise 20%');
+    expect(svg).toContain('label noise 0');
+    expect(svg).toContain('label noise 0.2');
     expect(svg.match(/<image/g)!.length).toBeGreaterThanOrEqual(2);
     expect(svg).toContain('warning: ridge not computed');
     const spec = JSON.parse(readFileSync(join(out, 'map-model.vl.json'), 'utf8'));

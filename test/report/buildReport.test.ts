@@ -77,3 +77,45 @@ describe('buildReport', () => {
     expect(r.findings).toContain('1 of 125 runs diverged somewhere along their curve; their values are left out of the means (marked on the maps).');
   });
 });
+
+describe('buildReport, epoch-wise rows as curves', () => {
+  // Same answer as `datlas ridge` on the same store.
+  // Invented one-seed logs of 400 epochs (log-spaced 1..10^4) with evaluation noise and 1% one-epoch
+  // spikes: the epoch-wise ridge must test every logged epoch, as `datlas ridge` does, not the
+  // shown map's 100 (common practice: a spike is not a double-descent peak).
+  function curves(opts: { bump: boolean; noiseSeed: number }) {
+    let s = opts.noiseSeed * 7919 + 17;
+    const rnd = () => ((s = (s * 1103515245 + 12345) % 2147483648) / 2147483648);
+    const gauss = () => Math.sqrt(-2 * Math.log(rnd() + 1e-12)) * Math.cos(2 * Math.PI * rnd());
+    const rows = [];
+    for (const width of [16, 32, 64])
+      for (const train_size of [64, 128])
+        for (let i = 0; i < 400; i++) {
+          const epochs = Math.round(10 ** ((4 * i) / 399));
+          const le = Math.log10(epochs);
+          // Falling to 0.2 by epoch ~30; with the bump, a broad rise to ~0.29 over epochs 100–300.
+          let err = 0.2 + 0.3 * Math.exp(-le * 2) + (opts.bump ? 0.09 * Math.exp(-(((le - 2.3) / 0.3) ** 2)) : 0);
+          err += 0.004 * gauss() + (rnd() < 0.01 ? 0.05 : 0);
+          rows.push({ run: `w${width}-n${train_size}`, width, train_size, label_noise: 0.1, seed: 0, epochs, test_error: err, train_error: Math.max(0, 0.3 - le * 0.1) });
+        }
+    return tableFromRows(rows);
+  }
+  const epochRows = (t: ReturnType<typeof tableFromRows>) => {
+    const r = buildReport({ table: t, title: 'curves', boot: 100 });
+    return r.maps.find((m) => m.kind === 'epoch')!.variants.flatMap((v) => v.ridge?.rows ?? []);
+  };
+
+  it('reports no peak on falling curves with one-epoch spikes', () => {
+    for (const noiseSeed of [1]) for (const row of epochRows(curves({ bump: false, noiseSeed }))) expect(row.peak).toBeNull();
+  });
+
+  it('finds the broad rise over epochs 100–300', () => {
+    const rows = epochRows(curves({ bump: true, noiseSeed: 1 }));
+    const peaks = rows.filter((r) => r.peak !== null).map((r) => r.peak!.x);
+    expect(peaks.length).toBeGreaterThan(0);
+    for (const x of peaks) {
+      expect(x).toBeGreaterThan(80);
+      expect(x).toBeLessThan(450);
+    }
+  });
+});

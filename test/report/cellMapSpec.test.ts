@@ -26,6 +26,14 @@ describe('cellMapSpec', () => {
     expect(r.runs).toEqual(['w64-e1000-s0', 'w64-e1000-s1', 'w64-e1000-s2']);
   });
 
+  it('names the colour scale with the metric\'s label and formats it as the static figures do', () => {
+    const { map, ridge } = modelMapFixture();
+    const spec = JSON.stringify(cellMapSpec(map, ridge));
+    expect(spec).toContain('"title":"test error (mean of seeds)"');
+    expect(spec).not.toContain('"title":"test_error"');
+    expect(spec).toMatch(/"legend":\{"format":"\.[01]%"\}/);
+  });
+
   it('breaks the ridge line where a row has no significant peak', () => {
     const { map, ridge } = modelMapFixture();
     // Peaks at epochs 100 and 1000 only; drop the middle one: two separate stretches.

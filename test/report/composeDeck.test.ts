@@ -64,6 +64,20 @@ describe.skipIf(!hasPoppler && !process.env.CI)('composeDeck', () => {
     const shown = rows.filter((r) => new RegExp(`\\brun-${r[0]}\\b`).test(text)).length;
     expect(shown + Number(m![1])).toBe(80);
   });
+
+  it('wraps a long cell (the plan\'s "why") onto more lines instead of cutting it', async () => {
+    const why = 'more data hurts from n 64 to 256 (width 256, noise 0.2) is borderline: p = 0.031, alpha 0.05; two more seeds settle it';
+    const rows = [['seeds', '4', '0.41 s', 'label_noise 0.2 · width 256 · train_size 64, 256 · seeds 3, 4, 5, 6, 7, 8, 9, 10, 11, 12', why]];
+    const pdf = await composeDeck({ pages: [{ title: 'Proposed next runs', columns: [[{ kind: 'table', columns: ['reason', 'runs', 'cost', 'which runs', 'why'], rows, size: 9.5 }]] }] });
+    const file = join(dir, 'why.pdf');
+    writeFileSync(file, pdf);
+    const text = run('pdftotext', ['-raw', file, '-']);
+    // Every word of the reason is on the page (over several lines), none replaced by an ellipsis.
+    const flat = text.replace(/\s+/g, ' ');
+    for (const word of why.split(' ')) expect(flat).toContain(word);
+    expect(flat).toContain('settle it');
+    expect(flat).not.toContain('…');
+  });
 });
 
 describe('fitColumns', () => {

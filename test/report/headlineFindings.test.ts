@@ -18,6 +18,15 @@ describe('headlineFindings', () => {
     expect(f[3]).toBe('1 of 18 grid points of the model-wise map have no data (crossed on the map).');
   });
 
+  it('a threshold at the sweep\'s edge is quoted as a bound, never as a located threshold', () => {
+    const model = reportModelFixture();
+    const v = model.maps[0].variants[model.maps[0].main];
+    for (const r of v.ridge!.rows) if (r.threshold !== null) Object.assign(r, { threshold: 8, thresholdAtEdge: true });
+    const f = headlineFindings({ maps: model.maps, hurts: null, coverage: null, plan: null });
+    expect(f[0]).toContain('train error first reaches ε at width ≤ 8 (at the edge)');
+    expect(f.join(' ')).not.toContain('The interpolation threshold moves');
+  });
+
   it('reports the worst hurts segment with its size relative to the width and counts the other slices', () => {
     const seg = (width: number, rise: number, recovery: number | null) => ({
       fixed: { width, epochs: 1000, label_noise: 0.2, condition: '' },
