@@ -4,7 +4,7 @@
  * Messages are functions of the facts they report, and name file, line and field where they apply.
  */
 
-import { formatNumber } from './report/formatNumber.js';
+import { formatNumber } from './formatNumber.js';
 
 const fmtPath = (p: string) => (p === '-' ? 'stdin' : p);
 /** Counts and limits with thousands separators (8,388,608). */
@@ -241,7 +241,7 @@ export const mapMessages = {
 
 
 // ── analysis (ridge, threshold, hurts) ───────────────────────────────────────
-/** Numbers as everywhere else in the tool (src/report/formatNumber.ts). */
+/** Numbers as everywhere else in the tool (src/formatNumber.ts). */
 const fmtNum = (v: number): string => formatNumber(v);
 /** An interpolated size: two significant digits, because that is all the grid supports. */
 const fmtApprox = (v: number): string => fmtNum(Number(v.toPrecision(2)));

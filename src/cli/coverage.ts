@@ -5,7 +5,7 @@ import type { CommandSpec } from './CommandSpec.js';
 import { UserError, usageError } from '../UserError.js';
 import { general, planText } from '../messages.js';
 import type { RowTable } from '../store/RowTable.js';
-import { formatNumber } from '../report/formatNumber.js';
+import { formatNumber } from '../formatNumber.js';
 import type { SweepSpec } from '../plan/SweepSpec.js';
 
 interface CoverageArgs {

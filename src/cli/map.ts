@@ -1,7 +1,7 @@
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Argv } from 'yargs';
-import { formatNumber } from '../report/formatNumber.js';
+import { formatNumber } from '../formatNumber.js';
 import type { CommandSpec } from './CommandSpec.js';
 import { parseAt } from './parseAt.js';
 import { mapMessages as msg, pickWhy, render as renderMsg } from '../messages.js';

@@ -6,7 +6,7 @@ import { UserError, usageError } from '../UserError.js';
 import { general, planText } from '../messages.js';
 import { loadSpec, loadStore, writeOut, DEFAULT_STORE } from './coverage.js';
 import type { CostModel } from '../plan/costModel.js';
-import { formatNumber } from '../report/formatNumber.js';
+import { formatNumber } from '../formatNumber.js';
 import type { PlanResult } from '../plan/Plan.js';
 import type { SweepSpec } from '../plan/SweepSpec.js';
 

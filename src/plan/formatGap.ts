@@ -1,4 +1,4 @@
-import { formatNumber } from '../report/formatNumber.js';
+import { formatNumber } from '../formatNumber.js';
 import { contiguous } from './gapGroups.js';
 import type { GapGroup } from './gapGroups.js';
 import type { SweepSpec } from './SweepSpec.js';

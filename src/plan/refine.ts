@@ -1,4 +1,4 @@
-import { formatNumber } from '../report/formatNumber.js';
+import { formatNumber } from '../formatNumber.js';
 import { buildCells } from '../cells/buildCells.js';
 import type { Cell } from '../cells/Cell.js';
 import { tQuantile } from '../cells/tQuantile.js';

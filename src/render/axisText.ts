@@ -1,6 +1,6 @@
 import type { MapAxis, SweepMap } from '../grid/SweepMap.js';
 import type { Metric } from '../store/RowTable.js';
-import { formatNumber, numberExpr } from '../report/formatNumber.js';
+import { formatNumber, numberExpr } from '../formatNumber.js';
 import { pickWhy } from '../messages.js';
 
 /** Plain names of the sweep axes, as they appear in titles. */

@@ -1,4 +1,4 @@
-import { formatNumber, numberExpr } from '../report/formatNumber.js';
+import { formatNumber, numberExpr } from '../formatNumber.js';
 import type { TopLevelSpec } from 'vega-lite';
 import type { CoverageResult } from '../plan/coverage.js';
 import type { SweepSpec } from '../plan/SweepSpec.js';

@@ -1,4 +1,4 @@
-import { formatNumber } from '../report/formatNumber.js';
+import { formatNumber } from '../formatNumber.js';
 import type { TopLevelSpec } from 'vega-lite';
 import type { RidgeResult } from '../analysis/Ridge.js';
 import type { MapAxis, SweepMap } from '../grid/SweepMap.js';

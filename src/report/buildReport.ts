@@ -13,7 +13,7 @@ import type { SweepSpec } from '../plan/SweepSpec.js';
 import { coverageSpec } from '../render/coverageSpec.js';
 import { defaultMetric } from '../store/RowTable.js';
 import type { Metric, RowTable } from '../store/RowTable.js';
-import { formatFixed, formatNumber } from './formatNumber.js';
+import { formatFixed, formatNumber } from '../formatNumber.js';
 import { headlineFindings, metricWords, variantCautions } from './headlineFindings.js';
 import type { CoverageSummary, MapSection, MapVariant, PlanSummary, ReportFacts, ReportModel } from './ReportModel.js';
 import { rowConfigKey, rowText } from '../store/rowKeys.js';

@@ -3,7 +3,7 @@ import type { RidgeResult } from '../analysis/Ridge.js';
 import type { MapAxis, SweepMap } from '../grid/SweepMap.js';
 import { axisLabel, axisTicks, metricFormat, metricLabel, tickLabelExpr } from '../render/axisText.js';
 import { STYLE } from '../render/figureKey.js';
-import { formatFixed } from './formatNumber.js';
+import { formatFixed } from '../formatNumber.js';
 
 /** One measured cell as the page's hover read-out needs it. */
 export interface CellRecord {

@@ -1,7 +1,7 @@
 import type { HurtsResult } from '../analysis/Hurts.js';
 import type { RidgeRow } from '../analysis/Ridge.js';
 import { report as msg } from '../messages.js';
-import { formatCost, formatFixed, formatNumber } from './formatNumber.js';
+import { formatCost, formatFixed, formatNumber } from '../formatNumber.js';
 import { thresholdText } from './reportTables.js';
 import type { CoverageSummary, MapSection, MapVariant, PlanSummary, ReportFacts } from './ReportModel.js';
 

@@ -1,6 +1,6 @@
 import { cellMapSpec, cellRecords } from './cellMapSpec.js';
 import { escapeHtml, jsonForScript, scriptForInline } from './escapeHtml.js';
-import { formatCost, formatFixed, formatNumber } from './formatNumber.js';
+import { formatCost, formatFixed, formatNumber } from '../formatNumber.js';
 import { pickedList, report as msg } from '../messages.js';
 import { metricLabel } from '../render/axisText.js';
 import { PAGE_SCRIPT } from './pageScript.js';

@@ -1,4 +1,4 @@
-import { numberFormatScript } from './formatNumber.js';
+import { numberFormatScript } from '../formatNumber.js';
 
 /**
  * The report page's own script (plain ES2017, runs in the browser beside the inlined vega and
@@ -16,7 +16,7 @@ export const PAGE_SCRIPT = String.raw`
   var api = { views: views, current: current, data: data, errors: [], ready: null, render: render, cellAt: cellAt };
   window.datlas = api;
 
-  // The tool's one number format (src/report/formatNumber.ts), its source embedded below.
+  // The tool's one number format (src/formatNumber.ts), its source embedded below.
   ${numberFormatScript()}
   function fmt(v) {
     return formatNumber(typeof v === 'number' ? v : NaN);

@@ -1,6 +1,6 @@
 import type { HurtsResult } from '../analysis/Hurts.js';
 import type { RidgeResult } from '../analysis/Ridge.js';
-import { formatCost, formatFixed, formatNumber } from './formatNumber.js';
+import { formatCost, formatFixed, formatNumber } from '../formatNumber.js';
 import type { CoverageSummary, PlanSummary, ReportFacts } from './ReportModel.js';
 
 /** The tables of the report as rows of text, shared by the PDF deck and the HTML page. */

@@ -6,7 +6,7 @@ import { slicesSpec } from '../render/slicesSpec.js';
 import { writeMapImages } from '../render/writeMapImages.js';
 import { composeDeck } from './composeDeck.js';
 import type { DeckBlock, DeckPage } from './composeDeck.js';
-import { formatCost, formatFixed, formatNumber } from './formatNumber.js';
+import { formatCost, formatFixed, formatNumber } from '../formatNumber.js';
 import { htmlPage } from './htmlPage.js';
 import type { PageFigure } from './htmlPage.js';
 import { readRuntime } from './readRuntime.js';

@@ -20,7 +20,7 @@ describe('--at', () => {
   it('given twice for one axis: says which and both values', () => {
     expect(() => parseAt(['width=8', 'width=16'])).toThrow(new UserError('--at width given twice (8 and 16); give one value per axis', 2));
     expect(parseAt(['width=8', 'width=8'])).toEqual({ width: 8 });
-    // Values as the tool prints them (SI, src/report/formatNumber.ts) read back.
+    // Values as the tool prints them (SI, src/formatNumber.ts) read back.
     expect(parseAt(['epochs=1M,train_size=16.4k', 'width=2G'])).toEqual({ epochs: 1e6, train_size: 16400, width: 2e9 });
     expect(parseAt(['condition=adam'])).toEqual({ condition: 'adam' });
   });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatNumber, numberExpr, numberFormatScript } from '../../src/report/formatNumber.js';
+import { formatNumber, numberExpr, numberFormatScript } from '../src/formatNumber.js';
 
 // SI prefixes k, M, G (BIPM, The International System of Units, 9th ed., Table 7); 3 significant
 // digits as in the ridge tables (common practice).
