@@ -13,6 +13,8 @@
  *   npm run bench -- --against /tmp/old --reps 6   interleaved A/B: each repetition runs the other checkout's
  *                                        CLI and this one back to back (order alternating), medians side by side
  *
+ * `--only boundary` times the library's arquero boundary in one process (bench/boundary.mjs).
+ *
  * Data goes to bench/work/ (generated, not committed), results to bench/out/results.json.
  */
 import { execFileSync } from 'node:child_process';
@@ -219,7 +221,7 @@ async function main(): Promise<void> {
   ensureBuilt();
 
   const want = (name: string) => !only || only.includes(name);
-  const needs1m = ['ingest', 'reingest', 'map'].some(want);
+  const needs1m = ['ingest', 'reingest', 'map', 'boundary'].some(want);
   const sweep1m = join(work, 'sweep-1m');
   if (needs1m) {
     const t0 = performance.now();
@@ -296,6 +298,16 @@ async function main(): Promise<void> {
     process.stderr.write(`${step.name}: ${step.what}\n`);
     results.push(await runStep(step));
   }
+  let boundary: Record<string, number> & { filter: string } | null = null;
+  if (want('boundary')) {
+    // The library's arquero boundary, in one process on the 1M-row store (bench/boundary.mjs).
+    process.stderr.write('boundary: store → arquero → typed arrays, in process\n');
+    if (!existsSync(join(store, 'manifest.json'))) {
+      if (!existsSync(sweep1m)) makeSweep(sweep1m, SWEEP_1M, (l) => process.stderr.write(`${l}\n`));
+      execFileSync(process.execPath, [entry, 'ingest', sweep1m, '--store', store, '--quiet'], { cwd: root });
+    }
+    boundary = JSON.parse(execFileSync(process.execPath, [join(root, 'bench/boundary.mjs'), store, String(Math.max(reps, 5))], { cwd: root, encoding: 'utf8' })) as Record<string, number> & { filter: string };
+  }
   const loadEnd = loadavg();
 
   const head = ['step', 'median wall', 'target', 'rows/s', 'peak RSS', 'cpu s', 'load', 'ok', ...(againstRoot ? ['against: wall', 'cpu s', 'change'] : [])];
@@ -322,8 +334,18 @@ async function main(): Promise<void> {
   for (const r of rows) console.log(line(r));
   console.log(`\nload average at end: ${loadEnd.map((l) => l.toFixed(2)).join(' ')}${loadEnd[0] > 1.5 ? ' (machine busy: figures noisy)' : ''}`);
   console.log('cpu s = user + system seconds of the child (above the wall time: more than one core worked)');
+  if (boundary) {
+    const b = boundary;
+    console.log(`\narquero boundary on ${b.rows.toLocaleString('en')} rows (median of ${b.reps}, in process):`);
+    console.log(`  openStore (read rows.arrow, load arquero)         ${b.openStoreFirstMs} ms`);
+    console.log(`  store.toArquero()                                  ${b.toArqueroMs} ms (first call ${b.toArqueroFirstMs} ms: decodes the text columns)`);
+    console.log(`  arquero table → typed arrays, all rows             ${b.fromArqueroMs} ms (${b.fromArqueroMsPer1M} ms per 1M rows)`);
+    console.log(`  filter verb (${b.filter})                 ${b.filterVerbMs} ms → ${b.filteredRows.toLocaleString('en')} rows`);
+    console.log(`  filtered arquero table → typed arrays              ${b.fromFilteredMs} ms (${b.fromFilteredMsPer1MActive} ms per 1M active rows)`);
+    console.log(`  buildMap (linear, 64×64, no ridge): from the store ${b.buildMapStoreMs} ms, from the arquero table ${b.buildMapArqueroMs} ms`);
+  }
 
-  const json = { date: new Date().toISOString(), label, commit, cliRoot, against: againstRoot ? { root: againstRoot, commit: againstCommit } : null, machine, loadStart, loadEnd, steps: results };
+  const json = { date: new Date().toISOString(), label, commit, cliRoot, against: againstRoot ? { root: againstRoot, commit: againstCommit } : null, machine, loadStart, loadEnd, steps: results, boundary };
   writeFileSync(join(outDir, 'results.json'), `${JSON.stringify(json, null, 2)}\n`);
   if (label) writeFileSync(join(outDir, `results-${label}.json`), `${JSON.stringify(json, null, 2)}\n`);
   console.log(`wrote ${join('bench/out', 'results.json')}${label ? ` and bench/out/results-${label}.json` : ''}`);

@@ -177,6 +177,15 @@ export const storeText = {
     `store ${dir}: rows.arrow and manifest.json come from different writes (a file copied in by hand?); move the store aside and ingest the logs again`,
 };
 
+// ── library (src/api) ────────────────────────────────────────────────────────
+/** Messages for scripts that call the library. */
+export const apiText = {
+  notRows: (what: string) => `expected rows: a store (openStore), an arquero table (store.toArquero()) or a RowTable, got ${what}`,
+  arqueroColumns: (missing: string[]) =>
+    `the arquero table lacks the column${missing.length === 1 ? '' : 's'} ${missing.join(', ')} (start from store.toArquero() and keep the canonical columns)`,
+  notAMap: (what: string) => `expected a map (from buildMap, or a map file read with JSON.parse), got ${what}`,
+};
+
 // ── simulate ─────────────────────────────────────────────────────────────────
 export const simulateMessages = {
   badPreset: (name: string, names: readonly string[]) => `--preset must be one of ${names.join(', ')}, got '${name}'`,

@@ -1,5 +1,6 @@
 import type { Metric, RowTable } from '../store/RowTable.js';
 import { defaultMetric, textReader } from '../store/RowTable.js';
+import { rowConfigKey } from '../store/rowKeys.js';
 import type { Cell } from './Cell.js';
 import { seedStats } from './seedStats.js';
 
@@ -104,7 +105,8 @@ export function buildCells(table: RowTable, opts: BuildCellsOptions = {}): Cell[
     if (!rows) byRun.set(id, (rows = []));
     rows.push(i);
   }
-  const configKey = (i: number) => `${conditionOf(i)}\u0000${table.label_noise[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}`;
+  const text = { run: runOf, condition: conditionOf };
+  const configKey = (i: number) => rowConfigKey(table, text, i);
   const sameConfig = (i: number, j: number) =>
     conditionOf(i) === conditionOf(j) &&
     Object.is(table.label_noise[i], table.label_noise[j]) &&

@@ -7,7 +7,6 @@ import { general, planText } from '../messages.js';
 import type { RowTable } from '../store/RowTable.js';
 import { formatNumber } from '../formatNumber.js';
 import type { SweepSpec } from '../plan/SweepSpec.js';
-import type { CoverageResult } from '../plan/coverage.js';
 
 interface CoverageArgs {
   spec?: string;
@@ -56,26 +55,6 @@ export function writeOut(path: string, data: string | Buffer): void {
   writeFileSync(path, data);
 }
 
-function coverageJson(cov: CoverageResult, spec: SweepSpec) {
-  return {
-    spec: spec.file,
-    epochs: spec.epochs,
-    counts: cov.counts,
-    runs: cov.runs.map((r) => ({
-      condition: r.condition,
-      width: r.width,
-      train_size: r.train_size,
-      label_noise: r.label_noise,
-      seed: r.seed,
-      status: r.status,
-      epoch: r.epoch,
-      run: r.run,
-    })),
-    extra: cov.extra,
-    superseded: cov.superseded,
-  };
-}
-
 export const command: CommandSpec<CoverageArgs> = {
   usage: 'coverage',
   describe: 'which planned runs are complete, partial, missing or diverged',
@@ -103,6 +82,7 @@ export const command: CommandSpec<CoverageArgs> = {
       if (!args.quiet) process.stderr.write(`${general.wroteFile(args.out)}\n`);
     }
     if (args.json) {
+      const { coverageJson } = await import('../api/coverage.js');
       process.stdout.write(`${JSON.stringify(coverageJson(cov, spec))}\n`);
       return 0;
     }

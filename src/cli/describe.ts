@@ -1,4 +1,3 @@
-import { existsSync, readFileSync } from 'node:fs';
 import type { Argv } from 'yargs';
 import type { CommandSpec } from './CommandSpec.js';
 import { layoutText } from '../messages.js';
@@ -16,13 +15,10 @@ export const command: CommandSpec<DescribeArgs> = {
   builder: (y: Argv) => y.option('store', { type: 'string', default: 'atlas-store', describe: 'store directory' }),
   async run(args) {
     const { readStore } = await import('../store/readStore.js');
-    const { storeFiles } = await import('../store/storeFiles.js');
-    const { parseRejected } = await import('../store/rejectedCsv.js');
+    const { readRejected } = await import('../store/rejectedCsv.js');
     const { describeStore } = await import('../store/describeStore.js');
     const { table, manifest } = await readStore(args.store);
-    const rejectedPath = storeFiles(args.store).rejected;
-    const rejects = existsSync(rejectedPath) ? parseRejected(readFileSync(rejectedPath, 'utf8')) : [];
-    const d = describeStore(table, manifest, rejects);
+    const d = describeStore(table, manifest, readRejected(args.store));
     if (args.json) {
       process.stdout.write(`${JSON.stringify(d)}\n`);
       return 0;

@@ -184,8 +184,8 @@ export const command: CommandSpec<IngestArgs> = {
     }
 
     if (args.json) {
-      const { rejects, notes, missing, ...counts } = r;
-      process.stdout.write(`${JSON.stringify({ ...counts, store: args.store, missing, rejectedFile: `${args.store}/rejected.csv` })}\n`);
+      const { ingestSummary } = await import('../api/ingest.js');
+      process.stdout.write(`${JSON.stringify(ingestSummary(r, args.store))}\n`);
     } else {
       const out: string[] = [];
       out.push(r.read === 0 && r.unchanged === r.sources ? ingestText.noChange : ingestText.summary(r));

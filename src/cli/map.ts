@@ -171,22 +171,8 @@ export const command: CommandSpec<MapArgs> = {
 
     const ridgeRows = ridge ? { total: ridge.rows.length, withPeak: ridge.rows.filter((r) => r.peak).length } : null;
     if (args.json) {
-      const measured = map.cells.filter((c) => c.cell.stats.n > 0).map((c) => c.cell.stats.n).sort((a, b) => a - b);
-      const out = {
-        map: map.kind,
-        x: { name: map.x.name, scale: map.x.scale, values: map.x.values },
-        y: { name: map.y.name, scale: map.y.scale, values: map.y.values },
-        metric: map.metric,
-        fixed: map.fixed,
-        picked: map.picked,
-        method: map.method,
-        loo: map.loo,
-        cells: { measured: measured.length, missing: map.missing.length, diverged: map.diverged.length },
-        seeds: measured.length ? { min: measured[0], median: measured[Math.floor(measured.length / 2)], max: measured[measured.length - 1] } : null,
-        ridge: ridgeRows,
-        notes: map.notes ?? [],
-        files,
-      };
+      const { mapSummary } = await import('../api/mapSummary.js');
+      const out = mapSummary(map, ridgeRows, files);
       process.stdout.write(`${JSON.stringify(out, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v))}\n`);
     } else {
       process.stdout.write(`${summary(map, ridgeRows, files).join('\n')}\n`);

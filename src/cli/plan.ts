@@ -32,19 +32,8 @@ interface PlanArgs {
   allowCollapse: boolean;
 }
 
-const UNIT_SECONDS: Record<string, number> = { s: 1, m: 60, h: 3600, d: 86400 };
-
 /** --budget: a plain number in the model's units, or a time (90m, 48h, 2d) when costs are seconds. */
-export function parseBudget(text: string | undefined, model: CostModel): number | null {
-  if (text === undefined) return null;
-  const m = /^\s*(\d+(?:\.\d*)?|\.\d+)(?:e([+-]?\d+))?\s*([smhd]?)\s*$/i.exec(String(text));
-  if (!m) throw usageError(planText.badBudget(String(text)));
-  const v = Number(m[1]) * 10 ** Number(m[2] ?? 0);
-  const unit = m[3].toLowerCase();
-  if (!unit) return v;
-  if (model.units !== 'seconds') throw usageError(planText.budgetNeedsSeconds(String(text)));
-  return v * UNIT_SECONDS[unit];
-}
+export { parseBudget } from '../plan/parseBudget.js';
 
 const sig = (v: number) => formatNumber(v);
 const num = (v: number) => formatNumber(v, 4);
@@ -141,41 +130,12 @@ export const command: CommandSpec<PlanArgs> = {
     const spec = await loadSpec(args.spec);
     const table = await loadStore({ store: args.store, emptyIfAbsent: true, quiet: args.quiet });
 
-    const [{ coverage }, { storeRuns }, { fitCostModel }, { planRuns }] = await Promise.all([
-      import('../plan/coverage.js'),
-      import('../plan/storeRuns.js'),
-      import('../plan/costModel.js'),
-      import('../plan/planRuns.js'),
-    ]);
-    const cov = coverage(table, spec);
-    const model = fitCostModel({
-      runs: storeRuns(table),
-      reference: { width: spec.axes.width[0], train_size: spec.axes.train_size[0], epochs: spec.epochs },
+    const { composePlan } = await import('../plan/composePlan.js');
+    const { plan } = composePlan({
+      table, spec, budget: args.budget, maxRuns: args.maxRuns ?? null, refine: args.refine, resolution: args.resolution,
+      resume: template ? template.resumes : true, rerunDiverged: !args.skipDiverged,
     });
-    const budget = parseBudget(args.budget, model);
-    let candidates: import('../plan/refine.js').Candidate[] = [];
-    const notes: string[] = [];
-    if (args.refine && table.length > 0) {
-      const { proposeRefinements } = await import('../plan/refine.js');
-      const ref = proposeRefinements({ table, spec, resolution: args.resolution });
-      candidates = ref.candidates;
-      if (ref.peaks.length) notes.push(planText.refinePeaks(ref.peaks.length, ref.peaks.filter((p) => p.significant).length));
-      const count = (st: string) => ref.slices.filter((x) => x.status === st).length;
-      if (ref.done) notes.push(planText.stopLocated(count('located'), ref.slices.length, args.resolution, count('no-peak')));
-      else if (ref.slices.length) notes.push(planText.refineStatus(count('located'), count('refining'), count('no-peak'), args.resolution));
-      notes.push(...ref.notes);
-    }
-    const plan = planRuns({
-      spec,
-      coverage: cov,
-      model,
-      candidates,
-      budget,
-      maxRuns: args.maxRuns ?? null,
-      resume: template ? template.resumes : true,
-      rerunDiverged: !args.skipDiverged,
-    });
-    plan.notes.push(...notes);
+    const model = plan.model;
 
     if (args.emit) {
       const { planCsv } = await import('../plan/planCsv.js');

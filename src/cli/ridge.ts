@@ -1,11 +1,13 @@
 import type { Argv } from 'yargs';
 import type { RidgeResult } from '../analysis/Ridge.js';
-import type { MapKind, SweepMap } from '../grid/SweepMap.js';
+import type { MapKind } from '../grid/SweepMap.js';
 import { analysisText as t } from '../messages.js';
 import type { Metric } from '../store/RowTable.js';
 import { usageError } from '../UserError.js';
 import type { CommandSpec } from './CommandSpec.js';
 import { parseAt } from './parseAt.js';
+// The --json object is the library's (findRidge in src/api), so the two cannot drift.
+import { ridgeJson } from '../api/ridgeJson.js';
 
 interface RidgeArgs {
   kind: MapKind;
@@ -24,11 +26,6 @@ interface RidgeArgs {
 /** Rejects non-finite or out-of-range numbers with a usage error naming the flag. */
 export function checkNumber(flag: string, v: number, ok: (v: number) => boolean, what: string): void {
   if (!Number.isFinite(v) || !ok(v)) throw usageError(t.badNumber(flag, String(v), what));
-}
-
-/** The ridge as DESIGN.md §6 JSON (plus notes and the choices made). */
-function ridgeJson(r: RidgeResult, map: SweepMap) {
-  return { ...r, picked: map.picked, notes: map.notes ?? [] };
 }
 
 function ridgeText(r: RidgeResult): string {

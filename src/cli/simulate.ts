@@ -149,7 +149,8 @@ export const command: CommandSpec<SimulateArgs> = {
     const seconds = (performance.now() - started) / 1000;
     const runs = new Set(table.run).size;
     if (args.json) {
-      process.stdout.write(JSON.stringify({ preset, out, shape, runs, rows: table.length, files: files.length, workers, seconds: Number(seconds.toFixed(3)) }) + '\n');
+      const { simulateSummary } = await import('../api/simulate.js');
+      process.stdout.write(JSON.stringify(simulateSummary({ preset, out, shape, table, files: files.length, workers, seconds })) + '\n');
     } else {
       process.stdout.write(t.wrote(runs, table.length, files.length, out, seconds, shape) + '\n');
       if (!args.quiet) {

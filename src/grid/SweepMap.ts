@@ -80,6 +80,8 @@ export interface SweepMap {
   raster: Raster;
   /** Things a reader should know (dropped cells, thinned epochs, heavy tails, fit details). */
   notes?: string[];
+  /** The notes (also in `notes`) that describe the interpolator's fit, not the data: analyses of the cells leave them out. */
+  fitNotes?: string[];
   /** Fitted parameters of the method used (e.g. Gaussian-process length-scales in normalised units). */
   fit?: Record<string, number>;
   /** The epochs every run was aligned to (when epochs is a map axis or fixed). */

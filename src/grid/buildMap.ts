@@ -4,6 +4,7 @@ import { buildCells } from '../cells/buildCells.js';
 import { mapMessages as msg } from '../messages.js';
 import type { Metric, RowTable } from '../store/RowTable.js';
 import { AXES, defaultMetric, textReader, textValues } from '../store/RowTable.js';
+import { eachRunKey } from '../store/rowKeys.js';
 import { UserError, usageError } from '../UserError.js';
 import { cellEdges, detectScale, fromScale, toScale } from './axisScale.js';
 import { gaussianProcessField } from './gaussianProcessField.js';
@@ -104,25 +105,14 @@ function fitMethod(method: MethodName, p: ScatterPoints): FittedField {
 function chooseEpochs(table: RowTable, rows: Int32Array, max: number, notes: string[]): number[] {
   const perEpoch = new Map<number, Set<string>>();
   const runs = new Set<string>();
-  const run = textReader(table, 'run');
-  // A run's rows are contiguous: its id string is built once per block, not once per row.
-  let id = '';
-  let lastRow = -2;
-  for (let r = 0; r < rows.length; r++) {
-    const i = rows[r];
+  eachRunKey(table, rows, (id, i) => {
     const e = table.epochs[i];
-    if (!Number.isFinite(e)) continue;
-    const p = lastRow;
-    if (!(p >= 0 && run(i) === run(p) && table.width[i] === table.width[p] && table.train_size[i] === table.train_size[p] &&
-      Object.is(table.seed[i], table.seed[p]))) {
-      id = `${run(i)}\u0000${table.width[i]}\u0000${table.train_size[i]}\u0000${table.seed[i]}`;
-    }
-    lastRow = i;
+    if (!Number.isFinite(e)) return;
     runs.add(id);
     let s = perEpoch.get(e);
     if (!s) perEpoch.set(e, (s = new Set()));
     s.add(id);
-  }
+  });
   const all = [...perEpoch.keys()].sort((a, b) => a - b);
   if (all.length <= max) return all;
   const common = all.filter((e) => perEpoch.get(e)!.size * 2 >= runs.size);
@@ -152,59 +142,84 @@ function evenly(n: number): Float64Array {
   return Float64Array.from({ length: n }, (_, k) => (n === 1 ? 0 : k / (n - 1)));
 }
 
-/**
- * A map: the metric over two axes with every other axis (and the condition) fixed, from the
- * seed-aggregated cells, interpolated on a regular raster in the transformed plane.
- * Fixed values not given in `at` are picked — the value with the most rows, ties to the largest —
- * and listed in `picked`. `auto` picks the method with the lowest leave-one-out RMSE.
- */
-export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
+/** The sweep's conditions, parsed once: their keys (weight_decay, optimizer, ...) can be map axes (numeric ones) or fixed with `at`. */
+interface Conditions {
+  values: string[];
+  parsed: Map<string, Map<string, string>>;
+  /** Keys that are not the four axes nor `condition` itself, sorted. */
+  keys: string[];
+  numericKeys: string[];
+  isKey(name: string): boolean;
+  keyValue(condition: string, key: string): number | string | undefined;
+}
+
+function readConditions(table: RowTable): Conditions {
+  const parsed = new Map<string, Map<string, string>>();
+  const values = textValues(table, 'condition');
+  for (const c of values) parsed.set(c, parseCondition(c));
+  const keyValues = new Map<string, string[]>();
+  for (const m of parsed.values()) for (const [k, v] of m) keyValues.set(k, [...(keyValues.get(k) ?? []), v]);
+  const keys = [...keyValues.keys()].filter((k) => !(FIXABLE as readonly string[]).includes(k)).sort();
+  const numericKeys = keys.filter((k) => keyValues.get(k)!.every((v) => NUMBER.test(v)));
+  return {
+    values, parsed, keys, numericKeys,
+    isKey: (n) => keys.includes(n),
+    keyValue: (c, key) => {
+      const v = parsed.get(c)!.get(key);
+      return v === undefined ? undefined : NUMBER.test(v) ? Number(v) : v;
+    },
+  };
+}
+
+/** Step 1: which axes the map is over, and what kind of map that is. Usage errors for unknown or equal axes and bad `at` names. */
+function resolveAxes(opts: MapOptions, conds: Conditions): { kind: SweepMap['kind']; xName: string; yName: string } {
   const kindAxes = MAP_AXES[opts.kind ?? 'model'];
   const xName = opts.x ?? kindAxes.x;
   const yName = opts.y ?? kindAxes.y;
-  // Condition keys (weight_decay, optimizer, ...) can be axes (numeric ones) or fixed with --at.
-  const parsed = new Map<string, Map<string, string>>();
-  const conditionValues = textValues(table, 'condition');
-  for (const c of conditionValues) parsed.set(c, parseCondition(c));
-  // Row loops read text through the store's codes when it has them (no whole-column decoding).
-  const condition = textReader(table, 'condition');
-  const keyValues = new Map<string, string[]>();
-  for (const m of parsed.values()) for (const [k, v] of m) keyValues.set(k, [...(keyValues.get(k) ?? []), v]);
-  const conditionKeys = [...keyValues.keys()].filter((k) => !(FIXABLE as readonly string[]).includes(k)).sort();
-  const numericKeys = conditionKeys.filter((k) => keyValues.get(k)!.every((v) => NUMBER.test(v)));
-  const axisNames = [...AXES, ...numericKeys];
+  const axisNames = [...AXES, ...conds.numericKeys];
   for (const n of [xName, yName]) if (!axisNames.includes(n)) throw usageError(msg.unknownAxis(n, axisNames));
   if (xName === yName) throw usageError(msg.sameAxes(xName));
-  const isKey = (n: string) => conditionKeys.includes(n);
   const kind: SweepMap['kind'] =
     xName === kindAxes.x && yName === kindAxes.y ? (opts.kind ?? 'model') : ((Object.keys(MAP_AXES) as MapKind[]).find((k) => MAP_AXES[k].x === xName && MAP_AXES[k].y === yName) ?? 'custom');
-  const metric = opts.metric ?? defaultMetric(table);
-  const at = opts.at ?? {};
-  for (const name of Object.keys(at)) {
-    if (!(FIXABLE as readonly string[]).includes(name) && !isKey(name)) throw usageError(msg.atUnknown(name, [...FIXABLE, ...conditionKeys]));
+  for (const name of Object.keys(opts.at ?? {})) {
+    if (!(FIXABLE as readonly string[]).includes(name) && !conds.isKey(name)) throw usageError(msg.atUnknown(name, [...FIXABLE, ...conds.keys]));
     if (name === xName || name === yName) throw usageError(msg.atOnMapAxis(name));
   }
-  // The condition left to fix once axis keys and --at keys are taken out of it.
+  return { kind, xName, yName };
+}
+
+/**
+ * Step 2: the rows of the slice. Rows carrying information (a finite metric or a diverged mark),
+ * restricted to the `at` values, then every other axis (and the condition) fixed: the given value,
+ * or the one with the most rows (ties to the largest), listed in `picked`. Epochs are fixed later,
+ * by aligning runs along their curves.
+ */
+function sliceRows(table: RowTable, opts: MapOptions, conds: Conditions, axes: { xName: string; yName: string }, metric: Metric): {
+  rows: Int32Array;
+  fixed: Record<string, number | string>;
+  picked: string[];
+  /** Picked names whose value tied with others for the most rows: how many levels tied. */
+  pickedTies: Record<string, number>;
+} {
+  const { xName, yName } = axes;
+  const at = opts.at ?? {};
+  const { isKey, keyValue } = conds;
+  // Row loops read text through the store's codes when it has them (no whole-column decoding).
+  const condition = textReader(table, 'condition');
+  // The condition left to fix once axis keys and `at` keys are taken out of it.
   const setAside = new Set([xName, yName, ...Object.keys(at)].filter(isKey));
   const restCache = new Map<string, string>();
   const restOf = (c: string): string => {
     let r = restCache.get(c);
     if (r === undefined) {
-      const m = parsed.get(c)!;
+      const m = conds.parsed.get(c)!;
       r = m.size === 0 ? c : [...m].filter(([k]) => !setAside.has(k)).map(([k, v]) => `${k}=${v}`).join(',');
       restCache.set(c, r);
     }
     return r;
   };
-  const keyValue = (c: string, key: string): number | string | undefined => {
-    const v = parsed.get(c)!.get(key);
-    return v === undefined ? undefined : NUMBER.test(v) ? Number(v) : v;
-  };
-  const notes: string[] = [];
 
-  // Rows that carry information: a finite metric, or a diverged mark.
-  const metricCol = table[metric];
-  let rows: Int32Array = informativeRows(metricCol, textReader(table, 'status'));
+  let rows: Int32Array = informativeRows(table[metric], textReader(table, 'status'));
   if (rows.length === 0) throw new UserError(msg.noMetric(metric));
   for (const [key, want] of Object.entries(at)) {
     if (!isKey(key)) continue;
@@ -219,7 +234,7 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   const picked: string[] = [];
   const pickedTies: Record<string, number> = {};
   // Only a condition that has something left can be in a row (a store of one condition never loops).
-  const hasConditions = conditionValues.some((c) => restOf(c) !== '') && rows.some((i) => restOf(condition(i)) !== '');
+  const hasConditions = conds.values.some((c) => restOf(c) !== '') && rows.some((i) => restOf(condition(i)) !== '');
   for (const name of PICK_ORDER) {
     if (name === xName || name === yName) continue;
     if (name === 'condition' && !hasConditions && at.condition === undefined) continue;
@@ -266,27 +281,50 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
       rows = col && typeof v === 'number' ? rowsNear(rows, col, v) : rows.filter((i) => (typeof v === 'number' ? sameNumber(valueOf(i) as number, v) : valueOf(i) === v));
     }
   }
+  return { rows, fixed, picked, pickedTies };
+}
 
+/**
+ * Step 3: the seed-aggregated cells of the slice. With epochs fixed or an epochs axis, every run
+ * is aligned to the target epochs along its own curve; runs that stopped before a fixed epoch are
+ * counted in a note, since they silently thin the cells.
+ */
+function sliceCells(table: RowTable, opts: MapOptions, slice: { rows: Int32Array; fixed: Record<string, number | string> }, axes: { xName: string; yName: string }, metric: Metric, notes: string[]): { cells: Cell[]; epochTargets: number[] | undefined } {
+  const { rows, fixed } = slice;
   const epochTargets =
-    fixed.epochs !== undefined ? [fixed.epochs as number] : xName === 'epochs' || yName === 'epochs' ? (opts.epochs ?? chooseEpochs(table, rows, opts.maxEpochs ?? 100, notes)) : undefined;
+    fixed.epochs !== undefined ? [fixed.epochs as number] : axes.xName === 'epochs' || axes.yName === 'epochs' ? (opts.epochs ?? chooseEpochs(table, rows, opts.maxEpochs ?? 100, notes)) : undefined;
   const cells = buildCells(table, { metric, epochs: epochTargets, rows });
   if (fixed.epochs !== undefined) {
-    // Runs that stopped before the fixed epoch: say how many, since they silently thin the cells.
     const last = new Map<string, number>();
-    const run = textReader(table, 'run');
-    for (const i of rows) {
-      const id = `${run(i)}\u0000${table.width[i]}\u0000${table.train_size[i]}\u0000${table.seed[i]}`;
-      last.set(id, Math.max(last.get(id) ?? -Infinity, table.epochs[i]));
-    }
+    eachRunKey(table, rows, (id, i) => last.set(id, Math.max(last.get(id) ?? -Infinity, table.epochs[i])));
     const short = [...last.values()].filter((e) => e < (fixed.epochs as number)).length;
     if (short > 0) notes.push(msg.runsEndBefore(short, fixed.epochs as number));
   }
   const fixedText = Object.entries(fixed).map(([k, v]) => `${k}=${v}`).join(', ') || 'the whole sweep';
   if (cells.length === 0) throw new UserError(msg.noCells(fixedText));
+  return { cells, epochTargets };
+}
 
-  // Axes and their scales; a log2 axis cannot hold values <= 0 (epoch 0 is the usual case).
-  const coord = (c: Cell, name: string) => (isKey(name) ? (keyValue(c.condition, name) as number) : (c[name as keyof Cell] as number));
-  // Cells whose condition lacks a key used as an axis have no place on the map.
+/** The cells placed on the two axes, with the grid points that lack a measurement. */
+interface PlacedCells {
+  xAxis: MapAxis;
+  yAxis: MapAxis;
+  mapCells: MapCell[];
+  measured: MapCell[];
+  /** 1 where grid point (x value i, y value j) holds a measured cell, at j * nx + i. */
+  isMeasured: Uint8Array;
+  missing: { x: number; y: number }[];
+  diverged: { x: number; y: number; count: number }[];
+}
+
+/**
+ * Step 4: the axes. Each axis's scale (log2 when its values are roughly geometric, or as given),
+ * cells without a place dropped (a condition lacking an axis key; values <= 0 on a log2 axis,
+ * noted), each axis's values and cell edges, and the missing and diverged grid points.
+ */
+function chooseAxes(cells: Cell[], opts: MapOptions, conds: Conditions, axes: { xName: string; yName: string }, notes: string[]): PlacedCells {
+  const { xName, yName } = axes;
+  const coord = (c: Cell, name: string) => (conds.isKey(name) ? (conds.keyValue(c.condition, name) as number) : (c[name as keyof Cell] as number));
   const placed = cells.filter((c) => Number.isFinite(coord(c, xName)) && Number.isFinite(coord(c, yName)));
   const axisScale = (name: string): AxisScale => {
     if (opts.scales?.[name]) return opts.scales[name];
@@ -312,7 +350,6 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
 
   const mapCells: MapCell[] = kept.map((cell) => ({ x: coord(cell, xName), y: coord(cell, yName), cell }));
   const measured = mapCells.filter((m) => m.cell.stats.n > 0);
-  // Which (x value, y value) grid points hold a measured cell, by value index.
   const xIndex = new Map(xAxis.values.map((v, k) => [v, k]));
   const yIndex = new Map(yAxis.values.map((v, k) => [v, k]));
   const nxv = xAxis.values.length;
@@ -323,20 +360,42 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
     if (!isMeasured[j * nxv + i]) missing.push({ x, y });
   }));
   const diverged = mapCells.filter((m) => m.cell.diverged > 0).map((m) => ({ x: m.x, y: m.y, count: m.cell.diverged }));
+  return { xAxis, yAxis, mapCells, measured, isMeasured, missing, diverged };
+}
 
-  // Normalised transformed coordinates: each axis's [min, max] → [0, 1].
+/** The transformed plane the field lives in: each axis's [min, max] in its scale mapped to [0, 1]. */
+interface Plane {
+  sx: { lo: number; hi: number; norm: (v: number) => number };
+  sy: { lo: number; hi: number; norm: (v: number) => number };
+  xVaries: boolean;
+  yVaries: boolean;
+  dims: 1 | 2;
+}
+
+function planeOf(xAxis: MapAxis, yAxis: MapAxis): Plane {
   const span = (a: MapAxis) => {
     const lo = toScale(a.scale, a.values[0]);
     const hi = toScale(a.scale, a.values[a.values.length - 1]);
     return { lo, hi, norm: (v: number) => (hi > lo ? (toScale(a.scale, v) - lo) / (hi - lo) : 0) };
   };
-  const sx = span(xAxis);
-  const sy = span(yAxis);
   const xVaries = xAxis.values.length > 1;
   const yVaries = yAxis.values.length > 1;
-  const dims: 1 | 2 = xVaries && yVaries ? 2 : 1;
+  return { sx: span(xAxis), sy: span(yAxis), xVaries, yVaries, dims: xVaries && yVaries ? 2 : 1 };
+}
+
+/**
+ * Step 5: fit the field. The measured cell means (with their squared standard errors as noise)
+ * in the normalised plane, fitted by the requested method, or under `auto` by every method, the
+ * one with the lowest leave-one-out RMSE kept (compared on the cells every tried method predicts).
+ */
+function fitField(measured: MapCell[], plane: Plane, opts: MapOptions, names: { xName: string; yName: string }): {
+  method: MethodName;
+  fitted: FittedField;
+  loo: SweepMap['loo'];
+} {
+  const { sx, sy, xVaries, yVaries, dims } = plane;
   const n = measured.length;
-  if (n < 2 || (!xVaries && !yVaries)) throw new UserError(msg.tooFewCells(n, xName, yName));
+  if (n < 2 || (!xVaries && !yVaries)) throw new UserError(msg.tooFewCells(n, names.xName, names.yName));
   // In one dimension the varying axis plays x for the interpolators.
   const u = (m: MapCell) => (dims === 2 || xVaries ? sx.norm(m.x) : sy.norm(m.y));
   const w = (m: MapCell) => (dims === 2 ? sy.norm(m.y) : 0);
@@ -355,7 +414,6 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
       : null,
   };
 
-  // Fit the method(s); auto compares leave-one-out RMSE on the cells every tried method can predict.
   const requested = opts.method ?? 'auto';
   const candidates: MethodName[] = requested === 'auto' ? [...METHODS] : [requested];
   const fits = new Map<MethodName, FittedField>();
@@ -384,12 +442,23 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   }
   let method = [...fits.keys()][0];
   for (const m of fits.keys()) if ((tried[m] ?? Infinity) < (tried[method] ?? Infinity)) method = m;
-  const fitted = fits.get(method)!;
-  notes.push(...fitted.notes);
+  return {
+    method,
+    fitted: fits.get(method)!,
+    loo: { method, rmse: tried[method] ?? NaN, tried, points: common.length, ...(Object.keys(skipped).length ? { skipped } : {}) },
+  };
+}
 
-  // Raster in the normalised plane; a single-valued axis gets one raster line.
-  const nx = xVaries ? (opts.raster?.nx ?? DEFAULT_RASTER.nx) : 1;
-  const ny = yVaries ? (opts.raster?.ny ?? DEFAULT_RASTER.ny) : 1;
+/**
+ * Step 6: rasterise. The fitted field on a regular raster over the normalised plane (one raster
+ * line along an axis with a single value), each raster point's origin marked: inside a measured
+ * cell, interpolated, or outside the data.
+ */
+function rasterise(fitted: FittedField, plane: Plane, placed: PlacedCells, size: { nx: number; ny: number } | undefined): SweepMap['raster'] {
+  const { sx, sy, xVaries, yVaries, dims } = plane;
+  const { xAxis, yAxis, isMeasured } = placed;
+  const nx = xVaries ? (size?.nx ?? DEFAULT_RASTER.nx) : 1;
+  const ny = yVaries ? (size?.ny ?? DEFAULT_RASTER.ny) : 1;
   const gxN = evenly(nx);
   const gyN = evenly(ny);
   let value: Float64Array;
@@ -399,6 +468,7 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
   const xs = Array.from(gxN, (t) => fromScale(xAxis.scale, sx.lo + t * (sx.hi - sx.lo)));
   const ys = Array.from(gyN, (t) => fromScale(yAxis.scale, sy.lo + t * (sy.hi - sy.lo)));
   const origin = new Uint8Array(nx * ny);
+  const nxv = xAxis.values.length;
   const xi = xs.map((x) => Math.min(xAxis.values.length - 1, Math.max(0, lowerBound(xAxis.edges, x) - 1)));
   const yi = ys.map((y) => Math.min(yAxis.values.length - 1, Math.max(0, lowerBound(yAxis.edges, y) - 1)));
   for (let j = 0; j < ny; j++) {
@@ -411,7 +481,12 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
           : ORIGIN_OUTSIDE;
     }
   }
+  return { nx, ny, xs, ys, value, sd, origin };
+}
 
+/** Notes a reader of the cells should see: cells resting on one seed, and heavy-tailed cells (mean and median far apart). */
+function cellNotes(measured: MapCell[]): string[] {
+  const notes: string[] = [];
   const oneSeed = measured.filter((m) => m.cell.stats.n === 1).length;
   if (oneSeed > 0) notes.push(msg.oneSeedCells(oneSeed));
   const heavy = measured.filter((m) => {
@@ -419,22 +494,47 @@ export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
     return k >= 3 && mean > 0 && median > 0 && (mean > 2 * median || median > 2 * mean);
   }).length;
   if (heavy > 0) notes.push(msg.heavyTails(heavy));
+  return notes;
+}
 
+/**
+ * A map: the metric over two axes with every other axis (and the condition) fixed, from the
+ * seed-aggregated cells, interpolated on a regular raster in the transformed plane.
+ * Fixed values not given in `at` are picked — the value with the most rows, ties to the largest —
+ * and listed in `picked`. `auto` picks the method with the lowest leave-one-out RMSE.
+ * The steps: resolve the axes, slice the rows, aggregate the cells, choose the axes' scales and
+ * values, fit the field, rasterise it.
+ */
+export function buildMap(table: RowTable, opts: MapOptions): SweepMap {
+  const conds = readConditions(table);
+  const { kind, xName, yName } = resolveAxes(opts, conds);
+  const names = { xName, yName };
+  const metric = opts.metric ?? defaultMetric(table);
+  const notes: string[] = [];
+  const slice = sliceRows(table, opts, conds, names, metric);
+  const { cells, epochTargets } = sliceCells(table, opts, slice, names, metric, notes);
+  const placed = chooseAxes(cells, opts, conds, names, notes);
+  const plane = planeOf(placed.xAxis, placed.yAxis);
+  const { method, fitted, loo } = fitField(placed.measured, plane, opts, names);
+  notes.push(...fitted.notes);
+  const raster = rasterise(fitted, plane, placed, opts.raster);
+  notes.push(...cellNotes(placed.measured));
   return {
     kind,
-    x: xAxis,
-    y: yAxis,
+    x: placed.xAxis,
+    y: placed.yAxis,
     metric,
-    fixed,
-    picked,
-    pickedTies,
+    fixed: slice.fixed,
+    picked: slice.picked,
+    pickedTies: slice.pickedTies,
     method,
-    loo: { method, rmse: tried[method] ?? NaN, tried, points: common.length, ...(Object.keys(skipped).length ? { skipped } : {}) },
-    cells: mapCells,
-    missing,
-    diverged,
-    raster: { nx, ny, xs, ys, value, sd, origin },
+    loo,
+    cells: placed.mapCells,
+    missing: placed.missing,
+    diverged: placed.diverged,
+    raster,
     notes,
+    fitNotes: fitted.notes,
     ...(fitted.params ? { fit: fitted.params } : {}),
     ...(epochTargets ? { alignedEpochs: epochTargets } : {}),
   };

@@ -1,8 +1,22 @@
-import type { PlanResult } from './Plan.js';
+import type { PlannedRun, PlanResult } from './Plan.js';
+import type { CostModel } from './costModel.js';
 import { roundCost } from './planCsv.js';
 
+/** `plan --json` (docs/schemas/plan.schema.json). */
+export interface PlanJson {
+  budget: number | null;
+  /** Cap on the number of runs (--max-runs); null when none. */
+  max_runs: number | null;
+  cost: number;
+  units: CostModel['units'];
+  model: Pick<CostModel, 'a' | 'c' | 'exponentFitted' | 'runs' | 'aSe' | 'spread'>;
+  dropped: { runs: number; cost: number };
+  notes: string[];
+  runs: Omit<PlannedRun, 'score'>[];
+}
+
 /** `plan --json` (DESIGN.md §6): {"budget","cost","runs":[{...axes,"seed","epochs","reason","cost"}]} plus the cost model. */
-export function planJson(plan: PlanResult): Record<string, unknown> {
+export function planJson(plan: PlanResult): PlanJson {
   const { model } = plan;
   return {
     budget: plan.budget,

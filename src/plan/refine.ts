@@ -13,6 +13,7 @@ import type { Metric, RowTable } from '../store/RowTable.js';
 import { sameValue } from './SweepSpec.js';
 import type { SpecRun, SweepSpec } from './SweepSpec.js';
 import { planText as msg } from '../messages.js';
+import { configKey } from '../store/rowKeys.js';
 
 /** What a proposed run is expected to sharpen (DESIGN.md §5 "Plan"). */
 export const SHARPENS = [
@@ -179,7 +180,7 @@ export function proposeRefinements(opts: RefineOptions): RefineResult {
   const cells = allCells.filter((c) => sameValue(c.epochs, spec.epochs));
   const integerWidths = spec.axes.width.every(Number.isInteger);
   const seedIds = new Map<string, Set<number>>();
-  const cfgKey = (c: { condition: string; label_noise: number; width: number; train_size: number }) => `${c.condition}\u0000${c.label_noise}\u0000${c.width}\u0000${c.train_size}`;
+  const cfgKey = configKey;
   for (let i = 0; i < table.length; i++) {
     const k = cfgKey({ condition: table.condition[i], label_noise: table.label_noise[i], width: table.width[i], train_size: table.train_size[i] });
     let s = seedIds.get(k);

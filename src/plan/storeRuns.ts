@@ -1,4 +1,5 @@
 import type { RowTable } from '../store/RowTable.js';
+import { eachRunKey } from '../store/rowKeys.js';
 
 /** One run of the store, summarised for coverage and cost fitting. */
 export interface StoreRun {
@@ -19,16 +20,12 @@ export interface StoreRun {
 }
 
 /**
- * The runs of a table, in order of first appearance. Rows are grouped by run id (by their
- * configuration and seed when the id is empty); the configuration is taken from the first row.
+ * The runs of a table, in order of first appearance. Rows are grouped by run (rowKeys.runKey:
+ * id, configuration and seed, so an id reused for another configuration or seed is another run).
  */
 export function storeRuns(table: RowTable): StoreRun[] {
   const byKey = new Map<string, StoreRun>();
-  for (let i = 0; i < table.length; i++) {
-    const key =
-      table.run[i] !== ''
-        ? `r\u0000${table.run[i]}`
-        : `c\u0000${table.condition[i]}\u0000${table.label_noise[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}\u0000${table.seed[i]}`;
+  eachRunKey(table, null, (key, i) => {
     let r = byKey.get(key);
     if (!r) {
       r = {
@@ -56,6 +53,6 @@ export function storeRuns(table: RowTable): StoreRun[] {
       r.wallEpoch = e;
       r.wallSeconds = w;
     }
-  }
+  });
   return [...byKey.values()];
 }

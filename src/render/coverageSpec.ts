@@ -2,6 +2,7 @@ import { formatNumber, numberExpr } from '../formatNumber.js';
 import type { TopLevelSpec } from 'vega-lite';
 import type { CoverageResult } from '../plan/coverage.js';
 import type { SweepSpec } from '../plan/SweepSpec.js';
+import { configKey } from '../store/rowKeys.js';
 
 /** One cell of the coverage chart: a (condition, noise, width, train size) with its seeds' states. */
 export interface CoverageCell {
@@ -23,7 +24,7 @@ export interface CoverageCell {
 export function coverageCells(cov: CoverageResult): CoverageCell[] {
   const cells = new Map<string, CoverageCell>();
   for (const r of cov.runs) {
-    const k = `${r.condition}\u0000${r.label_noise}\u0000${r.width}\u0000${r.train_size}`;
+    const k = configKey(r);
     let c = cells.get(k);
     if (!c) {
       c = { condition: r.condition, label_noise: r.label_noise, width: r.width, train_size: r.train_size, planned: 0, complete: 0, partial: 0, missing: 0, diverged: 0, done: 0, label: '' };

@@ -16,6 +16,7 @@ import type { Metric, RowTable } from '../store/RowTable.js';
 import { formatFixed, formatNumber } from '../formatNumber.js';
 import { headlineFindings, metricWords, variantCautions } from './headlineFindings.js';
 import type { CoverageSummary, MapSection, MapVariant, PlanSummary, ReportFacts, ReportModel } from './ReportModel.js';
+import { rowConfigKey, rowText } from '../store/rowKeys.js';
 
 export interface BuildReportOptions {
   table: RowTable;
@@ -63,6 +64,7 @@ function spread<T>(values: T[], k: number, keep: T): T[] {
 function facts(table: RowTable, opts: BuildReportOptions, metric: Metric): ReportFacts {
   const runs = new Set(table.run);
   const perConfig = new Map<string, Set<number>>();
+  const text = rowText(table);
   let diverged = 0;
   const divergedRuns = new Set<string>();
   for (let i = 0; i < table.length; i++) {
@@ -70,7 +72,7 @@ function facts(table: RowTable, opts: BuildReportOptions, metric: Metric): Repor
       diverged++;
       divergedRuns.add(table.run[i]);
     }
-    const k = `${table.condition[i]}\u0000${table.label_noise[i]}\u0000${table.width[i]}\u0000${table.train_size[i]}`;
+    const k = rowConfigKey(table, text, i);
     let s = perConfig.get(k);
     if (!s) perConfig.set(k, (s = new Set()));
     s.add(table.seed[i]);

@@ -1,3 +1,5 @@
+import { readFileSync } from 'node:fs';
+import { storeFiles } from './storeFiles.js';
 import { createRequire } from 'node:module';
 import type { Reject } from './Reject.js';
 import { quoteCsvField } from '../csv/quoteCsvField.js';
@@ -19,4 +21,16 @@ export function parseRejected(text: string): Reject[] {
   const { parse } = requireHere('csv-parse/sync') as typeof import('csv-parse/sync');
   const records = parse(text, { from_line: 2, relax_column_count: true, skip_empty_lines: true }) as string[][];
   return records.filter((f) => f.length >= 4).map((f) => ({ source: f[0], line: Number(f[1]), field: f[2], reason: f[3] }));
+}
+
+/** The rejections recorded in a store's rejected.csv (none when the file is absent). */
+export function readRejected(dir: string): Reject[] {
+  let text: string;
+  try {
+    text = readFileSync(storeFiles(dir).rejected, 'utf8');
+  } catch (err) {
+    if ((err as NodeJS.ErrnoException).code === 'ENOENT') return [];
+    throw err;
+  }
+  return parseRejected(text);
 }
