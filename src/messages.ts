@@ -142,6 +142,7 @@ export const ingestText = {
     `${fmtPath(source)}: the value of '${clipText(key)}' is ${big(length)} characters, over the limit of ${big(limit)} (--max-text); left out`,
   tooDeep: (limit: number) => `nested more than ${limit} levels deep (objects or arrays inside one another), the limit`,
   skippedSource: (path: string, why: string) => `skipped ${fmtPath(path)}: ${why}`,
+  planFile: (runs: number) => `this is a plan file (${runs} proposed run${runs === 1 ? '' : 's'}, columns 'why'/'sharpens', no metric), not a log: not read`,
   linkLoop: 'a symbolic link loop (the link leads back to itself)',
   danglingLink: (target: string) => `a symbolic link to '${clipText(target)}', which does not exist`,
   specialFile: (kind: string) => `a ${kind}, not a regular file`,
@@ -578,6 +579,12 @@ export const layoutText = {
     `${at(source)}array '${path}' (${times > 1 ? `in ${times} records, up to ` : ''}${length} ${what === 'lists' ? 'lists' : 'values'}) not read: not records and not a column of a block of equal-length arrays`,
   summaries: (source: string, path: string, rows: number, reason: string) =>
     `${at(source)}${rows} record${rows === 1 ? '' : 's'} under '${path}' skipped: ${reason === 'key' ? 'a block of summaries' : 'metrics are all means or spreads over seeds'}, not runs`,
+  joinedSplits: (source: string, path: string, keys: string[], records: number) =>
+    `${at(source)}curves ${keys.map((k) => `'${k}'`).join(', ')} at ${(path || '(top)').replace(/\*/g, '<key>')} joined per epoch into one run${records === 1 ? '' : ` (in ${records} records)`}: their metrics read as ${keys.map((k) => `${k}_*`).join(', ')}`,
+  settingBlock: (source: string, path: string, keys: string[], times: number) =>
+    `${at(source)}'${path}' (${keys.join(', ')}${keys.length >= 8 ? ', ...' : ''}) is a setting keyed by number or a list of settings, not rows: not read${times > 1 ? ` (in ${times} records)` : ''}`,
+  heldOutTwin: (source: string, column: string, target: string, heldOut: string) =>
+    `${at(source)}'${column}' read as ${target} (beside it '${heldOut}' is the held-out metric, taken as test)`,
   paramsAsWidth: (source: string, column: string) =>
     `${at(source)}no width column; parameter count '${column}' serves as the model-size axis (width)`,
   outcomeMetric: (source: string, column: string, target: string) =>

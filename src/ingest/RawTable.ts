@@ -64,6 +64,10 @@ export interface JsonLayout {
   summaries: { path: string; rows: number; reason: 'key' | 'names' }[];
   /** Curves without an epoch key whose points were numbered 1..n as epochs. */
   numbered?: { path: string; curves: number }[];
+  /** Sibling curves keyed by split (`train`, `test`) joined per epoch into one run. */
+  joined?: { path: string; keys: string[]; records: number }[];
+  /** Settings keyed by number (`lr_schedule`) or lists in a config block: named, not read as rows. */
+  settings?: { path: string; keys: string[]; times: number }[];
   /** Names of --keys past the deepest level of value keys the document has. */
   unusedKeys?: string[];
 }

@@ -207,7 +207,13 @@ export async function ingestSources(opts: IngestOptions): Promise<IngestResult> 
     const kept = dropSources(existing, replaced);
     const oldRejects = existsSync(files.rejected) ? parseRejected(readFileSync(files.rejected, 'utf8')).filter((r) => !replaced.has(r.source)) : [];
 
-    const ok = todo.filter((p) => p.norm);
+    // A plan file found among the logs is named and passed over whole (its rows are not results).
+    for (const p of todo) {
+      if (!p.norm?.notLog) continue;
+      result.skippedSources.push({ path: p.given, reason: p.norm.notLog });
+      result.notes.push(ingestText.skippedSource(p.given, p.norm.notLog));
+    }
+    const ok = todo.filter((p) => p.norm && !p.norm.notLog);
     result.layouts = groupLayouts(ok.filter((p) => p.norm!.layout).map((p) => ({ source: p.given, layout: p.norm!.layout! })));
     result.mapping = mergedMapping(result.layouts);
     const mtimeBySource = new Map<string, number>();

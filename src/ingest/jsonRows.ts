@@ -13,8 +13,9 @@ import { keyMeaning, keyNumber, levelNameOfParent } from './json/keyLevel.js';
 import { columnarBlock, isScalarArray } from './json/columnarBlock.js';
 import { columnsTable, indexTable, splitTable, tableOrient } from './json/tableShapes.js';
 import { isRunCollection } from './json/runCollection.js';
-import { isSummaryName } from './fieldKinds.js';
-import { matchTarget, METRIC_TARGETS } from './synonyms.js';
+import { joinSplitCurves } from './json/splitCurves.js';
+import { CONFIG_PREFIXES, isSummaryName } from './fieldKinds.js';
+import { matchTarget, METRIC_TARGETS, nameKey, nameWords } from './synonyms.js';
 import { ingestText, layoutText } from '../messages.js';
 
 export interface JsonRowsOptions {
@@ -97,6 +98,33 @@ function isFlatObject(v: unknown): v is Rec {
     const x = v[k];
     if (Array.isArray(x)) return false;
     if (x !== null && typeof x === 'object' && !isFlatObject(x)) return false;
+  }
+  return true;
+}
+
+/** Words of settings that scripts key by epoch or step (`lr_schedule`, `milestones`, `warmup_steps`). */
+const SETTING_WORDS = new Set(['schedule', 'scheduler', 'milestones', 'milestone', 'lr', 'learning', 'rate', 'decay', 'warmup',
+  'boundaries', 'gamma', 'momentum', 'wd', 'dropout', 'betas', 'steps', 'plan']);
+const isConfigKey = (k: string) => CONFIG_PREFIXES.has(nameKey(k));
+
+/**
+ * A block of settings keyed by numbers (`"lr_schedule": {"10": 0.1, "20": 0.01}`): not rows. Inside
+ * a config block any such map is one; elsewhere its name must say it is a setting, and never a metric or axis.
+ */
+function isSettingMap(key: string, v: unknown, inConfig: boolean): boolean {
+  if (!isValueKeyed(v) || summaryKey(key) || levelNameOfParent(key) !== null) return false;
+  const t = matchTarget(key)?.target;
+  if (t !== undefined) return false;
+  return inConfig || nameWords(key).some((w) => SETTING_WORDS.has(w));
+}
+
+/** A config block holding scalars, lists of scalars and such blocks only (no rows): flattened as settings. */
+function isSettingsObject(v: unknown): v is Rec {
+  if (!isRecord(v) || columnarBlock(v) !== null) return false;
+  for (const k in v) {
+    const x = v[k];
+    if (isScalar(x) || isScalarArray(x)) continue;
+    if (Array.isArray(x) || !isSettingsObject(x)) return false;
   }
   return true;
 }
@@ -294,8 +322,52 @@ export class JsonRows {
     return count;
   }
 
-  private visitObject(obj: Rec, ctx: Ctx, asRecord: boolean): number {
-    if (isValueKeyed(obj)) return this.scalarLevel(obj, ctx);
+  /** The object without its numeric-keyed setting maps (noted, not read as rows), and its split curves joined. */
+  private settle(obj: Rec, ctx: Ctx, inConfig: boolean): Rec {
+    let out: Rec | null = null;
+    for (const k in obj) {
+      const v = obj[k];
+      if (isSettingMap(k, v, inConfig)) {
+        out ??= { ...obj };
+        delete out[k];
+        this.noteSetting(join(ctx.pattern, k), Object.keys(v as Rec));
+      } else if (isRecord(v) && (inConfig || isConfigKey(k))) {
+        const inner = this.settle(v, { ...ctx, pattern: join(ctx.pattern, k) }, true);
+        if (inner !== v) (out ??= { ...obj })[k] = inner;
+      }
+    }
+    if (inConfig) return out ?? obj;
+    const joined = joinSplitCurves(out ?? obj);
+    if (!joined) return out ?? obj;
+    const rest: Rec = {};
+    const name = joined.keys.join('+');
+    for (const k in out ?? obj) if (!joined.keys.includes(k)) rest[k] = (out ?? obj)[k];
+    rest[name] = joined.points;
+    const list = (this.layout.joined ??= []);
+    const seen = list.find((x) => x.path === (ctx.pattern || '(top)'));
+    if (seen) seen.records++;
+    else list.push({ path: ctx.pattern || '(top)', keys: joined.keys, records: 1 });
+    return rest;
+  }
+
+  private noteSettingLists(v: Rec, pattern: string): void {
+    for (const k in v) {
+      const x = v[k];
+      if (isScalarArray(x)) this.noteSetting(join(pattern, k), x.slice(0, 8).map(String));
+      else if (isRecord(x)) this.noteSettingLists(x, join(pattern, k));
+    }
+  }
+
+  private noteSetting(pattern: string, keys: string[]): void {
+    const list = (this.layout.settings ??= []);
+    const seen = list.find((x) => x.path === pattern);
+    if (seen) seen.times++;
+    else list.push({ path: pattern, keys: keys.slice(0, 8), times: 1 });
+  }
+
+  private visitObject(given: Rec, ctx: Ctx, asRecord: boolean): number {
+    if (isValueKeyed(given)) return this.scalarLevel(given, ctx);
+    const obj = this.settle(given, ctx, false);
     const shaped = this.tableShape(obj, ctx);
     if (shaped >= 0) return shaped;
     const keys = Object.keys(obj);
@@ -307,7 +379,11 @@ export class JsonRows {
       const v = obj[k];
       if (isScalar(v)) own[k] = v as RawValue;
       else if (isFlatObject(v) && !summaryKey(k) && keyMeaning(k).kind === 'name' && !hasValueKeys(v)) flattenRecord(v, k, own);
-      else nested.push(k);
+      else if (isConfigKey(k) && isSettingsObject(v) && !hasValueKeys(v)) {
+        // A config block with lists in it (`milestones: [10, 20]`): its scalars are settings; the lists are named.
+        flattenRecord(v, k, own);
+        this.noteSettingLists(v, join(ctx.pattern, k));
+      } else nested.push(k);
     }
     const fields = { ...ctx.fields, ...own };
     const block = columnarBlock(obj);

@@ -57,7 +57,12 @@ export interface Normalized {
   /** Things the user should know (a column read as percent, a skipped label column). */
   notes: string[];
   layout?: SourceLayout;
+  /** Set when the source is not a log at all (a plan of runs to do): skipped whole, its rows not read. */
+  notLog?: string;
 }
+
+/** Columns only a plan of runs carries (`datlas plan --emit csv` writes them): why a run is proposed, what it sharpens. */
+const PLAN_ONLY = new Set(['why', 'sharpens', 'resumefrom']);
 
 const DEFAULT_SEED_FROM = /seed[_\-=]?(\d+)/i;
 /** A per-row text column with more distinct values than this is an identifier, not a condition. */
@@ -76,6 +81,34 @@ const text = (v: RawValue): string => (v === undefined || v === null ? '' : type
 function numberOf(v: RawValue): { value: number; kind: number } {
   const p = parseColumn([v], 1);
   return { value: p.values[0], kind: p.kind[0] };
+}
+
+/** Bare metric names (no split word) and the training target they are beside a held-out twin. */
+const BARE_METRICS: Record<string, Target> = { accuracy: 'train_accuracy', acc: 'train_accuracy', loss: 'train_loss', error: 'train_error',
+  err: 'train_error', mse: 'train_loss' };
+
+/**
+ * Columns holding a bare metric (`accuracy`, `loss`) whose held-out twin (`val_accuracy`,
+ * `test_loss`) is also present: the bare one is measured on the training data (per-epoch
+ * histories write `loss, accuracy, val_loss, val_accuracy`), so it maps to the train target.
+ */
+function heldOutTwins(names: readonly string[]): Map<string, { target: Target; heldOut: string }> {
+  const out = new Map<string, { target: Target; heldOut: string }>();
+  const keys = new Map<string, string>();
+  for (const n of names) keys.set(nameKey(n.slice(n.lastIndexOf('.') + 1)), n);
+  for (const n of names) {
+    const bare = nameKey(n.slice(n.lastIndexOf('.') + 1));
+    const target = BARE_METRICS[bare];
+    if (!target) continue;
+    for (const split of ['val', 'valid', 'validation', 'test', 'eval', 'dev']) {
+      const twin = keys.get(split + bare);
+      if (twin !== undefined) {
+        out.set(n, { target, heldOut: twin });
+        break;
+      }
+    }
+  }
+  return out;
 }
 
 /** The columns a source's stages read: targets found, constants, conditions and extras. */
@@ -120,11 +153,24 @@ function mapColumns(raw: RawTable, o: { source: string; map: Partial<Record<Targ
     }
   }
   const bestRank: Partial<Record<Target, number>> = {};
+  const twinNotes: string[] = [];
   const candidates: Partial<Record<Target, string[]>> = {};
   const runLevel = raw.runLevel;
   const forcedCondition = new Set(conditionNames.map((c) => findName(raw.names, c)).filter((j) => j >= 0));
+  const twins = heldOutTwins(raw.names);
   raw.names.forEach((name, j) => {
     if (used.has(j) || forcedCondition.has(j)) return;
+    const twin = twins.get(name);
+    if (twin && !(twin.target in map)) {
+      // Bare `accuracy` beside `val_accuracy` (a per-epoch history): the training metric.
+      (candidates[twin.target] ??= []).push(name);
+      if (bestRank[twin.target] === undefined || 50 < bestRank[twin.target]!) {
+        bestRank[twin.target] = 50;
+        colOf[twin.target] = j;
+      }
+      twinNotes.push(layoutText.heldOutTwin(source, name, twin.target, twin.heldOut));
+      return;
+    }
     // A row's own key beats one its record or a key above it gave (a curve point's `epoch` beats
     // the run's planned `epochs`); a config key (`config.width` of a JSON Lines row) comes last.
     const inConfig = hasConfigPrefix(name);
@@ -166,7 +212,7 @@ function mapColumns(raw: RawTable, o: { source: string; map: Partial<Record<Targ
     const others = names.filter((n) => n !== mapping[t]);
     if (others.length > 0) passedOver[t] = others;
   }
-  notes.push(...outcomeNotes);
+  notes.push(...outcomeNotes, ...twinNotes);
   // A column made from object keys says so: `label_noise (keys under 'per_seed.*')`.
   for (const lv of raw.jsonLayout?.levels ?? []) {
     if (lv.how === 'run') continue;
@@ -403,6 +449,11 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
     return digits ? Number(digits[0]) : NaN;
   })();
   if (Number.isFinite(seedFromPath)) mapping.seed = `path ${seedFrom ? '--seed-from' : 'seed<N>'}`;
+  const anyMetric = (['test_error', 'train_error', 'test_loss', 'train_loss', 'test_accuracy', 'train_accuracy'] as const).some((t) => parsed[t] || constNum[t]);
+  if (!anyMetric && (parsed.width || constNum.width) && raw.names.some((name) => PLAN_ONLY.has(nameKey(name)))) {
+    // A plan (runs proposed, nothing measured) found beside the logs: not rows that failed.
+    return { table: emptyTable(0), rejects: [], read: 0, pending: 0, skipped: 0, mapping: {}, notes: [], notLog: ingestText.planFile(raw.length) };
+  }
   const hasMetric = !!(parsed.test_error || constNum.test_error || parsed.test_loss || constNum.test_loss || parsed.test_accuracy || constNum.test_accuracy);
   const missingAxis = (['width', 'epochs', 'train_size'] as const).filter((t) => !parsed[t] && !constNum[t]);
   for (const t of missingAxis) notes.push(ingestText.missingAxis(source, t));
@@ -622,6 +673,8 @@ function structureNotes(raw: RawTable, source: string): string[] {
   for (const u of l.unread) out.push(layoutText.unread(source, u.path, u.length, u.what, u.times ?? 1));
   for (const s of l.summaries) out.push(layoutText.summaries(source, s.path, s.rows, s.reason));
   for (const c of l.numbered ?? []) out.push(layoutText.numbered(source, c.path, c.curves));
+  for (const j of l.joined ?? []) out.push(layoutText.joinedSplits(source, j.path, j.keys, j.records));
+  for (const s of l.settings ?? []) out.push(layoutText.settingBlock(source, s.path, s.keys, s.times));
   if (l.unusedKeys) out.push(layoutText.unusedKeys(source, l.unusedKeys));
   return out;
 }
