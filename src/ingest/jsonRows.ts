@@ -103,8 +103,10 @@ function isFlatObject(v: unknown): v is Rec {
 }
 
 /** Words of settings that scripts key by epoch or step (`lr_schedule`, `milestones`, `warmup_steps`). */
-const SETTING_WORDS = new Set(['schedule', 'scheduler', 'milestones', 'milestone', 'lr', 'learning', 'rate', 'decay', 'warmup',
-  'boundaries', 'gamma', 'momentum', 'wd', 'dropout', 'betas', 'steps', 'plan']);
+const SETTING_WORDS = new Set(['schedule', 'scheduler', 'milestones', 'milestone', 'lr', 'learning', 'decay', 'warmup',
+  'boundaries', 'gamma', 'momentum', 'wd', 'dropout', 'betas', 'steps']);
+/** Words of a measurement: a map named with one (`error_rate` by width) holds results, not a setting. */
+const MEASURE_WORDS = new Set(['error', 'err', 'acc', 'accuracy', 'loss', 'risk', 'mse', 'score', 'metric', 'metrics', 'result', 'results']);
 const isConfigKey = (k: string) => CONFIG_PREFIXES.has(nameKey(k));
 
 /**
@@ -115,7 +117,9 @@ function isSettingMap(key: string, v: unknown, inConfig: boolean): boolean {
   if (!isValueKeyed(v) || summaryKey(key) || levelNameOfParent(key) !== null) return false;
   const t = matchTarget(key)?.target;
   if (t !== undefined) return false;
-  return inConfig || nameWords(key).some((w) => SETTING_WORDS.has(w));
+  const words = nameWords(key);
+  if (words.some((w) => MEASURE_WORDS.has(w))) return false;
+  return inConfig || words.some((w) => SETTING_WORDS.has(w));
 }
 
 /** A config block holding scalars, lists of scalars and such blocks only (no rows): flattened as settings. */
