@@ -142,6 +142,8 @@ export const ingestText = {
     `${fmtPath(source)}: the value of '${clipText(key)}' is ${big(length)} characters, over the limit of ${big(limit)} (--max-text); left out`,
   tooDeep: (limit: number) => `nested more than ${limit} levels deep (objects or arrays inside one another), the limit`,
   skippedSource: (path: string, why: string) => `skipped ${fmtPath(path)}: ${why}`,
+  widthText: (source: string, column: string, example: string, value: number, cells: number) =>
+    `${source}: width in '${column}' written with letters ('${example}' read as ${value}; ${cells} cell${cells === 1 ? '' : 's'})`,
   planFile: (runs: number) => `this is a plan file (${runs} proposed run${runs === 1 ? '' : 's'}, columns 'why'/'sharpens', no metric), not a log: not read`,
   linkLoop: 'a symbolic link loop (the link leads back to itself)',
   danglingLink: (target: string) => `a symbolic link to '${clipText(target)}', which does not exist`,
@@ -583,6 +585,8 @@ export const layoutText = {
     `${at(source)}curves ${keys.map((k) => `'${k}'`).join(', ')} at ${(path || '(top)').replace(/\*/g, '<key>')} joined per epoch into one run${records === 1 ? '' : ` (in ${records} records)`}: their metrics read as ${keys.map((k) => `${k}_*`).join(', ')}`,
   settingBlock: (source: string, path: string, keys: string[], times: number) =>
     `${at(source)}'${path}' (${keys.join(', ')}${keys.length >= 8 ? ', ...' : ''}) is a setting keyed by number or a list of settings, not rows: not read${times > 1 ? ` (in ${times} records)` : ''}`,
+  valueByFileName: (source: string, column: string, stem: string, target: string) =>
+    `${at(source)}column '${column}' read as ${target}, named by the file '${stem}' (one metric per file)`,
   heldOutTwin: (source: string, column: string, target: string, heldOut: string) =>
     `${at(source)}'${column}' read as ${target} (beside it '${heldOut}' is the held-out metric, taken as test)`,
   paramsAsWidth: (source: string, column: string) =>

@@ -83,6 +83,8 @@ function numberOf(v: RawValue): { value: number; kind: number } {
   return { value: p.values[0], kind: p.kind[0] };
 }
 
+const METRIC_TARGETS_ALL = ['test_error', 'train_error', 'test_loss', 'train_loss', 'test_accuracy', 'train_accuracy'] as const;
+
 /** Bare metric names (no split word) and the training target they are beside a held-out twin. */
 const BARE_METRICS: Record<string, Target> = { accuracy: 'train_accuracy', acc: 'train_accuracy', loss: 'train_loss', error: 'train_error',
   err: 'train_error', mse: 'train_loss' };
@@ -109,6 +111,14 @@ function heldOutTwins(names: readonly string[]): Map<string, { target: Target; h
     }
   }
   return out;
+}
+
+/** A width written with a letter before or after its number (`4x`, `w64`, `width=8`, `k_16`), or null. */
+function widthText(cell: string): number | null {
+  const m = /^(?:w|width|k|h|hidden|x)?\s*[_=:\-]?\s*(\d+(?:\.\d+)?)\s*(?:x|w|×)?$/i.exec(cell.trim());
+  if (!m) return null;
+  const v = Number(m[1]);
+  return v > 0 ? v : null;
 }
 
 /** The columns a source's stages read: targets found, constants, conditions and extras. */
@@ -196,6 +206,17 @@ function mapColumns(raw: RawTable, o: { source: string; map: Partial<Record<Targ
     const o = outcomeMetric(raw.names[j])!;
     colOf[o.target] = j;
     outcomeNotes.push(layoutText.outcomeMetric(source, raw.names[j], o.target));
+  }
+  // One metric per file (`Wall time, Step, Value` exports): a `value` column is the metric the file is named after.
+  if (!METRIC_TARGETS_ALL.some((t) => colOf[t] !== undefined || t in map)) {
+    const jv = raw.names.findIndex((name, jj) => !used.has(jj) && nameKey(name) === 'value');
+    const stem = source.replace(/\\/g, '/').split('/').pop()!.replace(/\.[^.]*$/, '');
+    const t = jv >= 0 ? matchTarget(stem)?.target : undefined;
+    if (t !== undefined && (METRIC_TARGETS_ALL as readonly string[]).includes(t)) {
+      colOf[t] = jv;
+      mapping[t] = raw.names[jv];
+      outcomeNotes.push(layoutText.valueByFileName(source, raw.names[jv], stem, t));
+    }
   }
   for (const [t, src] of Object.entries(map) as [Target, string][]) {
     if (/^(best|min|max|peak)[_\- ]/i.test(conditionKey(src))) notes.push(layoutText.bestCaution(source, src));
@@ -352,6 +373,30 @@ function parseTargets(raw: RawTable, o: { colOf: Partial<Record<Target, number>>
         notes.push(ingestText.fractionColumn(source, clip(raw.names[colOf[t]!]), t, above, finite));
       }
     } else if (c && (forced === 'percent' || (!forced && c.value > 1 && c.value <= 100))) c.value /= 100;
+  }
+  // A width written with a letter (`4x`, `w64`, `width=8`): its number, with a note. Only cells that
+  // did not read as numbers are looked at (flat files of plain numbers pay nothing).
+  const wp = parsed.width;
+  if (wp) {
+    let fixed = 0;
+    let example = '';
+    for (let i = 0; i < n; i++) {
+      if (wp.kind[i] !== CELL_BAD) continue;
+      const cell = text(cellAt(raw.columns[colOf.width!], i));
+      const v = widthText(cell);
+      if (v === null) continue;
+      wp.values[i] = v;
+      wp.kind[i] = 0;
+      if (fixed++ === 0) example = cell;
+    }
+    if (fixed > 0) notes.push(ingestText.widthText(source, clip(raw.names[colOf.width!]), clip(example), widthText(example)!, fixed));
+  } else if (constNum.width && constNum.width.kind === CELL_BAD) {
+    const cell = text(constOf.width!);
+    const v = widthText(cell);
+    if (v !== null) {
+      constNum.width = { value: v, kind: 0 };
+      notes.push(ingestText.widthText(source, 'config width', clip(cell), v, 1));
+    }
   }
   for (const t of numericTargets) {
     const ex = parsed[t]?.thousands;
