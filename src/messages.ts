@@ -587,6 +587,8 @@ export const layoutText = {
     `${at(source)}'${path}' (${keys.join(', ')}${keys.length >= 8 ? ', ...' : ''}) is a setting keyed by number or a list of settings, not rows: not read${times > 1 ? ` (in ${times} records)` : ''}`,
   valueByFileName: (source: string, column: string, stem: string, target: string) =>
     `${at(source)}column '${column}' read as ${target}, named by the file '${stem}' (one metric per file)`,
+  axisFromFolder: (source: string, axis: string, value: string, folder: string) =>
+    `${at(source)}no ${axis} column; ${axis} ${value} read from the folder name '${folder}'`,
   heldOutTwin: (source: string, column: string, target: string, heldOut: string) =>
     `${at(source)}'${column}' read as ${target} (beside it '${heldOut}' is the held-out metric, taken as test)`,
   paramsAsWidth: (source: string, column: string) =>

@@ -85,6 +85,13 @@ function numberOf(v: RawValue): { value: number; kind: number } {
 
 const METRIC_TARGETS_ALL = ['test_error', 'train_error', 'test_loss', 'train_loss', 'test_accuracy', 'train_accuracy'] as const;
 
+/** `name<number>` pairs of a folder name (`w8_seed0`, `width_64`, `noise=0.2`). */
+function folderPairs(folder: string): [string, string][] {
+  const out: [string, string][] = [];
+  for (const m of folder.matchAll(/(?:^|[_\-,\s.])([A-Za-z]+)[=_\-]?(\d+(?:\.\d+)?)(?=$|[_\-,\s])/g)) out.push([m[1], m[2]]);
+  return out;
+}
+
 /** Bare metric names (no split word) and the training target they are beside a held-out twin. */
 const BARE_METRICS: Record<string, Target> = { accuracy: 'train_accuracy', acc: 'train_accuracy', loss: 'train_loss', error: 'train_error',
   err: 'train_error', mse: 'train_loss' };
@@ -272,6 +279,17 @@ function mapColumns(raw: RawTable, o: { source: string; map: Partial<Record<Targ
         mapping[t] = '--set';
       }
     } else condFixed.set(key, v);
+  }
+  // Axes the source lacks, from its own folder's name (`w8_seed0`, `width_64_n_4000`), with a note.
+  const folder = source.replace(/\\/g, '/').split('/').slice(-2, -1)[0] ?? '';
+  for (const [name, value] of folderPairs(folder)) {
+    // Single letters other than w, k (width) and n (train size) say too little in a folder name (`p3`: part 3?).
+    const t = name.length > 1 || /^[wkn]$/i.test(name) ? matchTarget(name)?.target : undefined;
+    if ((t === 'width' || t === 'train_size' || t === 'label_noise') && colOf[t] === undefined && constOf[t] === undefined && !(t in map)) {
+      constOf[t] = value;
+      mapping[t] = `folder ${folder}`;
+      notes.push(layoutText.axisFromFolder(source, t, value, folder));
+    }
   }
   // params: a column of its own; the model-size axis only when the sweep has no width.
   const constExtras = outcomeConsts.slice();

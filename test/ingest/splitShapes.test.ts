@@ -97,3 +97,24 @@ describe('a plan file among the logs', () => {
     expect(r.notes.filter((n) => /plan file/.test(n))).toHaveLength(1);
   });
 });
+
+describe('axes written other ways', () => {
+  it('a width written with letters ("4x") reads as its number, with a note', async () => {
+    const { r, rows } = await read('width-text.json');
+    expect([r.read, r.accepted, r.rejected]).toEqual([2, 2, 0]);
+    expect(pick(rows, 'width', 'train_size', 'epochs', 'test_error')).toEqual([[4, 1000, 1, 0.5], [4, 1000, 2, 0.4]]);
+    expect(r.notes.join('\n')).toMatch(/width in 'config\.width' written with letters \('4x' read as 4; 2 cells\)/);
+  });
+
+  it('one metric per file (Wall time, Step, Value) in run folders named w8_seed0: metric from the file name, width from the folder', async () => {
+    const { r, rows } = await read('per-metric-files', { set: { train_size: '500' } });
+    // 6 rows: w8's train_error rows complete its test_error rows (2 duplicates), w16 has test only.
+    expect([r.read, r.accepted, r.duplicates, r.rejected]).toEqual([6, 4, 2, 0]);
+    expect(pick(rows, 'width', 'seed', 'epochs', 'test_error', 'train_error')).toEqual([
+      [8, 0, 1, 0.5, 0.3], [8, 0, 2, 0.4, 0.2], [16, 0, 1, 0.45, null], [16, 0, 2, 0.35, null],
+    ]);
+    const notes = r.notes.join('\n');
+    expect(notes).toMatch(/column 'Value' read as train_error, named by the file 'train_error'/);
+    expect(notes).toMatch(/width 16 read from the folder name 'w16_seed0'/);
+  });
+});
