@@ -68,6 +68,10 @@ export function matchTarget(name: string): { target: Target; rank: number } | nu
   if (whole) return whole;
   const dot = name.lastIndexOf('.');
   if (dot >= 0) {
+    // The split one level up (`metrics.train.acc`, `test.loss`): the last two parts as one name, before the last alone.
+    const dot2 = name.lastIndexOf('.', dot - 1);
+    const two = LOOKUP.get(nameKey(name.slice(dot2 + 1)));
+    if (two) return { target: two.target, rank: two.rank + 100 };
     const last = LOOKUP.get(nameKey(name.slice(dot + 1)));
     if (last) return { target: last.target, rank: last.rank + 100 };
   }
