@@ -589,6 +589,8 @@ export const layoutText = {
     `${at(source)}column '${column}' read as ${target}, named by the file '${stem}' (one metric per file)`,
   axisFromFolder: (source: string, axis: string, value: string, folder: string) =>
     `${at(source)}no ${axis} column; ${axis} ${value} read from the folder name '${folder}'`,
+  longSplit: (source: string, column: string, splits: string[], metrics: string[]) =>
+    `${at(source)}rows of ${splits.join(', ')} told apart by column '${column}': ${metrics.map((m) => `'${m}'`).join(', ')} read as ${splits.map((s) => `${s}_*`).join(', ')} (the splits of one run and epoch joined)`,
   heldOutTwin: (source: string, column: string, target: string, heldOut: string) =>
     `${at(source)}'${column}' read as ${target} (beside it '${heldOut}' is the held-out metric, taken as test)`,
   paramsAsWidth: (source: string, column: string) =>

@@ -11,6 +11,7 @@ import { ingestText, layoutText } from '../messages.js';
 import type { Reject } from '../store/Reject.js';
 import { formatCondition } from '../store/conditionText.js';
 import { AXIS_RANGE } from './ReadLimits.js';
+import { splitLongRows } from './splitColumn.js';
 
 export type Scale = 'percent' | 'fraction';
 
@@ -433,6 +434,8 @@ export function normalizeRaw(raw: RawTable, opts: NormalizeOptions): Normalized 
   if (raw.headerRepeats) notes.push(ingestText.headerRepeated(source, raw.headerRepeats.line, raw.headerRepeats.count));
   if (raw.notes) notes.push(...raw.notes);
   const summaries = raw.skipped ?? 0;
+  const long = Object.keys(map).length === 0 ? splitLongRows(raw) : null;
+  if (long) notes.push(layoutText.longSplit(source, long.column, long.splits, long.metrics));
   if (n === 0 && !raw.pendingLine) {
     if (summaries === 0) notes.push(ingestText.noRows(source, raw.names.length > 0));
     const layout: SourceLayout = { mapping: {}, passedOver: {}, structure: structureNotes(raw, ''), conditions: {} };

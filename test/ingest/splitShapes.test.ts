@@ -118,3 +118,22 @@ describe('axes written other ways', () => {
     expect(notes).toMatch(/width 16 read from the folder name 'w16_seed0'/);
   });
 });
+
+describe('splits in long form and in nested names', () => {
+  it('rows told apart by a split column: one run, train_* and test_* joined per epoch (no condition per split)', async () => {
+    const { r, rows } = await read('long-split.jsonl');
+    // 4 lines: the two test lines complete the train lines of their epoch (duplicates, DESIGN.md §4).
+    expect([r.read, r.accepted, r.duplicates, r.rejected]).toEqual([4, 2, 2, 0]);
+    expect(pick(rows, 'epochs', 'train_error', 'test_error', 'train_loss', 'test_loss', 'condition')).toEqual([
+      [1, 0.3, 0.5, 0.9, 1.2, ''], [2, 0.2, 0.45, 0.7, 1.1, ''],
+    ]);
+    expect(r.notes.join('\n')).toMatch(/rows of train, test told apart by column 'split'/);
+  });
+
+  it('metrics.train.acc and metrics.test.acc: the split one level up decides train or test', async () => {
+    const { r, rows } = await read('split-metrics.json');
+    expect([r.read, r.accepted, r.rejected]).toEqual([2, 2, 0]);
+    expect(r.mapping).toMatchObject({ test_accuracy: 'metrics.test.acc', train_accuracy: 'metrics.train.acc' });
+    expect(pick(rows, 'width', 'train_error', 'test_error', 'train_loss', 'test_loss')).toEqual([[8, 0.1, 0.4, 0.1, 0.5], [16, 0.05, 0.35, 0.05, 0.4]]);
+  });
+});
