@@ -93,6 +93,19 @@ function folderPairs(folder: string): [string, string][] {
   return out;
 }
 
+/** Whether two columns never both hold a value on one row (one metric spelt two ways in different records). */
+function disjoint(raw: RawTable, a: number, b: number): boolean {
+  const has = (v: RawValue) => v !== undefined && v !== null && v !== '';
+  let any = false;
+  for (let i = 0; i < raw.length; i++) {
+    const x = has(cellAt(raw.columns[a], i));
+    const y = has(cellAt(raw.columns[b], i));
+    if (x && y) return false;
+    if (y) any = true;
+  }
+  return any;
+}
+
 /** Bare metric names (no split word) and the training target they are beside a held-out twin. */
 const BARE_METRICS: Record<string, Target> = { accuracy: 'train_accuracy', acc: 'train_accuracy', loss: 'train_loss', error: 'train_error',
   err: 'train_error', mse: 'train_loss' };
@@ -228,6 +241,33 @@ function mapColumns(raw: RawTable, o: { source: string; map: Partial<Record<Targ
   }
   for (const [t, src] of Object.entries(map) as [Target, string][]) {
     if (/^(best|min|max|peak)[_\- ]/i.test(conditionKey(src))) notes.push(layoutText.bestCaution(source, src));
+  }
+  // Records that name one metric two ways (`val_acc` in some runs, `val_accuracy` in others) never
+  // on one row: one column, so no run loses its metric to the other spelling.
+  for (const t of METRIC_TARGETS_ALL) {
+    const names = candidates[t];
+    if (colOf[t] === undefined || t in map || !names || names.length < 2) continue;
+    const js = [colOf[t]!, ...names.map((nm) => raw.names.indexOf(nm)).filter((jj) => jj !== colOf[t] && jj >= 0 && !used.has(jj))];
+    const spare = js.slice(1).filter((jj) => disjoint(raw, colOf[t]!, jj));
+    if (spare.length === 0) continue;
+    const merged: RawValue[] = new Array(n);
+    const from = [colOf[t]!, ...spare];
+    for (let i = 0; i < n; i++) {
+      for (const jj of from) {
+        const v = cellAt(raw.columns[jj], i);
+        if (v !== undefined && v !== null && v !== '') {
+          merged[i] = v;
+          break;
+        }
+      }
+    }
+    const label = from.map((jj) => raw.names[jj]).join(' | ');
+    for (const jj of spare) used.add(jj);
+    used.add(colOf[t]!);
+    raw.names.push(label);
+    raw.columns.push(merged);
+    colOf[t] = raw.names.length - 1;
+    mapping[t] = label;
   }
   for (const t of TARGETS) {
     const j = colOf[t];

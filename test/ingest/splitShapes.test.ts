@@ -137,3 +137,12 @@ describe('splits in long form and in nested names', () => {
     expect(pick(rows, 'width', 'train_error', 'test_error', 'train_loss', 'test_loss')).toEqual([[8, 0.1, 0.4, 0.1, 0.5], [16, 0.05, 0.35, 0.05, 0.4]]);
   });
 });
+
+describe('one metric spelt two ways in different records', () => {
+  it('val_accuracy in one run and val_acc in another fill one column: no run loses its test accuracy', async () => {
+    const { r, rows } = await read('history-mixed-names.json');
+    expect([r.read, r.accepted, r.rejected]).toEqual([4, 4, 0]);
+    expect(r.mapping).toMatchObject({ test_accuracy: 'val_accuracy | val_acc', train_accuracy: 'accuracy | acc' });
+    expect(pick(rows, 'width', 'epochs', 'train_error', 'test_error')).toEqual([[8, 1, 0.5, 0.55], [8, 2, 0.4, 0.45], [16, 1, 0.45, 0.5], [16, 2, 0.35, 0.48]]);
+  });
+});
