@@ -146,3 +146,12 @@ describe('one metric spelt two ways in different records', () => {
     expect(pick(rows, 'width', 'epochs', 'train_error', 'test_error')).toEqual([[8, 1, 0.5, 0.55], [8, 2, 0.4, 0.45], [16, 1, 0.45, 0.5], [16, 2, 0.35, 0.48]]);
   });
 });
+
+describe('a curve keyed by epoch', () => {
+  it('keys under history are the epochs (named by the curve key, with a note)', async () => {
+    const { r, rows } = await read('epoch-keyed-history.json');
+    expect([r.read, r.accepted, r.rejected]).toEqual([4, 4, 0]);
+    expect(pick(rows, 'width', 'epochs', 'test_error')).toEqual([[8, 1, 0.5], [8, 2, 0.4], [16, 1, 0.45], [16, 2, 0.35]]);
+    expect(r.layouts[0].structure.join('\n')).toMatch(/keys under '\[\]\.history' read as epoch \(named by 'history'/);
+  });
+});

@@ -56,12 +56,16 @@ function readKey(key: string): KeyMeaning {
   return joined.length > 0 ? { kind: 'pairs', pairs: joined } : { kind: 'name' };
 }
 
+const CURVE_KEYS = new Set(['history', 'curve', 'curves', 'log', 'logs', 'traininglog', 'trainlog', 'progress', 'trajectory', 'learningcurve']);
+
 /**
  * The column a level of value keys stands for when its parent's key names an axis
  * (`per_seed` → seed, `by_noise` → noise, `noise_levels` → noise, `widths` → width), or null.
  */
 export function levelNameOfParent(parentKey: string | null): string | null {
   if (parentKey === null) return null;
+  // A run's curve keyed by number (`"history": {"1": {...}, "2": {...}}`): the keys are its epochs.
+  if (CURVE_KEYS.has(parentKey.toLowerCase().replace(/[^a-z]/g, ''))) return 'epoch';
   const candidates: string[] = [];
   let k = parentKey.trim().toLowerCase().replace(/[\s-]+/g, '_');
   k = k.replace(/^(per|by|for|each|over|results_by|results_per)_?/, '').replace(/_?(levels|level|values|list|sweep|grid|results)$/, '');
