@@ -13,7 +13,7 @@ import { keyMeaning, keyNumber, levelNameOfParent } from './json/keyLevel.js';
 import { columnarBlock, isScalarArray } from './json/columnarBlock.js';
 import { columnsTable, indexTable, splitTable, tableOrient } from './json/tableShapes.js';
 import { isRunCollection } from './json/runCollection.js';
-import { joinSplitCurves } from './json/splitCurves.js';
+import { joinSplitCurves, splitPrefix } from './json/splitCurves.js';
 import { CONFIG_PREFIXES, isSummaryName } from './fieldKinds.js';
 import { matchTarget, METRIC_TARGETS, nameKey, nameWords } from './synonyms.js';
 import { ingestText, layoutText } from '../messages.js';
@@ -420,7 +420,10 @@ export class JsonRows {
         if ((v as unknown[]).length > 0 && ctx.summary === null) this.noteUnread(join(ctx.pattern, k), (v as unknown[]).length, 'values');
         continue;
       }
-      const c: Ctx = { ...ctx, fields, path, parentKey: k, summary: ctx.summary ?? (summaryKey(k) ? path : null), pattern: join(ctx.pattern, k), valueName: levelNameOfParent(k) === null ? k : ctx.valueName };
+      // Blocks of runs by split (`"train": [records], "test": [records]`): each row says its split, and
+      // normalisation reads its metrics as train_* / test_* (see splitColumn.ts).
+      const sp = splitPrefix(k);
+      const c: Ctx = { ...ctx, fields: sp === undefined ? fields : { ...fields, split: sp }, path, parentKey: k, summary: ctx.summary ?? (summaryKey(k) ? path : null), pattern: join(ctx.pattern, k), valueName: levelNameOfParent(k) === null ? k : ctx.valueName };
       if (isValueKeyed(v)) count += this.scalarLevel(v as Rec, c);
       else if (Array.isArray(v)) {
         const got = this.visitArray(v, c, true);

@@ -155,3 +155,12 @@ describe('a curve keyed by epoch', () => {
     expect(r.layouts[0].structure.join('\n')).toMatch(/keys under '\[\]\.history' read as epoch \(named by 'history'/);
   });
 });
+
+describe('blocks of runs by split', () => {
+  it('"train": [runs], "test": [runs]: each run once, its train and test metrics joined', async () => {
+    const { r, rows } = await read('runs-by-split.json');
+    // 4 records: each test record completes its train twin (2 duplicates).
+    expect([r.read, r.accepted, r.duplicates, r.rejected]).toEqual([4, 2, 2, 0]);
+    expect(pick(rows, 'width', 'epochs', 'train_error', 'test_error', 'condition')).toEqual([[4, 50, 0.1, 0.4, ''], [8, 50, 0.05, 0.35, '']]);
+  });
+});
