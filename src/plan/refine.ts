@@ -328,7 +328,7 @@ export function proposeRefinements(opts: RefineOptions): RefineResult {
       // prominence as well as placing it, so seeds wait (a quarter of their value).
       const coarse = peakOctaves(values, { ...p, low: p.cellX, high: p.cellX }) > 2 * limit;
       // A failing bump under 2/3 of the bar is more likely noise: a quarter of the value.
-      const borderValue = scale * (failing ? (z >= minProminence / 1.5 ? 1 : 0.25) : Math.max(zValue, pValue)) * (coarse ? 0.25 : 1);
+      const borderValue = scale * (failing ? (z >= minProminence / 1.5 ? 1 : 0.25) * (coarse ? 0.5 : 1) : Math.max(zValue, pValue) * (coarse ? 0.25 : 1));
       if (borderValue > 0) {
         const target = minProminence * 1.5;
         // SE shrinks as 1/√n: the seeds that bring z to the safe side if the peak is real (at
@@ -337,8 +337,10 @@ export function proposeRefinements(opts: RefineOptions): RefineResult {
         const nPeak = at(p.cellX).stats.n;
         const kSeeds = Math.max(1, Math.min(nPeak, Math.ceil(nPeak * ratio)));
         const base = slice.reduce((b, c) => (Math.abs(c.stats.mean - (p.error - p.prominence)) < Math.abs(b.stats.mean - (p.error - p.prominence)) ? c : b), slice[0]);
-        for (const v of new Set([p.cellX, base[axis]]))
-          addSeeds(cfgAt(v), kSeeds, borderValue, model ? 'model-significance' : 'sample-peak', msg.whyPeakSeeds(where, xText(p.x), p.prominenceSe, minProminence, pShown ?? null, alpha));
+        for (const v of new Set(failing ? [p.cellX, base[axis], ...near] : [p.cellX, base[axis]]))
+          // Diminishing: a cell already above the spec's seeds gains less from the next ones
+          // (SE ∝ 1/√n), so another slice's peak or a width comes first.
+          addSeeds(cfgAt(v), kSeeds, borderValue * Math.min(1, spec.seeds.length / Math.max(1, at(v).stats.n)), model ? 'model-significance' : 'sample-peak', msg.whyPeakSeeds(where, xText(p.x), p.prominenceSe, minProminence, pShown ?? null, alpha));
       }
       if (!significant && p !== main) continue;
       // The bracket: the measured values beside the peak cell, widened to hold the interval.
