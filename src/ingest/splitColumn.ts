@@ -44,8 +44,7 @@ export function splitLongRows(raw: RawTable): { column: string; splits: string[]
   const drop = new Set<number>([j, ...metrics]);
   for (const k of metrics) {
     const last = raw.names[k].slice(raw.names[k].lastIndexOf('.') + 1);
-    // `test_error` written on every split: the bare metric is the word after the split-less name.
-    const bare = last.replace(/^(test|train|val|valid|eval)[_\-. ]/i, '');
+    const bare = last;
     for (const p of seen) {
       const out: RawValue[] = new Array(n);
       for (let i = 0; i < n; i++) if (prefixes[i] === p) out[i] = cellAt(raw.columns[k], i);

@@ -10,7 +10,6 @@ import { ingestSources } from '../../src/ingest/ingestSources.js';
 import type { IngestOptions } from '../../src/ingest/ingestSources.js';
 import { readStore } from '../../src/store/readStore.js';
 import { tableToRows } from '../../src/store/tableFromRows.js';
-import { joinSplitCurves } from '../../src/ingest/json/splitCurves.js';
 
 const FIX = join(import.meta.dirname, '../fixtures/ingest/shapes');
 let dir = '';
@@ -58,11 +57,6 @@ describe('sibling curves keyed by split', () => {
     expect(new Set(rows.map((x) => x.run)).size).toBe(2);
   });
 
-  it('joinSplitCurves: names that already say their split keep it; records naming an axis are runs, not a curve', () => {
-    const j = joinSplitCurves({ train: [{ step: 1, train_loss: 0.5 }], val: [{ step: 1, loss: 0.7 }] });
-    expect(j?.points).toEqual([{ step: 1, train_loss: 0.5, val_loss: 0.7 }]);
-    expect(joinSplitCurves({ train: [{ width: 4, error: 0.1 }], test: [{ width: 4, error: 0.3 }] })).toBeNull();
-  });
 });
 
 describe('per-epoch history with val_ twins', () => {
