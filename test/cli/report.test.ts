@@ -106,6 +106,15 @@ describe('datlas report', () => {
     expect(text).toContain('Headline findings');
     expect(text).toContain('Coverage against the spec');
     expect(text).toContain('Proposed next runs');
+    // The hurts page says its rises survived the correction across the slices scanned, uncut.
+    expect(text).toMatch(/\d+ of \d+ train-size slices show a rise, after correction \(Benjamini–Hochberg across the \d+ slices scanned, FDR 0\.05\) at epochs 1000; worst rise first/);
+  });
+
+  it('the HTML hurts section names the correction across slices', () => {
+    const html = readFileSync(json.files.html, 'utf8');
+    const section = html.slice(html.indexOf('<h2>Where more data hurts</h2>'));
+    expect(section).toMatch(/^<h2>Where more data hurts<\/h2><p class="meta">\d+ of \d+ train-size slices show a rise, after correction \(Benjamini–Hochberg across the \d+ slices scanned/);
+    expect(section).toContain('<th>adjusted p</th>');
   });
 });
 
