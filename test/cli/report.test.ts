@@ -35,7 +35,7 @@ describe('datlas report', () => {
     maps: { map: string; fixed: Record<string, number>; rows: { y: number; peak: { x: number; low: number; high: number } | null }[] }[];
     hurts: { segments: { fixed: Record<string, number>; onset: number; peak: number }[] }[];
     coverage: { counts: { complete: number; missing: number } };
-    plan: { runs: { reason: string }[] };
+    plan: { runs: { config: Record<string, number | string>; seed: number; epochs: number; reason: string; cost: number; why: string }[] };
   };
   let out: string;
 
@@ -80,6 +80,19 @@ describe('datlas report', () => {
     expect(json.coverage.counts.complete).toBe(124);
     expect(json.plan.runs.slice(0, 2).map((r) => r.reason)).toEqual(['missing', 'missing']);
     expect(json.findings.some((f) => f.includes('2 of 126 planned runs have no data'))).toBe(true);
+  });
+
+  it('proposes exactly the runs `datlas plan --json` proposes for the same store and spec', () => {
+    const r = runCli(['plan', '--store', store, '--spec', join(dir, 'spec.yaml'), '--json', '--quiet']);
+    expect(r.code, r.stderr).toBe(0);
+    const plan = JSON.parse(r.stdout) as { runs: { condition: string; width: number; train_size: number; label_noise: number; seed: number; epochs: number; reason: string; cost: number; why: string }[] };
+    expect(plan.runs.length).toBeGreaterThan(2);
+    // The report keeps the plan's order and rows; only the JSON cost is rounded for printing.
+    expect(json.plan.runs.map(({ cost: _, ...r }) => r)).toEqual(
+      plan.runs.map((p) => ({ config: { ...(p.condition ? { condition: p.condition } : {}), label_noise: p.label_noise, width: p.width, train_size: p.train_size }, seed: p.seed, epochs: p.epochs, reason: p.reason, why: p.why })),
+    );
+    // plan --json prints costs to 4 significant digits (roundCost).
+    json.plan.runs.forEach((run, i) => expect(Number(run.cost.toPrecision(4))).toBe(plan.runs[i].cost));
   });
 
   it('writes the PDF deck, the HTML page, PNGs and JSON', () => {
