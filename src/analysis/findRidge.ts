@@ -154,7 +154,7 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
     /** The row had enough points to look for a peak (a member of the multiple-testing family). */
     scanned: boolean;
   }
-  const work: RowWork[] = ys.map((y, rowIndex) => {
+  const work: RowWork[] = ys.map((y) => {
     const all = (byY.get(y) ?? []).filter((p) => Number.isFinite(tx.to(p.x))).sort((a, b) => a.x - b.x);
     const crossing = thresholdCrossing(
       all.map((p) => tx.to(p.x)),
@@ -168,8 +168,9 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
     const means = cells.map((c) => c.stats.mean);
     const noise = seriesNoise(cells, u);
     const row: RidgeRow = { y, peak: null, others: [], threshold, thresholdAtEdge: crossing?.atEdge ?? false, ratio: null, noiseFrom: noise.from, noiseSd: noise.sd, insideNoise: null, model: 'cells' };
-    // One bootstrap stream per row: the same seed gives the same answer whatever other rows exist.
-    const rng = seededRng(deriveSeed(seed, rowIndex));
+    // One bootstrap stream per row, seeded by the row's y value (not its position): the same seed
+    // gives a row the same interval whatever other rows the map holds.
+    const rng = seededRng(deriveSeed(seed, hashKey(`y=${y}`)));
     if (pts.length < 3) return { row, candidates: [], from: tx.from, scanned: false };
 
     const onLog = pts.filter((p) => p.x > 0);
