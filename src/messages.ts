@@ -278,6 +278,7 @@ export const analysisText = {
   fmtFixed,
   badHurtsAt: (key: string) =>
     `--at ${key}=...: hurts runs along train_size at fixed width, epochs, label_noise or condition; '${key}' cannot be fixed here`,
+  badCorrection: (text: string) => `--correction expects benjamini-hochberg (bh for short) or none, got '${text}'`,
   badKind: (kind: string) => `--kind expects model, sample or epoch, got '${kind}'`,
   badNumber: (flag: string, text: string, what: string) => `${flag} expects ${what}, got '${text}'`,
   noCells: (fixed: Record<string, number | string>) =>

@@ -1,4 +1,6 @@
 import type { Cell } from '../cells/Cell.js';
+import { correctionName } from './correctionName.js';
+import type { CorrectionSpelling } from './correctionName.js';
 import type { SweepMap } from '../grid/SweepMap.js';
 import { axisTransform } from '../grid/axisScale.js';
 import { thresholdCrossing } from './findThreshold.js';
@@ -42,7 +44,7 @@ export interface RidgeOptions {
    * Correction across the rows scanned (default Benjamini–Hochberg 1995, false discovery rate at
    * `alpha`); 'none' judges each row alone.
    */
-  correction?: 'benjamini-hochberg' | 'none';
+  correction?: CorrectionSpelling;
 }
 
 /** Default smallest rise and fall of a curve peak, in octaves. */
@@ -110,7 +112,7 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
   const alpha = opts.alpha ?? 0.05;
   const nullRounds = Math.max(0, Math.floor(opts.nullRounds ?? 1000));
   const minExtent = opts.minExtent ?? DEFAULT_MIN_EXTENT;
-  const correction = opts.correction ?? 'benjamini-hochberg';
+  const correction = correctionName(opts.correction ?? 'benjamini-hochberg');
   const tx = axisTransform(map.x.scale);
   const direction = map.x.name === 'train_size' ? 'last-below' : 'first-below';
 
