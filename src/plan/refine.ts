@@ -158,7 +158,8 @@ function peakOctaves(values: readonly number[], p: Peak): number {
  *   (after falling first) has an epoch-wise peak not yet appeared: its runs resume to
  *   `epochFactor` × the target, at SECONDARY weight.
  * - model-significance / hurts-significance: where a peak is borderline (prominence within a
- *   factor 1.5 of the minimum, either side) extra seeds at the peak cell and its two neighbours;
+ *   factor 1.5 of the minimum, either side) extra seeds at the peak cell and its key base (and
+ *   both neighbours while it fails), valued less at a cell already above the spec's seeds;
  *   where a hurts segment is borderline (p within a factor 4 of alpha, either side) extra seeds at
  *   its onset and peak. The number of seeds is what would move the statistic to the safe side if
  *   the effect is real (standard errors shrink as 1/√n); value 1 at the threshold, falling to 0
@@ -325,10 +326,12 @@ export function proposeRefinements(opts: RefineOptions): RefineResult {
       const pValue = pShown === undefined ? 0 : pShown >= alpha ? 1 : Math.max(0, 1 - Math.log(alpha / Math.max(pShown, 1e-9)) / Math.log(10));
       // While the grid beside the peak cell is coarser than twice the resolution, the cell's mean
       // is not the peak's height (a sharp peak between cells): a new width there raises the
-      // prominence as well as placing it, so seeds wait (a quarter of their value).
+      // prominence as well as placing it, so seeds of a passing peak wait (a quarter of their
+      // value); those of a failing one get half, at the peak and both neighbours: under a run cap
+      // the next round may be the last, and the pair SE of both flanks enters the test.
       const coarse = peakOctaves(values, { ...p, low: p.cellX, high: p.cellX }) > 2 * limit;
       // A failing bump under 2/3 of the bar is more likely noise: a quarter of the value.
-      const borderValue = scale * (failing ? (z >= minProminence / 1.5 ? 1 : 0.25) : Math.max(zValue, pValue)) * (coarse ? 0.25 : 1);
+      const borderValue = scale * (failing ? (z >= minProminence / 1.5 ? 1 : 0.25) * (coarse ? 0.5 : 1) : Math.max(zValue, pValue) * (coarse ? 0.25 : 1));
       if (borderValue > 0) {
         const target = minProminence * 1.5;
         // SE shrinks as 1/√n: the seeds that bring z to the safe side if the peak is real (at
@@ -337,8 +340,10 @@ export function proposeRefinements(opts: RefineOptions): RefineResult {
         const nPeak = at(p.cellX).stats.n;
         const kSeeds = Math.max(1, Math.min(nPeak, Math.ceil(nPeak * ratio)));
         const base = slice.reduce((b, c) => (Math.abs(c.stats.mean - (p.error - p.prominence)) < Math.abs(b.stats.mean - (p.error - p.prominence)) ? c : b), slice[0]);
-        for (const v of new Set([p.cellX, base[axis]]))
-          addSeeds(cfgAt(v), kSeeds, borderValue, model ? 'model-significance' : 'sample-peak', msg.whyPeakSeeds(where, xText(p.x), p.prominenceSe, minProminence, pShown ?? null, alpha));
+        for (const v of new Set(failing ? [p.cellX, base[axis], ...near] : [p.cellX, base[axis]]))
+          // Diminishing: a cell already above the spec's seeds gains less from the next ones
+          // (SE ∝ 1/√n), so another slice's peak or a width comes first.
+          addSeeds(cfgAt(v), kSeeds, borderValue * Math.min(1, spec.seeds.length / Math.max(1, at(v).stats.n)), model ? 'model-significance' : 'sample-peak', msg.whyPeakSeeds(where, xText(p.x), p.prominenceSe, minProminence, pShown ?? null, alpha));
       }
       if (!significant && p !== main) continue;
       // The bracket: the measured values beside the peak cell, widened to hold the interval.
