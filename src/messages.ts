@@ -281,6 +281,7 @@ export const analysisText = {
   fmtFixed,
   badHurtsAt: (key: string) =>
     `--at ${key}=...: hurts runs along train_size at fixed width, epochs, label_noise or condition; '${key}' cannot be fixed here`,
+  badCorrection: (text: string) => `--correction expects benjamini-hochberg (bh for short) or none, got '${text}'`,
   badKind: (kind: string) => `--kind expects model, sample or epoch, got '${kind}'`,
   badNumber: (flag: string, text: string, what: string) => `${flag} expects ${what}, got '${text}'`,
   noCells: (fixed: Record<string, number | string>) =>
@@ -535,6 +536,12 @@ export const report = {
     `${slices} train-size slices were each tested at α = ${alpha}: about ${alpha} × ${slices} rises could be significant by chance alone.`,
   hurtsCorrected: (slices: number, alpha: string) =>
     `${slices} train-size slices were scanned; rises are listed when significant after Benjamini–Hochberg correction across them (false discovery rate ${alpha}), so about ${alpha} of the listed rises may still be chance.`,
+  /** Subtitle of the hurts page (deck) and line above its table (HTML): how many slices hold a rise, and under which correction. */
+  hurtsSubtitle: (o: { withRise: number; slices: number; fixed: string; alpha: string; correction: 'benjamini-hochberg' | 'none' }) =>
+    (o.correction === 'benjamini-hochberg'
+      ? `${o.withRise} of ${o.slices} train-size slices show a rise, after correction (Benjamini–Hochberg across the ${o.slices} slices scanned, FDR ${o.alpha})`
+      : `${o.withRise} of ${o.slices} train-size slices show a rise, each tested alone at α = ${o.alpha} (no correction across slices)`) +
+    ` at ${o.fixed || 'every epoch'}; worst rise first`,
   interpolatedPage:
     'Colours between measured cells are interpolated, not measured: a feature that lies between cells (a narrow peak, an edge) can be missed or invented. Check the measured-cells page and the hatching before quoting a value from here.',
   skipAxis: (axis: string, n: number, need: number) => `the sweep has ${n} value${n === 1 ? '' : 's'} of ${axis}; this map needs at least ${need}`,

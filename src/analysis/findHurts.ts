@@ -1,4 +1,6 @@
 import type { Cell } from '../cells/Cell.js';
+import { correctionName } from './correctionName.js';
+import type { CorrectionSpelling } from './correctionName.js';
 import { analysisText } from '../messages.js';
 import { usageError } from '../UserError.js';
 import { adjustedAs } from './benjaminiHochberg.js';
@@ -29,7 +31,7 @@ export interface HurtsOptions {
    * Correction across the slices scanned (default Benjamini–Hochberg 1995: false discovery rate
    * at `alpha`); 'none' judges each slice alone.
    */
-  correction?: 'benjamini-hochberg' | 'none';
+  correction?: CorrectionSpelling;
   /** Coverage of the onset interval (default 0.95). */
   level?: number;
 }
@@ -93,7 +95,7 @@ export function findHurts(cells: Cell[], opts: HurtsOptions = {}): HurtsResult {
   const boot = Math.max(1, Math.floor(opts.boot ?? 1000));
   const seed = opts.seed ?? 1;
   const nullRounds = Math.max(0, Math.floor(opts.nullRounds ?? 1000));
-  const correction = opts.correction ?? 'benjamini-hochberg';
+  const correction = correctionName(opts.correction ?? 'benjamini-hochberg');
   const level = opts.level ?? 0.95;
   for (const k of Object.keys(at)) {
     if (!(HURTS_SLICE_KEYS as readonly string[]).includes(k)) throw usageError(analysisText.badHurtsAt(k));

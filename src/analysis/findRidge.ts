@@ -1,4 +1,6 @@
 import type { Cell } from '../cells/Cell.js';
+import { correctionName } from './correctionName.js';
+import type { CorrectionSpelling } from './correctionName.js';
 import type { SweepMap } from '../grid/SweepMap.js';
 import { axisTransform } from '../grid/axisScale.js';
 import { thresholdCrossing } from './findThreshold.js';
@@ -42,7 +44,7 @@ export interface RidgeOptions {
    * Correction across the rows scanned (default Benjamini–Hochberg 1995, false discovery rate at
    * `alpha`); 'none' judges each row alone.
    */
-  correction?: 'benjamini-hochberg' | 'none';
+  correction?: CorrectionSpelling;
 }
 
 /** Default smallest rise and fall of a curve peak, in octaves. */
@@ -110,7 +112,7 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
   const alpha = opts.alpha ?? 0.05;
   const nullRounds = Math.max(0, Math.floor(opts.nullRounds ?? 1000));
   const minExtent = opts.minExtent ?? DEFAULT_MIN_EXTENT;
-  const correction = opts.correction ?? 'benjamini-hochberg';
+  const correction = correctionName(opts.correction ?? 'benjamini-hochberg');
   const tx = axisTransform(map.x.scale);
   const direction = map.x.name === 'train_size' ? 'last-below' : 'first-below';
 
@@ -154,7 +156,7 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
     /** The row had enough points to look for a peak (a member of the multiple-testing family). */
     scanned: boolean;
   }
-  const work: RowWork[] = ys.map((y, rowIndex) => {
+  const work: RowWork[] = ys.map((y) => {
     const all = (byY.get(y) ?? []).filter((p) => Number.isFinite(tx.to(p.x))).sort((a, b) => a.x - b.x);
     const crossing = thresholdCrossing(
       all.map((p) => tx.to(p.x)),
@@ -168,8 +170,9 @@ export function findRidge(map: RidgeMap, opts: RidgeOptions = {}): RidgeResult {
     const means = cells.map((c) => c.stats.mean);
     const noise = seriesNoise(cells, u);
     const row: RidgeRow = { y, peak: null, others: [], threshold, thresholdAtEdge: crossing?.atEdge ?? false, ratio: null, noiseFrom: noise.from, noiseSd: noise.sd, insideNoise: null, model: 'cells' };
-    // One bootstrap stream per row: the same seed gives the same answer whatever other rows exist.
-    const rng = seededRng(deriveSeed(seed, rowIndex));
+    // One bootstrap stream per row, seeded by the row's y value (not its position): the same seed
+    // gives a row the same interval whatever other rows the map holds.
+    const rng = seededRng(deriveSeed(seed, hashKey(`y=${y}`)));
     if (pts.length < 3) return { row, candidates: [], from: tx.from, scanned: false };
 
     const onLog = pts.filter((p) => p.x > 0);

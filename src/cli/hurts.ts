@@ -3,6 +3,7 @@ import type { HurtsResult } from '../analysis/Hurts.js';
 import { analysisText as t } from '../messages.js';
 import type { Metric } from '../store/RowTable.js';
 import { UserError } from '../UserError.js';
+import { correctionName } from '../analysis/correctionName.js';
 import type { CommandSpec } from './CommandSpec.js';
 import { parseAt } from './parseAt.js';
 import { checkNumber } from './ridge.js';
@@ -15,7 +16,7 @@ interface HurtsArgs {
   seed: number;
   store: string;
   limit: number;
-  correction: 'bh' | 'none';
+  correction: string;
 }
 
 function hurtsText(r: HurtsResult, limit: number): string {
@@ -44,7 +45,7 @@ export const command: CommandSpec<HurtsArgs> = {
       .option('alpha', { type: 'number', default: 0.05, describe: 'significance level of a rise (Welch test, and the search-wide check)' })
       .option('boot', { type: 'number', default: 1000, describe: 'bootstrap rounds when a compared cell has one seed' })
       .option('seed', { type: 'number', default: 1, describe: 'random seed of the bootstrap and the search-wide check' })
-      .option('correction', { type: 'string', choices: ['bh', 'none'], default: 'bh', describe: 'across slices: bh = Benjamini–Hochberg (false discovery rate at --alpha), none = each slice alone' })
+      .option('correction', { type: 'string', default: 'benjamini-hochberg', describe: 'across slices: benjamini-hochberg (bh for short; false discovery rate at --alpha) or none (each slice alone)' })
       .option('limit', { type: 'number', default: 20, describe: 'segments shown in the text output (all are in --json)' })
       .option('store', { type: 'string', default: 'atlas-store', describe: 'store directory' }),
   async run(args) {
@@ -52,6 +53,7 @@ export const command: CommandSpec<HurtsArgs> = {
     checkNumber('--boot', args.boot, (v) => v >= 1 && v <= 1e6 && Number.isInteger(v), 'a whole number of rounds (1 to 1,000,000)');
     checkNumber('--seed', args.seed, Number.isInteger, 'a whole number');
     checkNumber('--limit', args.limit, (v) => v >= 0 && Number.isInteger(v), 'a whole number >= 0');
+    const correction = correctionName(args.correction);
     const at = parseAt(args.at);
     const { readStore } = await import('../store/readStore.js');
     const { buildCells } = await import('../cells/buildCells.js');
@@ -63,7 +65,7 @@ export const command: CommandSpec<HurtsArgs> = {
     // A fixed epoch budget need not be logged exactly: runs are aligned to it along their own curves.
     const epochs = typeof at.epochs === 'number' ? [at.epochs] : undefined;
     const cells = buildCells(table, { metric, epochs });
-    const result = findHurts(cells, { at, alpha: args.alpha, boot: args.boot, seed: args.seed, correction: args.correction === 'none' ? 'none' : 'benjamini-hochberg' });
+    const result = findHurts(cells, { at, alpha: args.alpha, boot: args.boot, seed: args.seed, correction });
     if (result.slices === 0) throw new UserError(result.singleSize ? t.hurtsOneSize(result.singleSize) : t.noCells(at));
     if (args.json) process.stdout.write(`${JSON.stringify(result)}\n`);
     else process.stdout.write(`${hurtsText(result, args.limit)}\n`);

@@ -39,22 +39,13 @@ export function dataDate(manifest: Manifest): string | null {
   return times.length ? new Date(Math.max(...times)).toISOString() : null;
 }
 
-/** Coverage and plan of a spec against a table, composed like `datlas plan` (gaps first, then refinement). */
+/**
+ * Coverage and plan of a spec against a table: `datlas plan`'s own composition (composePlan, as
+ * the library's planRuns), so the report's runs are the ones `datlas plan --json` lists.
+ */
 export async function coverageAndPlan(opts: { table: RowTable; spec: SweepSpec; budget?: string }): Promise<{ coverage: CoverageResult; plan: PlanResult }> {
-  const [{ coverage }, { storeRuns }, { fitCostModel }, { planRuns }, { proposeRefinements }, { parseBudget }] = await Promise.all([
-    import('../plan/coverage.js'),
-    import('../plan/storeRuns.js'),
-    import('../plan/costModel.js'),
-    import('../plan/planRuns.js'),
-    import('../plan/refine.js'),
-    import('./plan.js'),
-  ]);
-  const { table, spec } = opts;
-  const cov = coverage(table, spec);
-  const model = fitCostModel({ runs: storeRuns(table), reference: { width: spec.axes.width[0], train_size: spec.axes.train_size[0], epochs: spec.epochs } });
-  const candidates = table.length ? proposeRefinements({ table, spec }).candidates : [];
-  const plan = planRuns({ spec, coverage: cov, model, candidates, budget: parseBudget(opts.budget, model) });
-  return { coverage: cov, plan };
+  const { composePlan } = await import('../plan/composePlan.js');
+  return composePlan({ table: opts.table, spec: opts.spec, budget: opts.budget });
 }
 
 export interface MakeReportOptions {

@@ -4,6 +4,7 @@ import type { MapKind } from '../grid/SweepMap.js';
 import { analysisText as t } from '../messages.js';
 import type { Metric } from '../store/RowTable.js';
 import { usageError } from '../UserError.js';
+import { correctionName } from '../analysis/correctionName.js';
 import type { CommandSpec } from './CommandSpec.js';
 import { parseAt } from './parseAt.js';
 // The --json object is the library's (findRidge in src/api), so the two cannot drift.
@@ -20,7 +21,7 @@ interface RidgeArgs {
   seed: number;
   store: string;
   minExtent: number;
-  correction: 'bh' | 'none';
+  correction: string;
 }
 
 /** Rejects non-finite or out-of-range numbers with a usage error naming the flag. */
@@ -82,7 +83,7 @@ export const command: CommandSpec<RidgeArgs> = {
       .option('boot', { type: 'number', default: 1000, describe: 'bootstrap rounds for the location interval (resampling seeds per cell)' })
       .option('seed', { type: 'number', default: 1, describe: 'random seed of the bootstrap' })
       .option('min-extent', { type: 'number', default: 0.25, describe: 'one value per point (one seed, or means): smallest rise and fall of a peak along the smoothed curve, in octaves at half height' })
-      .option('correction', { type: 'string', choices: ['bh', 'none'], default: 'bh', describe: 'across rows: bh = Benjamini–Hochberg (false discovery rate at --alpha), none = each row alone' })
+      .option('correction', { type: 'string', default: 'benjamini-hochberg', describe: 'across rows: benjamini-hochberg (bh for short; false discovery rate at --alpha) or none (each row alone)' })
       .option('epsilon', { type: 'number', default: 0.01, describe: 'train error at or below which the interpolation threshold is reached' })
       .option('store', { type: 'string', default: 'atlas-store', describe: 'store directory' }),
   async run(args) {
@@ -93,6 +94,7 @@ export const command: CommandSpec<RidgeArgs> = {
     checkNumber('--epsilon', args.epsilon, (v) => v >= 0, 'a train error >= 0');
     checkNumber('--seed', args.seed, Number.isInteger, 'a whole number');
     checkNumber('--min-extent', args.minExtent, (v) => v > 0 && v <= 8, 'octaves, a number in (0, 8]');
+    const correction = correctionName(args.correction);
     const at = parseAt(args.at);
     const { readStore } = await import('../store/readStore.js');
     const { buildMap } = await import('../grid/buildMap.js');
@@ -104,7 +106,7 @@ export const command: CommandSpec<RidgeArgs> = {
     // Every logged epoch up to 10,000 (the map's default keeps 100): a single-seed epoch-wise log is
     // a curve of thousands of points, and the curve model smooths and tests on all of them.
     const map = buildMap(table, { kind: args.kind, at, metric: args.metric, method: 'linear', raster: { nx: 16, ny: 16 }, maxEpochs: 10_000 });
-    const ridge = findRidge(map, { minProminence: args.minProminence, boot: args.boot, seed: args.seed, epsilon: args.epsilon, alpha: args.alpha, minExtent: args.minExtent, correction: args.correction === 'none' ? 'none' : 'benjamini-hochberg' });
+    const ridge = findRidge(map, { minProminence: args.minProminence, boot: args.boot, seed: args.seed, epsilon: args.epsilon, alpha: args.alpha, minExtent: args.minExtent, correction });
     if (!args.quiet) {
       if (map.picked.length) process.stderr.write(`${t.picked(map.picked, map.fixed, map.pickedTies)}\n`);
       for (const note of map.notes ?? []) process.stderr.write(`${note}\n`);

@@ -191,7 +191,8 @@ function resolveAxes(opts: MapOptions, conds: Conditions): { kind: SweepMap['kin
 /**
  * Step 2: the rows of the slice. Rows carrying information (a finite metric or a diverged mark),
  * restricted to the `at` values, then every other axis (and the condition) fixed: the given value,
- * or the one with the most rows (ties to the largest), listed in `picked`. Epochs are fixed later,
+ * or the one with the most rows (ties to the largest), listed in `picked` (an axis with a single
+ * value left in the slice is fixed but not listed: nothing was chosen). Epochs are fixed later,
  * by aligning runs along their curves.
  */
 function sliceRows(table: RowTable, opts: MapOptions, conds: Conditions, axes: { xName: string; yName: string }, metric: Metric): {
@@ -268,10 +269,14 @@ function sliceRows(table: RowTable, opts: MapOptions, conds: Conditions, axes: {
       }
       if (best === undefined) throw new UserError(msg.noMetric(metric));
       value = best;
-      picked.push(name);
-      // Levels with as much data as the pick: the pick is only the tie-break (largest), not "most data".
-      const tied = [...counts].filter(([v, c]) => c === bestCount && !(typeof v === 'number' && !Number.isFinite(v))).length;
-      if (tied > 1) pickedTies[name] = tied;
+      const levels = [...counts].filter(([v]) => !(typeof v === 'number' && !Number.isFinite(v)));
+      // An axis with one value left in the slice offers no choice: it is fixed, not picked.
+      if (levels.length > 1) {
+        picked.push(name);
+        // Levels with as much data as the pick: the pick is only the tie-break (largest), not "most data".
+        const tied = levels.filter(([, c]) => c === bestCount).length;
+        if (tied > 1) pickedTies[name] = tied;
+      }
     }
     fixed[name] = value;
     if (name !== 'epochs') {
@@ -501,7 +506,7 @@ function cellNotes(measured: MapCell[]): string[] {
  * A map: the metric over two axes with every other axis (and the condition) fixed, from the
  * seed-aggregated cells, interpolated on a regular raster in the transformed plane.
  * Fixed values not given in `at` are picked — the value with the most rows, ties to the largest —
- * and listed in `picked`. `auto` picks the method with the lowest leave-one-out RMSE.
+ * and listed in `picked` (unless the slice holds a single value of that axis). `auto` picks the method with the lowest leave-one-out RMSE.
  * The steps: resolve the axes, slice the rows, aggregate the cells, choose the axes' scales and
  * values, fit the field, rasterise it.
  */

@@ -5,7 +5,7 @@ import { pickedList, report as msg } from '../messages.js';
 import { metricLabel } from '../render/axisText.js';
 import { PAGE_SCRIPT } from './pageScript.js';
 import type { MapSection, ReportModel } from './ReportModel.js';
-import { factRows, hurtsTable, planGroups, planRows, PLAN_COLUMNS, PLAN_GROUP_COLUMNS, COVERAGE_COLUMNS, COVERAGE_GROUP_COLUMNS, coverageGroups, coverageRows } from './reportTables.js';
+import { factRows, hurtsSubtitle, hurtsTable, planGroups, planRows, PLAN_COLUMNS, PLAN_GROUP_COLUMNS, COVERAGE_COLUMNS, COVERAGE_GROUP_COLUMNS, coverageGroups, coverageRows } from './reportTables.js';
 
 /** A static picture beside a map (interpolated field, slices), embedded as a data URL. */
 export interface PageFigure {
@@ -111,9 +111,9 @@ export function htmlPage(opts: HtmlPageOptions): string {
     ? `<h2>Maps not drawn</h2><ul>${model.skipped.map((s) => `<li>${esc(s.kind)}-wise: ${esc(s.reason)}</li>`).join('')}</ul>`
     : '';
   const hurts = hurtsTable(model.hurts);
-  const hurtsFixed = model.hurts[0] ? formatFixed(model.hurts[0].fixed) : '';
-  const hurtsHtml = `<h2>Where more data hurts</h2>${
-    hurts.rows.length ? `<p class="meta">${esc(`${model.hurts[0].slices ?? '?'} train-size slices${hurtsFixed ? ` at ${hurtsFixed}` : ''}; worst rise first`)}</p>${table(hurts.columns, hurts.rows)}` : '<p>No significant rise of test error with train size in any slice the sweep covers.</p>'
+  const hurtsMeta = model.hurts[0] ? `<p class="meta">${esc(hurtsSubtitle(model.hurts[0]))}</p>` : '';
+  const hurtsHtml = `<h2>Where more data hurts</h2>${hurtsMeta}${
+    hurts.rows.length ? table(hurts.columns, hurts.rows) : '<p>No significant rise of test error with train size in any slice the sweep covers.</p>'
   }${opts.hurtsFigure ? figureHtml(opts.hurtsFigure) : ''}`;
   const coverageHtml = model.coverage
     ? `<h2>Coverage against the spec</h2><p>${esc(

@@ -1,6 +1,7 @@
 import type { HurtsResult } from '../analysis/Hurts.js';
 import type { RidgeResult } from '../analysis/Ridge.js';
 import { formatCost, formatFixed, formatNumber } from '../formatNumber.js';
+import { report as msg } from '../messages.js';
 import type { CoverageSummary, PlanSummary, ReportFacts } from './ReportModel.js';
 
 /** The tables of the report as rows of text, shared by the PDF deck and the HTML page. */
@@ -46,23 +47,36 @@ export function ridgeRows(r: RidgeResult): string[][] {
  * The hurts segments as a table: one column per slice value that differs between segments
  * (values all segments share — the scan's epoch, an empty condition — are said in the caption).
  */
+const pText = (p: number) => (p < 1e-4 ? '< 1e-4' : formatNumber(p, 2));
+
 export function hurtsTable(results: HurtsResult[]): { columns: string[]; rows: string[][] } {
   const segs = results.flatMap((h) => h.segments);
   const keys = [...new Set(segs.flatMap((s) => Object.keys(s.fixed)))];
   const varying = keys.filter((k) => segs.length === 1 ? !(k === 'condition' && segs[0].fixed[k] === '') : segs.some((s) => s.fixed[k] !== segs[0].fixed[k]));
   const cell = (v: number | string | undefined) => (typeof v === 'number' ? formatNumber(v) : (v ?? ''));
   return {
-    columns: [...varying, 'onset n', 'peak n', 'recovery n', 'rise', 'p', 'test'],
+    columns: [...varying, 'onset n', 'peak n', 'recovery n', 'rise', 'p', 'adjusted p', 'test'],
     rows: segs.map((s) => [
       ...varying.map((k) => cell(s.fixed[k])),
       formatNumber(s.onset),
       formatNumber(s.peak),
       s.recovery === null ? 'not reached' : formatNumber(s.recovery),
       formatNumber(s.rise),
-      s.p < 1e-4 ? '< 1e-4' : formatNumber(s.p, 2),
+      pText(s.p),
+      s.pAdjusted === undefined ? '' : pText(s.pAdjusted),
       s.test,
     ]),
   };
+}
+
+/**
+ * What the hurts table stands on: how many of the slices scanned hold a rise, and the correction
+ * across them (deck subtitle and HTML line alike, so neither can drop the multiple-testing word).
+ */
+export function hurtsSubtitle(h: HurtsResult): string {
+  const slices = h.slices ?? 0;
+  const withRise = h.slicesWithRise ?? new Set(h.segments.map((s) => JSON.stringify(s.fixed))).size;
+  return msg.hurtsSubtitle({ withRise, slices, fixed: formatFixed(h.fixed), alpha: formatNumber(h.alpha ?? 0.05), correction: h.correction ?? 'benjamini-hochberg' });
 }
 
 export const COVERAGE_COLUMNS = ['configuration', 'seed', 'status'];

@@ -18,6 +18,7 @@ import {
   coverageGroups,
   coverageRows,
   factRows,
+  hurtsSubtitle,
   hurtsTable,
   PLAN_COLUMNS,
   PLAN_GROUP_COLUMNS,
@@ -171,7 +172,7 @@ export async function writeReport(opts: WriteReportOptions): Promise<ReportFiles
     const table: DeckBlock = hurts.rows.length ? { kind: 'table', columns: hurts.columns, rows: hurts.rows, size: 9.5, align: hurts.columns.map(() => 'right' as const) } : { kind: 'text', text: 'No significant rise of test error with train size in any slice.' };
     pages.push({
       title: 'Where more data hurts',
-      subtitle: `${h.slices ?? '?'} train-size slices at ${formatFixed(h.fixed) || 'every epoch'}, α = ${formatNumber(h.alpha ?? 0.05)}; worst rise first`,
+      subtitle: hurtsSubtitle(h),
       // The table is short (a few segments): it goes on top and the chart takes the rest of the
       // slide at full width, instead of a third of it beside the table.
       columns: hurtsPng ? [[table, { kind: 'image', png: hurtsPng }, { kind: 'text', text: msg.hurtsFigure, size: 9.5, color: '#5b6472' }]] : [[table]],

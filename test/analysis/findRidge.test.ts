@@ -120,4 +120,24 @@ describe('findRidge', () => {
     expect(a.rows[2].peak).not.toBeNull();
     expect(a).toMatchObject({ map: 'model', x: 'width', y: 'epochs', minProminence: 2, epsilon: 0.01, boot: 200 });
   });
+
+  it("gives a row the same bootstrap interval whether or not other rows are in the map", () => {
+    // Tall peaks (prominence ~10 SE), so the correction across rows cannot change which peak is reported.
+    const curve = (u: number) => 0.3 + 0.1 * Math.exp(-((u - 5) ** 2) / 0.8);
+    const seeds = [10, 100, 1000].map((y) => ({ y, cells: noisyRow(curve, 4, 0.02) }));
+    // One seed per cell: the smoothed-curve model and its residual block bootstrap.
+    const single = [10, 100, 1000].map((y) => ({ y, cells: noisyRow(curve, 1, 0.01) }));
+    for (const rows of [seeds, single]) {
+      const full = findRidge(makeMap({ xs: XS, rows }), { boot: 200, seed: 7 });
+      for (const keep of [[2], [1, 2], [0, 2]]) {
+        const part = findRidge(makeMap({ xs: XS, rows: keep.map((i) => rows[i]) }), { boot: 200, seed: 7 });
+        const a = full.rows.find((r) => r.y === 1000)!.peak;
+        const b = part.rows.find((r) => r.y === 1000)!.peak;
+        expect(a).not.toBeNull();
+        expect([b?.low, b?.high, b?.x]).toEqual([a!.low, a!.high, a!.x]);
+        // The interval is a real bootstrap (not collapsed onto the estimate).
+        expect(a!.high).toBeGreaterThan(a!.low);
+      }
+    }
+  });
 });

@@ -60,7 +60,8 @@ describe('datlas map', () => {
     expect(r.stderr).toBe('');
     expect(r.code).toBe(0);
     const s = JSON.parse(r.stdout);
-    expect(s).toMatchObject({ map: 'model', metric: 'test_error', fixed: { label_noise: 0.2, train_size: 500 }, picked: ['label_noise', 'train_size'] });
+    expect(s).toMatchObject({ map: 'model', metric: 'test_error', fixed: { label_noise: 0.2, train_size: 500 }, picked: ['label_noise'] });
+    // Every run has train size 500: fixed, but not a pick (nothing to choose from).
     expect(s.cells).toEqual({ measured: 19, missing: 1, diverged: 0 });
     expect(Object.keys(s.loo.tried).sort()).toEqual(['gp', 'linear', 'thin-plate']);
     const file = JSON.parse(readFileSync(join(out, 'map-model.json'), 'utf8'));
@@ -76,7 +77,8 @@ describe('datlas map', () => {
     const r = runCli(['map', '--store', store, '--out', join(dir, 'maps2'), '--x', 'width', '--y', 'label_noise', '--at', 'epochs=1000', '--method', 'linear', '--no-ridge']);
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/map custom: test_error over width \(log2/);
-    expect(r.stdout).toMatch(/fixed: train_size=500 \(picked: most data\), epochs=1000\n/);
+    // One train size in the store: it is fixed, not "picked (most data)".
+    expect(r.stdout).toMatch(/fixed: train_size=500, epochs=1000\n/);
     expect(r.stdout).toMatch(/method: linear, leave-one-out RMSE/);
     expect(r.stdout).toMatch(/wrote .*map-width-label_noise\.json/);
   });

@@ -35,6 +35,23 @@ describe('one name per option meaning', () => {
     expect(bad.stderr).toContain('--axis-scale expects axis=log2|linear');
   });
 
+  it('--correction takes benjamini-hochberg or bh (ridge, hurts) and prints the one name', () => {
+    for (const cmd of ['ridge', 'hurts']) {
+      const help = runCli([cmd, '--help']).stdout.replace(/\s+/g, ' ');
+      expect(help).toContain('benjamini-hochberg (bh for short;');
+      expect(help).toContain('[default: "benjamini-hochberg"]');
+      expect(help).not.toContain('"bh"');
+      for (const spelling of ['bh', 'benjamini-hochberg']) {
+        const r = runCli([cmd, '--kind', 'sample', '--json', '--boot', '20', '--correction', spelling].filter((a) => cmd === 'ridge' || (a !== '--kind' && a !== 'sample')), { cwd: dir });
+        expect(r.code, r.stderr).toBe(0);
+        expect(JSON.parse(r.stdout).correction).toBe('benjamini-hochberg');
+      }
+      const bad = runCli([cmd, '--correction', 'holm'], { cwd: dir });
+      expect(bad.code).toBe(2);
+      expect(bad.stderr).toContain("--correction expects benjamini-hochberg (bh for short) or none, got 'holm'");
+    }
+  });
+
   it('README and help spell the map axes the same way (-x/-y)', () => {
     const help = runCli(['map', '--help']).stdout;
     expect(help).toMatch(/^\s+-x\s/m);

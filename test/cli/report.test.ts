@@ -35,7 +35,7 @@ describe('datlas report', () => {
     maps: { map: string; fixed: Record<string, number>; rows: { y: number; peak: { x: number; low: number; high: number } | null }[] }[];
     hurts: { segments: { fixed: Record<string, number>; onset: number; peak: number }[] }[];
     coverage: { counts: { complete: number; missing: number } };
-    plan: { runs: { reason: string }[] };
+    plan: { runs: { config: Record<string, number | string>; seed: number; epochs: number; reason: string; cost: number; why: string }[] };
   };
   let out: string;
 
@@ -82,6 +82,19 @@ describe('datlas report', () => {
     expect(json.findings.some((f) => f.includes('2 of 126 planned runs have no data'))).toBe(true);
   });
 
+  it('proposes exactly the runs `datlas plan --json` proposes for the same store and spec', () => {
+    const r = runCli(['plan', '--store', store, '--spec', join(dir, 'spec.yaml'), '--json', '--quiet']);
+    expect(r.code, r.stderr).toBe(0);
+    const plan = JSON.parse(r.stdout) as { runs: { condition: string; width: number; train_size: number; label_noise: number; seed: number; epochs: number; reason: string; cost: number; why: string }[] };
+    expect(plan.runs.length).toBeGreaterThan(2);
+    // The report keeps the plan's order and rows; only the JSON cost is rounded for printing.
+    expect(json.plan.runs.map(({ cost: _, ...r }) => r)).toEqual(
+      plan.runs.map((p) => ({ config: { ...(p.condition ? { condition: p.condition } : {}), label_noise: p.label_noise, width: p.width, train_size: p.train_size }, seed: p.seed, epochs: p.epochs, reason: p.reason, why: p.why })),
+    );
+    // plan --json prints costs to 4 significant digits (roundCost).
+    json.plan.runs.forEach((run, i) => expect(Number(run.cost.toPrecision(4))).toBe(plan.runs[i].cost));
+  });
+
   it('writes the PDF deck, the HTML page, PNGs and JSON', () => {
     expect(existsSync(json.files.pdf)).toBe(true);
     expect(readFileSync(json.files.pdf).subarray(0, 5).toString()).toBe('%PDF-');
@@ -106,6 +119,15 @@ describe('datlas report', () => {
     expect(text).toContain('Headline findings');
     expect(text).toContain('Coverage against the spec');
     expect(text).toContain('Proposed next runs');
+    // The hurts page says its rises survived the correction across the slices scanned, uncut.
+    expect(text).toMatch(/\d+ of \d+ train-size slices show a rise, after correction \(Benjamini–Hochberg across the \d+ slices scanned, FDR 0\.05\) at epochs 1000; worst rise first/);
+  });
+
+  it('the HTML hurts section names the correction across slices', () => {
+    const html = readFileSync(json.files.html, 'utf8');
+    const section = html.slice(html.indexOf('<h2>Where more data hurts</h2>'));
+    expect(section).toMatch(/^<h2>Where more data hurts<\/h2><p class="meta">\d+ of \d+ train-size slices show a rise, after correction \(Benjamini–Hochberg across the \d+ slices scanned/);
+    expect(section).toContain('<th>adjusted p</th>');
   });
 });
 

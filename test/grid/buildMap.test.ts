@@ -36,11 +36,13 @@ describe('buildMap', () => {
     expect(map.y).toMatchObject({ name: 'epochs', scale: 'log2', values: EPOCHS });
     expect(map.x.edges[1]).toBeCloseTo(Math.sqrt(4 * 8), 12);
     expect(map.fixed).toEqual({ label_noise: 0.2, train_size: 1000 });
-    expect(map.picked).toEqual(['label_noise', 'train_size']);
+    // train_size has a single value (1000): it is fixed, but nothing was picked.
+    expect(map.picked).toEqual(['label_noise']);
     // Noise 0 and 0.2 hold as many rows: 0.2 is only the tie-break, and the map says so.
     expect(map.pickedTies).toEqual({ label_noise: 2 });
     expect(fixedLine(map)).toContain('label noise 0.2 (largest of 2 levels with equal data)');
-    expect(fixedLine(map)).toContain('train size 1000 (most data)');
+    expect(fixedLine(map)).toMatch(/train size 1000(?! \()/);
+    expect(fixedLine(map)).not.toContain('most data');
     expect(map.cells).toHaveLength(24);
     expect(map.missing).toEqual([]);
     expect(map.raster.value).toHaveLength(200);
@@ -59,7 +61,7 @@ describe('buildMap', () => {
     expect(buildMap(t, { method: 'linear' }).fixed.label_noise).toBe(0);
     const given = buildMap(t, { method: 'linear', at: { label_noise: 0.2 } });
     expect(given.fixed.label_noise).toBe(0.2);
-    expect(given.picked).toEqual(['train_size']);
+    expect(given.picked).toEqual([]);
     // A real majority is no tie.
     expect(buildMap(t, { method: 'linear' }).pickedTies).toEqual({});
   });
@@ -109,6 +111,19 @@ describe('buildMap', () => {
     expect(map.raster.sd).not.toBeNull();
     expect([...map.raster.sd!].every((s) => Number.isFinite(s) && s >= 0)).toBe(true);
     expect(map.fit?.lx).toBeGreaterThan(0);
+  });
+
+  it('lists an axis as picked only when the slice offers more than one value of it', () => {
+    const one = buildMap(tableFromRows(sweep({ noises: [0.1] })), { method: 'linear' });
+    expect(one.fixed).toEqual({ label_noise: 0.1, train_size: 1000 });
+    expect(one.picked).toEqual([]);
+    expect(one.pickedTies).toEqual({});
+    expect(fixedLine(one)).not.toMatch(/most data|largest of/);
+    // Two train sizes, the larger with more runs: now a real pick, by most data.
+    const two = buildMap(tableFromRows([...sweep({ noises: [0.1], sizes: [500] }).filter((r) => r.width !== 4).map((r) => ({ ...r, run: `n500-${r.run}` })), ...sweep({ noises: [0.1] })]), { method: 'linear' });
+    expect(two.fixed.train_size).toBe(1000);
+    expect(two.picked).toEqual(['train_size']);
+    expect(fixedLine(two)).toContain('train size 1000 (most data)');
   });
 
   it('any pair of axes: width × label_noise with epochs picked, label_noise linear', () => {
