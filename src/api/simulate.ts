@@ -24,11 +24,13 @@ export interface SimulateOptions {
   testSize?: number;
   /** Linear preset: ridge λ >= 0 or 'optimal'. */
   ridge?: number | 'optimal';
+  /** Per-epoch evaluation noise on test error (sd in [0, 1)), with single-epoch spikes (random-features presets only). */
+  evalNoise?: number;
   /** Worker threads (default: the number of cores). */
   workers?: number;
   force?: boolean;
-  /** Makes a progress reporter once the number of runs is known (the CLI's bar). */
-  progress?: (total: number) => Promise<{ tick(): void; done(): void }>;
+  /** Makes a progress reporter once the number of runs is known (the CLI's bar); `linear` says which kind of run it counts. */
+  progress?: (total: number, linear: boolean) => Promise<{ tick(): void; done(): void }>;
 }
 
 /** What `datlas simulate --json` prints. */
@@ -62,7 +64,9 @@ export async function simulate(opts: SimulateOptions = {}): Promise<SimulateSumm
   }
   const { presets } = await import('../simulate/presets.js');
   const { writeSweepLogs } = await import('../simulate/writeSweepLogs.js');
-  const { seeds, widths, trainSizes, labelNoise, epochs, testSize, ridge } = opts;
+  const { seeds, widths, trainSizes, labelNoise, epochs, testSize, ridge, evalNoise } = opts;
+  if (evalNoise !== undefined && !(Number.isFinite(evalNoise) && evalNoise >= 0 && evalNoise < 1)) throw usageError(t.badEvalNoise(String(evalNoise)));
+  if (preset === 'linear' && evalNoise !== undefined) throw usageError(t.evalNoiseNeedsFeatures);
   const started = performance.now();
   let table: RowTable;
   if (preset === 'linear') {
@@ -79,7 +83,7 @@ export async function simulate(opts: SimulateOptions = {}): Promise<SimulateSumm
       dims: Math.max(o.dims ?? 0, maxWidth),
     };
     const total = (typeof lin.seeds === 'number' ? lin.seeds : lin.seeds.length) * new Set(lin.widths).size * new Set(lin.trainSizes).size;
-    const bar = await progress(total);
+    const bar = await progress(total, true);
     table = linearSweep({ ...lin, onRun: () => bar.tick() });
     bar.done();
   } else {
@@ -94,6 +98,7 @@ export async function simulate(opts: SimulateOptions = {}): Promise<SimulateSumm
       ...(labelNoise && { labelNoise }),
       ...(epochs !== undefined && { maxEpochs: epochs }),
       ...(testSize !== undefined && { testSize }),
+      ...(evalNoise !== undefined && { evalNoise: { sd: evalNoise } }),
     };
     let total: number;
     try {
@@ -101,7 +106,7 @@ export async function simulate(opts: SimulateOptions = {}): Promise<SimulateSumm
     } catch (err) {
       throw usageError((err as Error).message);
     }
-    const bar = await progress(total);
+    const bar = await progress(total, false);
     table = await featuresSweepParallel({ ...feat, workers, onRun: () => bar.tick() });
     bar.done();
   }

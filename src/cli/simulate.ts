@@ -94,68 +94,32 @@ export const command: CommandSpec<SimulateArgs> = {
     if (preset === 'linear' && labelNoise) throw usageError(t.noiseNeedsFeatures);
     if (preset === 'linear' && epochs !== undefined) throw usageError(t.epochsNeedFeatures);
 
-    const out = args.out ?? `sweep-${preset}`;
-    if (!args.force) {
-      const entries = await readdir(out).catch(() => [] as string[]);
-      if (entries.length > 0) throw usageError(t.outNotEmpty(out));
-    }
-
-    const { presets } = await import('../simulate/presets.js');
-    const { writeSweepLogs } = await import('../simulate/writeSweepLogs.js');
-    const started = performance.now();
-    let table;
-    if (preset === 'linear') {
-      const { linearSweep } = await import('../simulate/linearSweep.js');
-      const o = presets.linear();
-      const maxWidth = Math.max(...(widths ?? o.widths));
-      const opts = {
-        ...o,
-        ...(seeds !== undefined && { seeds }),
-        ...(widths && { widths }),
-        ...(trainSizes && { trainSizes }),
-        ...(testSize !== undefined && { testSize }),
-        ...(ridge !== undefined && { ridge }),
-        dims: Math.max(o.dims ?? 0, maxWidth),
-      };
-      const total = (typeof opts.seeds === 'number' ? opts.seeds : opts.seeds.length) * new Set(opts.widths).size * new Set(opts.trainSizes).size;
-      const bar = await progressBar({ label: 'simulate', total, quiet: args.quiet || args.json, minTotal: 200, stage: 'fitting runs' });
-      table = linearSweep({ ...opts, onRun: () => bar.tick() });
-      bar.done();
-    } else {
-      const { featuresSweepParallel } = await import('../simulate/parallelSweep.js');
-      const { featuresRunCount, resolveFeaturesOptions } = await import('../simulate/featuresSweep.js');
-      const o = presets[preset as 'quick' | 'demo' | 'epochs']();
-      const opts = {
-        ...o,
-        ...(seeds !== undefined && { seeds }),
-        ...(widths && { widths }),
-        ...(trainSizes && { trainSizes }),
-        ...(labelNoise && { labelNoise }),
-        ...(epochs !== undefined && { maxEpochs: epochs }),
-        ...(testSize !== undefined && { testSize }),
-        ...(evalNoise !== undefined && { evalNoise: { sd: evalNoise } }),
-      };
-      let total: number;
-      try {
-        total = featuresRunCount(resolveFeaturesOptions(opts));
-      } catch (err) {
-        throw usageError((err as Error).message);
-      }
-      const bar = await progressBar({ label: 'simulate', total, quiet: args.quiet || args.json, minTotal: 2, stage: 'training runs' });
-      table = await featuresSweepParallel({ ...opts, workers, onRun: () => bar.tick() });
-      bar.done();
-    }
-    const files = await writeSweepLogs({ table, dir: out, shape: shape as (typeof SHAPES)[number] });
-    const seconds = (performance.now() - started) / 1000;
-    const runs = new Set(table.run).size;
+    // The library's simulate() does the work, so the command and the function cannot drift.
+    const { simulate } = await import('../api/simulate.js');
+    const summary = await simulate({
+      preset: preset as (typeof PRESETS)[number],
+      shape: shape as (typeof SHAPES)[number],
+      ...(args.out !== undefined && { out: args.out }),
+      force: args.force,
+      workers,
+      ...(seeds !== undefined && { seeds }),
+      ...(widths && { widths }),
+      ...(trainSizes && { trainSizes }),
+      ...(labelNoise && { labelNoise }),
+      ...(epochs !== undefined && { epochs }),
+      ...(testSize !== undefined && { testSize }),
+      ...(ridge !== undefined && { ridge }),
+      ...(evalNoise !== undefined && { evalNoise }),
+      progress: (total, linear) =>
+        progressBar({ label: 'simulate', total, quiet: args.quiet || args.json, minTotal: linear ? 200 : 2, stage: linear ? 'fitting runs' : 'training runs' }),
+    });
     if (args.json) {
-      const { simulateSummary } = await import('../api/simulate.js');
-      process.stdout.write(JSON.stringify(simulateSummary({ preset, out, shape, table, files: files.length, workers, seconds })) + '\n');
+      process.stdout.write(JSON.stringify(summary) + '\n');
     } else {
-      process.stdout.write(t.wrote(runs, table.length, files.length, out, seconds, shape) + '\n');
+      process.stdout.write(t.wrote(summary.runs, summary.rows, summary.files, summary.out, summary.seconds, shape) + '\n');
       if (!args.quiet) {
         process.stderr.write((preset === 'linear' ? t.linearNote : t.peakNote) + '\n');
-        process.stderr.write(t.nextStep(out) + '\n');
+        process.stderr.write(t.nextStep(summary.out) + '\n');
       }
     }
     return 0;

@@ -84,6 +84,22 @@ describe('the library gives what the commands print', () => {
     expect(readFileSync(join(dir, 'sim-a/sweep.csv'), 'utf8').split('\n').length - 2).toBe(mine.rows);
   });
 
+  it('simulate: evaluation noise as datlas simulate --eval-noise writes it, and refused where it cannot apply', async () => {
+    const mine = await simulate({ preset: 'quick', out: join(dir, 'sim-noise-a'), workers: 1, evalNoise: 0.02 });
+    const r = runCli(['simulate', '--preset', 'quick', '--out', join(dir, 'sim-noise-b'), '--workers', '1', '--eval-noise', '0.02', '--json']);
+    expect(r.code).toBe(0);
+    // Every column but wall_seconds (the time each run took) is the same, noise included.
+    const columns = (f: string) => readFileSync(join(dir, f, 'sweep.csv'), 'utf8').split('\n').map((l) => l.split(',').slice(0, -1).join(','));
+    expect(readFileSync(join(dir, 'sim-noise-a/sweep.csv'), 'utf8').split('\n')[0].endsWith(',wall_seconds')).toBe(true);
+    expect(columns('sim-noise-a')).toEqual(columns('sim-noise-b'));
+    // And the noise is there: test error differs from the same sweep without it.
+    await simulate({ preset: 'quick', out: join(dir, 'sim-noise-0'), workers: 1 });
+    expect(columns('sim-noise-a')).not.toEqual(columns('sim-noise-0'));
+    expect(mine.rows).toBe((JSON.parse(r.stdout) as { rows: number }).rows);
+    await expect(simulate({ preset: 'quick', out: join(dir, 'sim-noise-c'), evalNoise: 1.5 })).rejects.toThrow(/eval/i);
+    await expect(simulate({ preset: 'linear', out: join(dir, 'sim-noise-d'), evalNoise: 0.01 })).rejects.toThrow();
+  });
+
   it('ingest: --set values as numbers, the counts accounted, and UserErrors for what cannot be done', async () => {
     // Invented log (fixture): two epochs of one run with a bad line between them.
     const log = join(dir, 'one.csv');
